@@ -1,0 +1,46 @@
+// `npm test`: install what is missing, build, then run every suite (engine, server, client, e2e).
+import { existsSync } from 'node:fs';
+import { buildAll, ensureInstalled, run } from './lib.mjs';
+
+const CHROMIUM = process.env.TRACELOOM_CHROMIUM ?? '/usr/bin/chromium';
+
+function ensureChromium() {
+  if (existsSync(CHROMIUM)) return;
+  if (process.getuid?.() === 0) {
+    console.log('› installing Debian chromium for the browser tests…');
+    run('apt-get', ['update', '-q']);
+    run('apt-get', ['install', '-y', '-q', 'chromium'], {
+      env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+    });
+    return;
+  }
+  console.error(
+    `The browser tests need Chromium at ${CHROMIUM}. Install it with\n` +
+      '  sudo apt-get install -y chromium\n' +
+      'or point TRACELOOM_CHROMIUM at a Chromium binary, then run npm test again.',
+  );
+  process.exit(1);
+}
+
+const times = {};
+const started = Date.now();
+ensureInstalled();
+ensureChromium();
+times.build = timed(() => buildAll());
+times.engine = timed(() => run('npx', ['vitest', 'run', '--project', 'shared']));
+times.server = timed(() => run('npx', ['vitest', 'run', '--project', 'server']));
+times.client = timed(() =>
+  run('npx', ['ng', 'test', 'traceloom', '--watch=false'], {
+    env: { ...process.env, NG_CLI_ANALYTICS: 'false', CI: '1' },
+  }),
+);
+times.e2e = timed(() => run('npx', ['vitest', 'run', '--project', 'e2e']));
+console.log('\n✓ all suites passed');
+for (const [k, v] of Object.entries(times)) console.log(`  ${k.padEnd(8)} ${(v / 1000).toFixed(1)} s`);
+console.log(`  total    ${((Date.now() - started) / 1000).toFixed(1)} s`);
+
+function timed(fn) {
+  const t = Date.now();
+  fn();
+  return Date.now() - t;
+}
