@@ -1,3 +1,36 @@
 import { Routes } from '@angular/router';
+import { roleGuard, signedInGuard, signedOutGuard } from './core/guards';
 
-export const routes: Routes = [];
+export const routes: Routes = [
+  {
+    path: 'sign-in',
+    title: 'Sign in · Traceloom',
+    canActivate: [signedOutGuard],
+    loadComponent: () => import('./auth/sign-in').then((m) => m.SignIn),
+  },
+  {
+    path: '',
+    canActivate: [signedInGuard],
+    loadComponent: () => import('./shell/shell').then((m) => m.Shell),
+    children: [
+      { path: '', pathMatch: 'full', redirectTo: 'studies' },
+      {
+        path: 'studies',
+        title: 'Studies · Traceloom',
+        loadComponent: () => import('./studies/study-list').then((m) => m.StudyList),
+      },
+      {
+        path: 'studies/:id',
+        title: 'Study · Traceloom',
+        loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
+      },
+      {
+        path: 'admin/users',
+        title: 'Users · Traceloom',
+        canActivate: [roleGuard('admin')],
+        loadComponent: () => import('./admin/user-list').then((m) => m.UserList),
+      },
+    ],
+  },
+  { path: '**', redirectTo: '' },
+];

@@ -1,0 +1,86 @@
+import { HttpClient } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
+import { ActivatedRoute, Router } from '@angular/router';
+import { catchError, map, of } from 'rxjs';
+import { messageOf } from '../core/api-error';
+import { LIMITS } from '../core/api-types';
+import { Session } from '../core/session';
+import { LogoMark } from '../shell/logo-mark';
+
+interface Health {
+  mode?: string;
+}
+
+/** The sign-in page: e-mail and password, with the server's answer shown inline. */
+@Component({
+  selector: 'tl-sign-in',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressSpinnerModule,
+    LogoMark,
+  ],
+  templateUrl: './sign-in.html',
+  styleUrl: './sign-in.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class SignIn {
+  private readonly session = inject(Session);
+  private readonly router = inject(Router);
+  private readonly route = inject(ActivatedRoute);
+
+  protected readonly limits = LIMITS;
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    email: ['', [Validators.required, Validators.email, Validators.maxLength(LIMITS.emailMax)]],
+    password: ['', [Validators.required, Validators.maxLength(LIMITS.passwordMax)]],
+  });
+  protected readonly busy = signal(false);
+  protected readonly error = signal<string | null>(null);
+  protected readonly hidePassword = signal(true);
+  /** The demo sign-in is shown only when the server runs in demo mode. */
+  protected readonly demo = toSignal(
+    inject(HttpClient)
+      .get<Health>('/api/health')
+      .pipe(
+        map((h) => h.mode === 'demo'),
+        catchError(() => of(false)),
+      ),
+    { initialValue: false },
+  );
+
+  protected submit(): void {
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const { email, password } = this.form.getRawValue();
+    this.busy.set(true);
+    this.error.set(null);
+    this.session.signIn(email.trim(), password).subscribe({
+      next: () => {
+        this.busy.set(false);
+        void this.router.navigateByUrl(this.nextUrl());
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.error.set(messageOf(err));
+      },
+    });
+  }
+
+  private nextUrl(): string {
+    const next = this.route.snapshot.queryParamMap.get('next');
+    // Only paths inside the app: never an absolute URL from the query string.
+    return next && next.startsWith('/') && !next.startsWith('//') ? next : '/studies';
+  }
+}

@@ -1,0 +1,27 @@
+import { Role } from './api-types';
+
+/** One entry of the side navigation. */
+export interface NavItem {
+  /** Used for the data-testid (`nav-<id>`). */
+  id: string;
+  label: string;
+  icon: string;
+  route: string;
+  roles: readonly Role[];
+}
+
+const EVERYONE: readonly Role[] = ['author', 'reviewer', 'steward', 'admin'];
+
+/**
+ * Every destination of the side navigation, in display order. Later features (gases, runs,
+ * datasets, review inbox, audit log, help) add their entries here with the roles that may use them.
+ */
+export const NAV_ITEMS: readonly NavItem[] = [
+  { id: 'studies', label: 'Studies', icon: 'folder_open', route: '/studies', roles: EVERYONE },
+  { id: 'users', label: 'Users', icon: 'group', route: '/admin/users', roles: ['admin'] },
+];
+
+/** The navigation entries a role may use. */
+export function navItemsFor(role: Role | null): NavItem[] {
+  return role ? NAV_ITEMS.filter((item) => item.roles.includes(role)) : [];
+}
