@@ -1,0 +1,60 @@
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+/** Screenshots land here (git-ignored); CI keeps them as artifacts. */
+export const artifactsDir = path.join(root, 'test-artifacts', 'screens');
+
+/** A headless Debian chromium that records every request the page makes. */
+export interface TestBrowser {
+  browser: Browser;
+  newPage: () => Promise<{ page: Page; context: BrowserContext }>;
+  /** Hosts other than the app's own that any page asked for (must stay empty). */
+  foreignRequests: () => string[];
+  screenshot: (page: Page, name: string) => Promise<void>;
+  close: () => Promise<void>;
+}
+
+export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
+  const profile = mkdtempSync(path.join(os.tmpdir(), 'traceloom-chromium-'));
+  const browser = await chromium.launch({
+    executablePath: process.env.TRACELOOM_CHROMIUM ?? '/usr/bin/chromium',
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      `--user-data-dir=${profile}`,
+    ],
+  });
+  const own = new URL(baseUrl).host;
+  const foreign: string[] = [];
+  mkdirSync(artifactsDir, { recursive: true });
+  return {
+    browser,
+    newPage: async () => {
+      const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1366, height: 820 } });
+      context.on('request', (request) => {
+        const url = new URL(request.url());
+        if (url.protocol.startsWith('http') && url.host !== own) foreign.push(request.url());
+        if (url.protocol === 'ws:' || url.protocol === 'wss:') foreign.push(request.url());
+      });
+      return { page: await context.newPage(), context };
+    },
+    foreignRequests: () => [...foreign],
+    screenshot: async (page, name) => {
+      await page.screenshot({ path: path.join(artifactsDir, `${name}.png`), fullPage: true });
+    },
+    close: async () => {
+      await browser.close();
+      rmSync(profile, { recursive: true, force: true });
+    },
+  };
+}
