@@ -1,8 +1,12 @@
 import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
-const sharedSource = fileURLToPath(new URL('./shared/src/index.ts', import.meta.url));
-const alias = { '@traceloom/shared': sharedSource };
+const sharedSrc = fileURLToPath(new URL('./shared/src/', import.meta.url));
+/** `@traceloom/shared[/api|/engine]` resolve to the library's TypeScript source in tests. */
+const alias = [
+  { find: /^@traceloom\/shared$/, replacement: `${sharedSrc}index.ts` },
+  { find: /^@traceloom\/shared\/(api|engine)$/, replacement: `${sharedSrc}$1/index.ts` },
+];
 
 /**
  * Node-side test projects. The Angular client's unit tests run through `ng test`
