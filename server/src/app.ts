@@ -1,0 +1,47 @@
+import express, { type Express } from 'express';
+import type { DataSource } from 'typeorm';
+import type { AppContext } from './app-context.js';
+import { createAuthenticate } from './auth/authenticate.js';
+import { LoginThrottle } from './auth/login-throttle.js';
+import { hashPassword } from './auth/password.js';
+import type { ServerConfig } from './config.js';
+import { ensureTokenSecret } from './db/settings.js';
+import { apiNotFound, errorMiddleware } from './http/error-middleware.js';
+import { buildRouter } from './http/route-table.js';
+import { securityHeaders } from './http/security-headers.js';
+import { staticClient } from './http/static-client.js';
+import { apiRoutes } from './routes.js';
+
+/** What `createApp` needs: an initialized, migrated data source and the configuration. */
+export interface AppDeps {
+  dataSource: DataSource;
+  config: ServerConfig;
+  /** Where unexpected errors are logged (default: console.error). */
+  log?: (err: unknown) => void;
+}
+
+/**
+ * Builds the Express app (without listening): security headers, JSON body limit, the API from
+ * the route table, a JSON 404 for unknown /api paths, the built client when present, and the
+ * one error middleware. Loads (or creates) the token secret from the database.
+ */
+export async function createApp({ dataSource, config, log }: AppDeps): Promise<Express> {
+  const ctx: AppContext = {
+    dataSource,
+    config,
+    tokenSecret: await ensureTokenSecret(dataSource),
+    loginThrottle: new LoginThrottle(config.loginLimit.maxFailures, config.loginLimit.windowMs),
+    decoyPasswordHash: await hashPassword('decoy password, never matched', config.scrypt),
+  };
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', false);
+  app.use(securityHeaders());
+  app.use('/api', express.json({ limit: config.bodyLimitBytes }));
+  app.use('/api', buildRouter(apiRoutes(ctx), createAuthenticate(ctx)));
+  app.use('/api', apiNotFound);
+  const client = config.staticDir ? staticClient(config.staticDir) : null;
+  if (client) app.use(client);
+  app.use(errorMiddleware(log));
+  return app;
+}

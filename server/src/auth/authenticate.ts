@@ -1,0 +1,56 @@
+import type { RequestHandler } from 'express';
+import passport from 'passport';
+import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt';
+import type { AppContext } from '../app-context.js';
+import { User } from '../db/entities/index.js';
+import { AppError } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { TOKEN_ALGORITHM, type TokenClaims } from './tokens.js';
+
+function unauthenticated(): AppError {
+  return new AppError(
+    401,
+    'unauthenticated',
+    'Sign in to continue: the token is missing or no longer valid.',
+  );
+}
+
+/**
+ * Builds the bearer-token check: passport-jwt with HS256 pinned, then the database. A token only
+ * counts while its user exists, is not disabled and still has the token version (`tv`) it was
+ * signed with — so logout, a role change and disabling revoke every earlier token. Sets
+ * `res.locals.actor` from the database row (never from the token's claims) or answers 401.
+ */
+export function createAuthenticate(ctx: AppContext): RequestHandler {
+  const authenticator = new passport.Passport();
+  authenticator.use(
+    new JwtStrategy(
+      {
+        jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
+        secretOrKey: ctx.tokenSecret,
+        algorithms: [TOKEN_ALGORITHM],
+        ignoreExpiration: false,
+      },
+      (claims: Partial<TokenClaims>, done: (err: unknown, user?: Actor | false) => void) => {
+        if (typeof claims.sub !== 'string' || typeof claims.tv !== 'number')
+          return done(null, false);
+        ctx.dataSource
+          .getRepository(User)
+          .findOneBy({ id: claims.sub })
+          .then((user) => {
+            if (!user || user.disabled || user.tokenVersion !== claims.tv) return done(null, false);
+            const { id, email, displayName, role } = user;
+            done(null, { id, email, displayName, role });
+          }, done);
+      },
+    ),
+  );
+  return (req, res, next) => {
+    authenticator.authenticate('jwt', { session: false }, (err: unknown, actor: Actor | false) => {
+      if (err) return next(err);
+      if (!actor) return next(unauthenticated());
+      res.locals.actor = actor;
+      next();
+    })(req, res, next);
+  };
+}

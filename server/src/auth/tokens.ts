@@ -1,0 +1,22 @@
+import jwt from 'jsonwebtoken';
+
+/** The algorithm tokens are signed with; verification accepts nothing else. */
+export const TOKEN_ALGORITHM = 'HS256' as const;
+
+/** Claims Traceloom puts in a token. `role` is informative only: the database decides. */
+export interface TokenClaims {
+  sub: string;
+  tv: number;
+  role: string;
+}
+
+/** Signs a token for `claims`, valid for `ttlSeconds`; returns it with its expiry time. */
+export function signToken(
+  claims: TokenClaims,
+  secret: Buffer,
+  ttlSeconds: number,
+): { token: string; expiresAt: string } {
+  const token = jwt.sign(claims, secret, { algorithm: TOKEN_ALGORITHM, expiresIn: ttlSeconds });
+  const { exp } = jwt.decode(token) as { exp: number };
+  return { token, expiresAt: new Date(exp * 1000).toISOString() };
+}

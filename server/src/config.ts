@@ -1,0 +1,65 @@
+import path from 'node:path';
+
+/** How the server seeds data at start. */
+export type ServerMode = 'demo' | 'production' | 'test';
+
+/** scrypt cost parameters (RFC 7914 names). */
+export interface ScryptParams {
+  N: number;
+  r: number;
+  p: number;
+}
+
+/** Everything the server reads from its environment. */
+export interface ServerConfig {
+  port: number;
+  databasePath: string;
+  mode: ServerMode;
+  /** Directory of the built client; served with an SPA fallback when it exists. */
+  staticDir: string | null;
+  /** Token lifetime in seconds (at most 30 minutes). */
+  tokenTtlSeconds: number;
+  /** Password hashing cost. Production uses N = 2^17, r = 8, p = 1; tests may lower it. */
+  scrypt: ScryptParams;
+  /** Login throttle: failures allowed per account + IP within the window. */
+  loginLimit: { maxFailures: number; windowMs: number };
+  /** Largest JSON body accepted, in bytes. */
+  bodyLimitBytes: number;
+}
+
+/** The password hashing cost used outside tests (OWASP Password Storage Cheat Sheet minimum). */
+export const PRODUCTION_SCRYPT: ScryptParams = { N: 2 ** 17, r: 8, p: 1 };
+
+/** Defaults shared by `loadConfig` and the tests. */
+export const DEFAULT_CONFIG: ServerConfig = {
+  port: 4300,
+  databasePath: path.join('data', 'traceloom.sqlite'),
+  mode: 'production',
+  staticDir: path.join('dist', 'client', 'browser'),
+  tokenTtlSeconds: 30 * 60,
+  scrypt: PRODUCTION_SCRYPT,
+  loginLimit: { maxFailures: 10, windowMs: 15 * 60 * 1000 },
+  bodyLimitBytes: 1024 * 1024,
+};
+
+/**
+ * Reads `PORT`, `TRACELOOM_DB`, `TRACELOOM_MODE` and `TRACELOOM_STATIC`; throws a one-line
+ * message naming the variable when a value is unusable.
+ */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
+  const port = env.PORT === undefined || env.PORT === '' ? DEFAULT_CONFIG.port : Number(env.PORT);
+  if (!Number.isInteger(port) || port < 0 || port > 65535) {
+    throw new Error(`PORT must be an integer from 0 to 65535, got "${env.PORT}"`);
+  }
+  const mode = (env.TRACELOOM_MODE || 'production') as ServerMode;
+  if (!['demo', 'production', 'test'].includes(mode)) {
+    throw new Error(`TRACELOOM_MODE must be demo, production or test, got "${env.TRACELOOM_MODE}"`);
+  }
+  return {
+    ...DEFAULT_CONFIG,
+    port,
+    mode,
+    databasePath: env.TRACELOOM_DB || DEFAULT_CONFIG.databasePath,
+    staticDir: env.TRACELOOM_STATIC || DEFAULT_CONFIG.staticDir,
+  };
+}

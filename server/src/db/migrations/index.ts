@@ -1,0 +1,5 @@
+import { FoundationTables1764619200000 } from './1764619200000-foundation-tables.js';
+import { LookupIndexes1764619260000 } from './1764619260000-lookup-indexes.js';
+
+/** Committed migrations, oldest first. The first is the baseline. */
+export const MIGRATIONS = [FoundationTables1764619200000, LookupIndexes1764619260000];

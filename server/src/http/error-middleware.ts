@@ -1,0 +1,51 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { AppError } from './app-error.js';
+
+/** JSON 404 for any /api path no route answered. */
+export const apiNotFound: RequestHandler = (req) => {
+  throw new AppError(
+    404,
+    'not_found',
+    `No API route for ${req.method} ${req.originalUrl.split('?')[0]}.`,
+  );
+};
+
+/** Body-parser failures carry a `type`; map the ones a client can cause to clear answers. */
+function fromBodyParser(err: { type?: unknown; status?: unknown }): AppError | null {
+  switch (err.type) {
+    case 'entity.parse.failed':
+      return new AppError(400, 'invalid_json', 'The request body is not valid JSON.');
+    case 'entity.too.large':
+      return new AppError(413, 'payload_too_large', 'The request body is too large.');
+    case 'encoding.unsupported':
+    case 'charset.unsupported':
+      return new AppError(
+        415,
+        'unsupported_encoding',
+        'The request body encoding is not supported.',
+      );
+    default:
+      return null;
+  }
+}
+
+/**
+ * The one error middleware: renders `{error: {code, message, field?}}`. Unknown errors become a
+ * 500 with a generic sentence; their details go to the server log, never to the client.
+ */
+export function errorMiddleware(log: (err: unknown) => void = console.error): ErrorRequestHandler {
+  return (err, _req, res, next) => {
+    if (res.headersSent) return next(err);
+    const known =
+      err instanceof AppError ? err : typeof err === 'object' && err ? fromBodyParser(err) : null;
+    if (!known) log(err);
+    const appError = known ?? new AppError(500, 'internal', 'Something went wrong on the server.');
+    const body: { code: string; message: string; field?: string } = {
+      code: appError.code,
+      message: appError.message,
+    };
+    if (appError.field !== undefined) body.field = appError.field;
+    if (appError.headers) res.set(appError.headers);
+    res.status(appError.status).json({ error: body });
+  };
+}

@@ -1,0 +1,35 @@
+import { z } from 'zod';
+import { emailSchema, API_LIMITS } from './fields.js';
+import type { UserDto } from './users.js';
+
+/** Body of `POST /api/auth/login`. */
+export const loginSchema = z.strictObject({
+  email: emailSchema,
+  password: z
+    .string({ error: 'must be a text value' })
+    .min(1, 'must not be empty')
+    .max(API_LIMITS.passwordMax, `must be at most ${API_LIMITS.passwordMax} characters`),
+});
+
+/** Parsed login body. */
+export type LoginRequest = z.infer<typeof loginSchema>;
+
+/** Answer of a successful sign-in. */
+export interface LoginResponse {
+  token: string;
+  /** ISO time at which the token stops working. */
+  expiresAt: string;
+  user: UserDto;
+}
+
+/** Answer of `GET /api/health`. */
+export interface HealthDto {
+  status: 'ok' | 'degraded';
+  version: string;
+  database: 'ok' | 'error';
+}
+
+/** The body of every failed API request. */
+export interface ApiErrorBody {
+  error: { code: string; message: string; field?: string };
+}
