@@ -5,8 +5,8 @@ import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { messageOf } from '../core/api-error';
-import { showOnField } from '../core/form-errors';
-import { InviteResponse, LIMITS, ROLES, Role } from '../core/api-types';
+import { parseForRequest, showOnField } from '../core/form-errors';
+import { API_LIMITS, InviteResponse, ROLES, Role, inviteSchema } from '@traceloom/shared';
 import { ROLE_LABELS } from '../core/roles';
 import { notBlank } from '../core/validators';
 import { UsersApi } from './users-api';
@@ -23,14 +23,14 @@ export class UserInviteDialog {
   private readonly api = inject(UsersApi);
   private readonly dialogRef = inject<MatDialogRef<UserInviteDialog, InviteResponse>>(MatDialogRef);
 
-  protected readonly limits = LIMITS;
+  protected readonly limits = API_LIMITS;
   protected readonly roles = ROLES;
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly form = inject(NonNullableFormBuilder).group({
-    email: ['', [Validators.required, Validators.email, Validators.maxLength(LIMITS.emailMax)]],
+    email: ['', [Validators.required, Validators.email, Validators.maxLength(API_LIMITS.emailMax)]],
     displayName: [
       '',
-      [Validators.required, notBlank, Validators.maxLength(LIMITS.displayNameMax)],
+      [Validators.required, notBlank, Validators.maxLength(API_LIMITS.displayNameMax)],
     ],
     role: ['author' as Role, [Validators.required]],
   });
@@ -42,10 +42,13 @@ export class UserInviteDialog {
       this.form.markAllAsTouched();
       return;
     }
-    const { email, displayName, role } = this.form.getRawValue();
-    this.busy.set(true);
     this.error.set(null);
-    this.api.invite({ email: email.trim(), displayName: displayName.trim(), role }).subscribe({
+    const body = parseForRequest(this.form, inviteSchema, this.form.getRawValue(), (m) =>
+      this.error.set(m),
+    );
+    if (!body) return;
+    this.busy.set(true);
+    this.api.invite(body).subscribe({
       next: (res) => this.dialogRef.close(res),
       error: (err: unknown) => {
         this.busy.set(false);

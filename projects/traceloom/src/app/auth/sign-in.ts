@@ -10,13 +10,10 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { ActivatedRoute, Router } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 import { messageOf } from '../core/api-error';
-import { LIMITS } from '../core/api-types';
+import { API_LIMITS, HealthDto, loginSchema } from '@traceloom/shared';
+import { parseForRequest } from '../core/form-errors';
 import { Session } from '../core/session';
 import { LogoMark } from '../shell/logo-mark';
-
-interface Health {
-  mode?: string;
-}
 
 /** The sign-in page: e-mail and password, with the server's answer shown inline. */
 @Component({
@@ -39,10 +36,10 @@ export class SignIn {
   private readonly router = inject(Router);
   private readonly route = inject(ActivatedRoute);
 
-  protected readonly limits = LIMITS;
+  protected readonly limits = API_LIMITS;
   protected readonly form = inject(NonNullableFormBuilder).group({
-    email: ['', [Validators.required, Validators.email, Validators.maxLength(LIMITS.emailMax)]],
-    password: ['', [Validators.required, Validators.maxLength(LIMITS.passwordMax)]],
+    email: ['', [Validators.required, Validators.email, Validators.maxLength(API_LIMITS.emailMax)]],
+    password: ['', [Validators.required, Validators.maxLength(API_LIMITS.passwordMax)]],
   });
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
@@ -50,7 +47,7 @@ export class SignIn {
   /** The demo sign-in is shown only when the server runs in demo mode. */
   protected readonly demo = toSignal(
     inject(HttpClient)
-      .get<Health>('/api/health')
+      .get<HealthDto & { mode?: string }>('/api/health')
       .pipe(
         map((h) => h.mode === 'demo'),
         catchError(() => of(false)),
@@ -63,10 +60,13 @@ export class SignIn {
       this.form.markAllAsTouched();
       return;
     }
-    const { email, password } = this.form.getRawValue();
-    this.busy.set(true);
     this.error.set(null);
-    this.session.signIn(email.trim(), password).subscribe({
+    const body = parseForRequest(this.form, loginSchema, this.form.getRawValue(), (m) =>
+      this.error.set(m),
+    );
+    if (!body) return;
+    this.busy.set(true);
+    this.session.signIn(body.email, body.password).subscribe({
       next: () => {
         this.busy.set(false);
         void this.router.navigateByUrl(this.nextUrl());

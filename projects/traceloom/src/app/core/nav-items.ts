@@ -1,4 +1,4 @@
-import { Role } from './api-types';
+import { Role } from '@traceloom/shared';
 
 /** One entry of the side navigation. */
 export interface NavItem {

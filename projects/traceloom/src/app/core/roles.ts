@@ -1,4 +1,4 @@
-import { Role } from './api-types';
+import { Role } from '@traceloom/shared';
 
 /** How each role is named on screen. */
 export const ROLE_LABELS: Record<Role, string> = {

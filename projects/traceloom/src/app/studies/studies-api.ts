@@ -1,7 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import { DirectoryEntry, StudyDto } from '../core/api-types';
+import { DirectoryEntryDto, StudyDto } from '@traceloom/shared';
 
 /** The study endpoints (writes; reads go through httpResource in the components). */
 @Injectable({ providedIn: 'root' })
@@ -31,7 +31,7 @@ export class StudiesApi {
   }
 
   /** Active users, for picking members. */
-  directory(): Observable<DirectoryEntry[]> {
-    return this.http.get<DirectoryEntry[]>('/api/users/directory');
+  directory(): Observable<DirectoryEntryDto[]> {
+    return this.http.get<DirectoryEntryDto[]>('/api/users/directory');
   }
 }

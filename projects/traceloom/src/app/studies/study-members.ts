@@ -14,7 +14,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { messageOf } from '../core/api-error';
-import { DirectoryEntry, StudyDto } from '../core/api-types';
+import { DirectoryEntryDto, StudyDto } from '@traceloom/shared';
 import { ROLE_LABELS } from '../core/roles';
 import { StudiesApi } from './studies-api';
 
@@ -35,7 +35,7 @@ export class StudyMembers {
   readonly changed = output<StudyDto>();
 
   protected readonly roleLabels = ROLE_LABELS;
-  protected readonly directory = httpResource<DirectoryEntry[]>(
+  protected readonly directory = httpResource<DirectoryEntryDto[]>(
     () => (this.canManage() ? '/api/users/directory' : undefined),
     { defaultValue: [] },
   );
@@ -62,7 +62,7 @@ export class StudyMembers {
     this.run(this.api.addMember(this.study().id, userId), () => this.selected.set(''));
   }
 
-  protected remove(member: DirectoryEntry): void {
+  protected remove(member: DirectoryEntryDto): void {
     this.run(this.api.removeMember(this.study().id, member.id));
   }
 

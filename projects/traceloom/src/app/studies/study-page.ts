@@ -8,20 +8,18 @@ import {
   input,
   signal,
 } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import { ApiError, messageOf } from '../core/api-error';
-import { showOnField } from '../core/form-errors';
-import { LIMITS, StudyDto } from '../core/api-types';
+import { parseForRequest, showOnField } from '../core/form-errors';
+import { StudyDto, studyPatchSchema } from '@traceloom/shared';
 import { Session } from '../core/session';
-import { notBlank } from '../core/validators';
 import { StudiesApi } from './studies-api';
+import { StudyFields, studyFieldsGroup } from './study-fields';
 import { StudyMembers } from './study-members';
 
 /** One study: its title and description (editable for those who may) and its members. */
@@ -30,11 +28,10 @@ import { StudyMembers } from './study-members';
   imports: [
     ReactiveFormsModule,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     MatProgressBarModule,
     RouterLink,
+    StudyFields,
     StudyMembers,
   ],
   templateUrl: './study-page.html',
@@ -49,7 +46,6 @@ export class StudyPage {
   /** The study id, from the route. */
   readonly id = input.required<string>();
 
-  protected readonly limits = LIMITS;
   protected readonly study = httpResource<StudyDto>(
     () => `/api/studies/${encodeURIComponent(this.id())}`,
   );
@@ -76,10 +72,7 @@ export class StudyPage {
     return !!study && !!user && (user.role === 'admin' || study.owner.id === user.id);
   });
 
-  protected readonly form = inject(NonNullableFormBuilder).group({
-    title: ['', [Validators.required, notBlank, Validators.maxLength(LIMITS.titleMax)]],
-    description: ['', [Validators.maxLength(LIMITS.descriptionMax)]],
-  });
+  protected readonly form = studyFieldsGroup();
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
 
@@ -100,9 +93,12 @@ export class StudyPage {
       return;
     }
     const { title, description } = this.form.getRawValue();
-    this.saving.set(true);
     this.saveError.set(null);
-    this.api.update(this.id(), { title: title.trim(), description: description.trim() }).subscribe({
+    const raw = { title, description: description.trim() };
+    const body = parseForRequest(this.form, studyPatchSchema, raw, (m) => this.saveError.set(m));
+    if (!body) return;
+    this.saving.set(true);
+    this.api.update(this.id(), body).subscribe({
       next: (study) => {
         this.saving.set(false);
         this.study.value.set(study);
