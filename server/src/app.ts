@@ -38,7 +38,10 @@ export async function createApp({ dataSource, config, log }: AppDeps): Promise<E
   app.set('trust proxy', false);
   app.use(securityHeaders());
   app.use('/api', express.json({ limit: config.bodyLimitBytes }));
-  app.use('/api', buildRouter(apiRoutes(ctx), createAuthenticate(ctx)));
+  const routes = apiRoutes(ctx);
+  // Kept on the app so tests read the very table the router was built from.
+  app.locals.routeTable = routes.map(({ method, path, access }) => ({ method, path, access }));
+  app.use('/api', buildRouter(routes, createAuthenticate(ctx)));
   app.use('/api', apiNotFound);
   const client = config.staticDir ? staticClient(config.staticDir) : null;
   if (client) app.use(client);

@@ -1,4 +1,4 @@
-import { loginSchema } from '@traceloom/shared';
+import { loginSchema } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { parseInput } from '../http/validate.js';
 import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';

@@ -1,4 +1,4 @@
-import type { LoginRequest, LoginResponse } from '@traceloom/shared';
+import type { LoginRequest, LoginResponse } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { User } from '../db/entities/index.js';

@@ -1,4 +1,4 @@
-import type { Role } from '@traceloom/shared';
+import type { Role } from '@traceloom/shared/api';
 import type { DataSource } from 'typeorm';
 import { hashPassword } from '../auth/password.js';
 import type { ScryptParams } from '../config.js';

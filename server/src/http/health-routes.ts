@@ -1,4 +1,4 @@
-import type { HealthDto } from '@traceloom/shared';
+import type { HealthDto } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { VERSION } from '../version.js';
 import type { RouteSpec } from './route-table.js';

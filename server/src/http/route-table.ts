@@ -1,5 +1,5 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
-import type { Role } from '@traceloom/shared';
+import type { Role } from '@traceloom/shared/api';
 import { forbidden } from './app-error.js';
 
 /** The signed-in person behind a request, as loaded from the database for that request. */

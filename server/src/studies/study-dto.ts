@@ -1,4 +1,4 @@
-import type { StudyDto } from '@traceloom/shared';
+import type { StudyDto } from '@traceloom/shared/api';
 import type { Study } from '../db/entities/index.js';
 
 /** The API's view of a study loaded with its owner and members' users. */

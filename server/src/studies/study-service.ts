@@ -3,7 +3,7 @@ import type {
   StudyCreateRequest,
   StudyDto,
   StudyPatchRequest,
-} from '@traceloom/shared';
+} from '@traceloom/shared/api';
 import { In, type EntityManager } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';

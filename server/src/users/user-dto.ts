@@ -1,4 +1,4 @@
-import type { DirectoryEntryDto, UserDto } from '@traceloom/shared';
+import type { DirectoryEntryDto, UserDto } from '@traceloom/shared/api';
 import type { User } from '../db/entities/index.js';
 
 /** The API's view of a user row (never the hash or token version). */

@@ -1,4 +1,4 @@
-import { inviteSchema, userPatchSchema } from '@traceloom/shared';
+import { inviteSchema, userPatchSchema } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
 import { parseId, parseInput } from '../http/validate.js';

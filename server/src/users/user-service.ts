@@ -4,7 +4,7 @@ import type {
   InviteResponse,
   UserDto,
   UserPatchRequest,
-} from '@traceloom/shared';
+} from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { unusablePasswordHash } from '../auth/password.js';

@@ -6,7 +6,7 @@ import {
   PrimaryGeneratedColumn,
   type Relation,
 } from 'typeorm';
-import type { Role } from '@traceloom/shared';
+import type { Role } from '@traceloom/shared/api';
 import { User } from './user.entity.js';
 
 /** A record that an admin invited someone; the mail itself comes later. */

@@ -1,5 +1,5 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
-import type { Role } from '@traceloom/shared';
+import type { Role } from '@traceloom/shared/api';
 
 /** A person who can sign in (or has been invited to). */
 @Entity('user')
