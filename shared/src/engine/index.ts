@@ -1,1 +1,41 @@
-export {};
+/**
+ * The Traceloom engine: exact Puiseux series, the expression language, cycle weights, the
+ * canonical table by three routes, grand and reference checks, and the result format.
+ */
+export { compute } from './compute.js';
+export type {
+  CanonicalRowJson,
+  ClassRowJson,
+  ComputeOptions,
+  ComputeResult,
+  Progress,
+  Route,
+} from './result.js';
+export { EngineCancelled, EngineError, describeError, withField } from './errors.js';
+export * from './limits.js';
+export {
+  gasSpecSchema,
+  parseGasSpec,
+  weightSourceSchema,
+  grandSchema,
+  referenceSchema,
+} from './spec/schema.js';
+export type { GasSpec, GasSpecInput } from './spec/schema.js';
+export { Series, align, truncate, cutAt } from './series/series.js';
+export { add, sub, neg, mul, div, inverse, powInt, scale, shift } from './series/arith.js';
+export { exp, log, powRational } from './series/transcendental.js';
+export { compareSeries } from './series/compare.js';
+export type { Mismatch, Verdict } from './series/compare.js';
+export { toValueJson, toText, toLatex } from './series/format.js';
+export type { ValueJson } from './series/format.js';
+export { substitute } from './series/substitute.js';
+export { KSeries } from './grand/kseries.js';
+export { evaluateExpression, evaluateSeries } from './expr/evaluate.js';
+export type { Truncation } from './expr/evaluate.js';
+export { parseExpression, DISABLED_FUNCTIONS, limitedMath } from './expr/sandbox.js';
+export { cycleWeights } from './weights.js';
+export { newtonRecursion } from './canonical/recursion.js';
+export { classSum } from './canonical/classes.js';
+export type { ClassRow } from './canonical/classes.js';
+export { spectrumProduct } from './canonical/product.js';
+export type { RowVerdict, WeightVerdict } from './checks/grand.js';

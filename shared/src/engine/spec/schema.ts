@@ -1,0 +1,133 @@
+import Fraction from 'fraction.js';
+import { z } from 'zod';
+import { EngineError } from '../errors.js';
+import { MAX_CLASS_TABLE, MAX_EXPRESSION_LENGTH, MAX_NMAX, MAX_ORDER } from '../limits.js';
+
+const expression = z
+  .string({ error: 'must be an expression (a string)' })
+  .min(1, { error: 'must not be empty' })
+  .max(MAX_EXPRESSION_LENGTH, { error: `is longer than ${MAX_EXPRESSION_LENGTH} characters` });
+
+const rationalText = z
+  .string({ error: 'must be a rational number written as a string, e.g. "1/2"' })
+  .regex(/^\s*-?\d+(\s*\/\s*\d+)?\s*$/, {
+    error: 'must be a rational number such as "3" or "1/2"',
+  });
+
+const bound = z.union([rationalText, z.null()], { error: 'must be a rational string or null' });
+
+const values = z.object({
+  kind: z.literal('values'),
+  values: z
+    .array(expression, { error: 'must be a list of expressions' })
+    .min(1, { error: 'needs at least Z_1' }),
+});
+const formula = z.object({ kind: z.literal('formula'), expression });
+const spectrum = z.object({
+  kind: z.literal('spectrum'),
+  expression,
+  offset: rationalText.default('0'),
+  from: bound.default(null),
+  to: bound.default(null),
+});
+
+/** Weight sources: a list, a formula in L, or a spectrum c_p over offset + integers. */
+export const weightSourceSchema = z.discriminatedUnion('kind', [values, formula, spectrum], {
+  error: 'kind must be values, formula or spectrum',
+});
+
+/** A supplied grand function: its coefficients Z(0), Z(1), ... or an expression in kappa. */
+export const grandSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.object({ kind: z.literal('coefficients'), values: z.array(expression).min(1) }),
+    z.object({ kind: z.literal('expression'), expression }),
+  ],
+  { error: 'kind must be coefficients or expression' },
+);
+
+/** A reference table: rows N -> value, compared after applying the normalization to Z(N). */
+export const referenceSchema = z.object({
+  normalization: expression.default('1'),
+  rows: z
+    .array(
+      z.object({
+        N: z.number({ error: 'must be an integer' }).int({ error: 'must be an integer' }).min(0),
+        value: expression,
+      }),
+    )
+    .max(1000, { error: 'has more than 1000 rows' }),
+});
+
+/** The gas spec `traceloom.gas/1` (see docs/spec.md). */
+export const gasSpecSchema = z
+  .object({
+    format: z.literal('traceloom.gas/1', { error: 'must be "traceloom.gas/1"' }),
+    title: z.string().max(200).optional(),
+    statistics: z.enum(['fermion', 'boson'], { error: 'must be "fermion" or "boson"' }),
+    variable: z
+      .string()
+      .regex(/^[a-z]$/, { error: 'must be one lower-case letter' })
+      .refine((v) => !['e', 'i'].includes(v), { error: 'e and i are not allowed' })
+      .default('q'),
+    step: rationalText.default('1'),
+    order: z.union([rationalText, z.null()], { error: 'must be a rational string or null' }),
+    nMax: z
+      .number({ error: 'must be an integer' })
+      .int({ error: 'must be an integer' })
+      .min(0, { error: 'must be at least 0' })
+      .max(MAX_NMAX, { error: `must be at most ${MAX_NMAX}` }),
+    classTable: z
+      .number({ error: 'must be an integer' })
+      .int({ error: 'must be an integer' })
+      .min(0, { error: 'must be at least 0' })
+      .max(MAX_CLASS_TABLE, { error: `must be at most ${MAX_CLASS_TABLE}` })
+      .default(0),
+    weights: weightSourceSchema,
+    grand: grandSchema.optional(),
+    reference: referenceSchema.optional(),
+  })
+  .superRefine((spec, ctx) => {
+    const step = new Fraction(spec.step);
+    if (step.compare(0) <= 0)
+      ctx.addIssue({ code: 'custom', path: ['step'], message: 'must be positive' });
+    if (spec.order !== null && step.compare(0) > 0) {
+      const idx = new Fraction(spec.order).div(step);
+      if (idx.d !== 1n)
+        ctx.addIssue({ code: 'custom', path: ['order'], message: 'must be a multiple of step' });
+      else if (idx.compare(MAX_ORDER) > 0) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['order'],
+          message: `is more than ${MAX_ORDER} steps`,
+        });
+      } else if (idx.compare(0) <= 0) {
+        ctx.addIssue({ code: 'custom', path: ['order'], message: 'must be positive' });
+      }
+    }
+    if (spec.classTable > spec.nMax) {
+      ctx.addIssue({ code: 'custom', path: ['classTable'], message: 'must not exceed nMax' });
+    }
+  });
+
+/** A validated gas spec. */
+export type GasSpec = z.infer<typeof gasSpecSchema>;
+/** A gas spec as written (defaults not yet applied). */
+export type GasSpecInput = z.input<typeof gasSpecSchema>;
+
+/** Validate an unknown value as a gas spec; the error names the first offending field. */
+export function parseGasSpec(input: unknown): GasSpec {
+  const r = gasSpecSchema.safeParse(input);
+  if (r.success) return r.data;
+  const issue = r.error.issues[0]!;
+  const field = issue.path.map(String).join('.') || 'spec';
+  let at: unknown = input;
+  for (const key of issue.path)
+    at =
+      at && typeof at === 'object'
+        ? (at as Record<PropertyKey, unknown>)[key as PropertyKey]
+        : undefined;
+  const message = issue.code === 'invalid_type' && at === undefined ? 'is required' : issue.message;
+  if (field === 'spec') throw new EngineError(`the spec ${message}`, field);
+  throw new EngineError(message, field);
+}
