@@ -1,5 +1,4 @@
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import os from 'node:os';
+import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
@@ -8,7 +7,10 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '.
 /** Screenshots land here (git-ignored); CI keeps them as artifacts. */
 export const artifactsDir = path.join(root, 'test-artifacts', 'screens');
 
-/** A headless Debian chromium that records every request the page makes. */
+/**
+ * A headless Debian chromium (fresh temporary profile per launch, made by playwright) that records
+ * every request the pages make.
+ */
 export interface TestBrowser {
   browser: Browser;
   newPage: () => Promise<{ page: Page; context: BrowserContext }>;
@@ -19,7 +21,6 @@ export interface TestBrowser {
 }
 
 export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
-  const profile = mkdtempSync(path.join(os.tmpdir(), 'traceloom-chromium-'));
   const browser = await chromium.launch({
     executablePath: process.env.TRACELOOM_CHROMIUM ?? '/usr/bin/chromium',
     args: [
@@ -31,7 +32,6 @@ export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
       '--disable-component-update',
       '--disable-sync',
       '--no-first-run',
-      `--user-data-dir=${profile}`,
     ],
   });
   const own = new URL(baseUrl).host;
@@ -54,7 +54,6 @@ export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
     },
     close: async () => {
       await browser.close();
-      rmSync(profile, { recursive: true, force: true });
     },
   };
 }
