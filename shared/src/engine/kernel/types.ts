@@ -1,0 +1,36 @@
+/** Shared shapes of the numeric kernels. */
+
+/** Input of the canonical-table kernels: integer weight numerators on a grid from exponent 0. */
+export interface NewtonTableInput {
+  /** weights[L-1][i] = numerator of the coefficient of t^i in Z_L (t = q^step), L = 1..nMax */
+  readonly weights: readonly (readonly bigint[])[];
+  /** the common denominator of all weights (> 0) */
+  readonly den: bigint;
+  readonly nMax: number;
+  /** +1 bosons, -1 fermions */
+  readonly sign: 1 | -1;
+  /** number of grid points below the order: coefficients t^0..t^(length-1) are computed */
+  readonly length: number;
+  /** called as work proceeds */
+  readonly onProgress?: (done: number, total: number) => void;
+  /** polled between steps; true stops the run with KernelStopped */
+  readonly shouldStop?: () => boolean;
+}
+
+/** Z(N) = num[N][i] / den[N] at t^i, for N = 0..nMax (den[N] the reduced common denominator). */
+export interface NewtonTableResult {
+  readonly num: bigint[][];
+  readonly den: bigint[];
+  /** number of word primes used (0 on the BigInt route) */
+  readonly primes: number;
+  /** true when the weights were certified to give integer Z(N) */
+  readonly integral: boolean;
+}
+
+/** Thrown when shouldStop() asked a kernel to stop. */
+export class KernelStopped extends Error {
+  constructor() {
+    super('computation stopped');
+    this.name = 'KernelStopped';
+  }
+}
