@@ -6,7 +6,7 @@ import { LoginThrottle } from './auth/login-throttle.js';
 import { hashPassword } from './auth/password.js';
 import type { ServerConfig } from './config.js';
 import { ensureTokenSecret } from './db/settings.js';
-import { apiNotFound, errorMiddleware } from './http/error-middleware.js';
+import { apiNotFound, errorMiddleware, notFound } from './http/error-middleware.js';
 import { buildRouter } from './http/route-table.js';
 import { securityHeaders } from './http/security-headers.js';
 import { staticClient } from './http/static-client.js';
@@ -43,8 +43,8 @@ export async function createApp({ dataSource, config, log }: AppDeps): Promise<E
   app.locals.routeTable = routes.map(({ method, path, access }) => ({ method, path, access }));
   app.use('/api', buildRouter(routes, createAuthenticate(ctx)));
   app.use('/api', apiNotFound);
-  const client = config.staticDir ? staticClient(config.staticDir) : null;
-  if (client) app.use(client);
+  if (config.staticDir) app.use(staticClient(config.staticDir));
+  app.use(notFound);
   app.use(errorMiddleware(log));
   return app;
 }

@@ -10,6 +10,11 @@ export const apiNotFound: RequestHandler = (req) => {
   );
 };
 
+/** JSON 404 for anything else nothing answered (e.g. a path when the client is not built). */
+export const notFound: RequestHandler = (req) => {
+  throw new AppError(404, 'not_found', `Nothing is served at ${req.path}.`);
+};
+
 /** Body-parser failures carry a `type`; map the ones a client can cause to clear answers. */
 function fromBodyParser(err: { type?: unknown; status?: unknown }): AppError | null {
   switch (err.type) {

@@ -202,3 +202,16 @@ describe('built client', () => {
     }
   });
 });
+
+describe('client not built', () => {
+  it('answers app paths with a JSON 404 when the client directory has no index.html', async () => {
+    const missing = await createTestApp({ staticDir: path.join(t.dir, 'no-client-here') });
+    try {
+      const res = await request(missing.app).get('/studies/some-id');
+      expect(res.status).toBe(404);
+      expect(res.body.error.code).toBe('not_found');
+    } finally {
+      await missing.close();
+    }
+  });
+});
