@@ -6,7 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { messageOf } from '../core/api-error';
 import { parseForRequest, showOnField } from '../core/form-errors';
-import { API_LIMITS, InviteResponse, ROLES, Role, inviteSchema } from '@traceloom/shared';
+import { API_LIMITS, InviteResponse, ROLES, Role, inviteSchema } from '@traceloom/shared/api';
 import { ROLE_LABELS } from '../core/roles';
 import { notBlank } from '../core/validators';
 import { UsersApi } from './users-api';

@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { messageOf } from '../core/api-error';
-import { InviteResponse, ROLES, Role, UserDto } from '@traceloom/shared';
+import { InviteResponse, ROLES, Role, UserDto } from '@traceloom/shared/api';
 import { ROLE_LABELS } from '../core/roles';
 import { Session } from '../core/session';
 import { UserInviteDialog } from './user-invite-dialog';

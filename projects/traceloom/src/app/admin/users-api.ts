@@ -1,7 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import { InviteResponse, Role, UserDto } from '@traceloom/shared';
+import { InviteResponse, Role, UserDto } from '@traceloom/shared/api';
 
 /** The admin's user endpoints (writes; the list is read with httpResource). */
 @Injectable({ providedIn: 'root' })

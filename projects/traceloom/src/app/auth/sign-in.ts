@@ -10,7 +10,7 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { ActivatedRoute, Router } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 import { messageOf } from '../core/api-error';
-import { API_LIMITS, HealthDto, loginSchema } from '@traceloom/shared';
+import { API_LIMITS, HealthDto, loginSchema } from '@traceloom/shared/api';
 import { parseForRequest } from '../core/form-errors';
 import { Session } from '../core/session';
 import { LogoMark } from '../shell/logo-mark';

@@ -9,7 +9,7 @@ import {
   UrlTree,
   provideRouter,
 } from '@angular/router';
-import { Role } from '@traceloom/shared';
+import { Role } from '@traceloom/shared/api';
 import { roleGuard, signedInGuard } from './guards';
 import { signInAs } from './session-testing';
 

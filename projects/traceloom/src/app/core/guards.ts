@@ -1,6 +1,6 @@
 import { inject } from '@angular/core';
 import { CanActivateFn, Router } from '@angular/router';
-import { Role } from '@traceloom/shared';
+import { Role } from '@traceloom/shared/api';
 import { Session } from './session';
 
 /** Lets signed-in users through; sends everyone else to /sign-in, remembering where they were. */

@@ -1,4 +1,4 @@
-import { Role } from '@traceloom/shared';
+import { Role } from '@traceloom/shared/api';
 
 /** One entry of the side navigation. */
 export interface NavItem {

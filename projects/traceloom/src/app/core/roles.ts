@@ -1,4 +1,4 @@
-import { Role } from '@traceloom/shared';
+import { Role } from '@traceloom/shared/api';
 
 /** How each role is named on screen. */
 export const ROLE_LABELS: Record<Role, string> = {

@@ -1,6 +1,6 @@
 import { TestBed } from '@angular/core/testing';
 import { HttpTestingController } from '@angular/common/http/testing';
-import { Role, UserDto } from '@traceloom/shared';
+import { Role, UserDto } from '@traceloom/shared/api';
 import { Session } from './session';
 
 /** A user of the given role, for unit tests. */

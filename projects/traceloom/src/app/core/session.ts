@@ -1,7 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { Observable, firstValueFrom, map, tap } from 'rxjs';
-import { LoginResponse, Role, UserDto } from '@traceloom/shared';
+import { LoginResponse, Role, UserDto } from '@traceloom/shared/api';
 
 const TOKEN_KEY = 'traceloom.token';
 const EXPIRES_KEY = 'traceloom.expiresAt';

@@ -4,7 +4,7 @@ import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { Router, provideRouter } from '@angular/router';
-import { Role } from '@traceloom/shared';
+import { Role } from '@traceloom/shared/api';
 import { apiInterceptor } from '../core/api-interceptor';
 import { Session } from '../core/session';
 import { signInAs } from '../core/session-testing';

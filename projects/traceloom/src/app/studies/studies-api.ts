@@ -1,7 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import { DirectoryEntryDto, StudyDto } from '@traceloom/shared';
+import { DirectoryEntryDto, StudyDto } from '@traceloom/shared/api';
 
 /** The study endpoints (writes; reads go through httpResource in the components). */
 @Injectable({ providedIn: 'root' })

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { messageOf } from '../core/api-error';
 import { parseForRequest, showOnField } from '../core/form-errors';
-import { StudyDto, studyCreateSchema } from '@traceloom/shared';
+import { StudyDto, studyCreateSchema } from '@traceloom/shared/api';
 import { StudiesApi } from './studies-api';
 import { StudyFields, studyFieldsGroup } from './study-fields';
 

@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { API_LIMITS } from '@traceloom/shared';
+import { API_LIMITS } from '@traceloom/shared/api';
 import { notBlank } from '../core/validators';
 
 /** The controls of a study's title and description. */

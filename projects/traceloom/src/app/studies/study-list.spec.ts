@@ -4,7 +4,7 @@ import { provideZonelessChangeDetection } from '@angular/core';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
-import { Role, StudyDto } from '@traceloom/shared';
+import { Role, StudyDto } from '@traceloom/shared/api';
 import { apiInterceptor } from '../core/api-interceptor';
 import { signInAs } from '../core/session-testing';
 import { StudyList } from './study-list';

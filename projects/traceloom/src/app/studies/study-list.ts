@@ -7,7 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { messageOf } from '../core/api-error';
-import { StudyDto } from '@traceloom/shared';
+import { StudyDto } from '@traceloom/shared/api';
 import { canCreateStudy } from '../core/roles';
 import { Session } from '../core/session';
 import { StudyCreateDialog } from './study-create-dialog';

@@ -14,7 +14,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { messageOf } from '../core/api-error';
-import { DirectoryEntryDto, StudyDto } from '@traceloom/shared';
+import { DirectoryEntryDto, StudyDto } from '@traceloom/shared/api';
 import { ROLE_LABELS } from '../core/roles';
 import { StudiesApi } from './studies-api';
 

@@ -16,7 +16,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import { ApiError, messageOf } from '../core/api-error';
 import { parseForRequest, showOnField } from '../core/form-errors';
-import { StudyDto, studyPatchSchema } from '@traceloom/shared';
+import { StudyDto, studyPatchSchema } from '@traceloom/shared/api';
 import { Session } from '../core/session';
 import { StudiesApi } from './studies-api';
 import { StudyFields, studyFieldsGroup } from './study-fields';
