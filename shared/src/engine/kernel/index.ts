@@ -9,3 +9,16 @@ export { newtonTable, newtonTableModular } from './newton-table.js';
 export { newtonTableBig } from './newton-big.js';
 export { newtonIsIntegral } from './integrality.js';
 export { KernelStopped, type NewtonTableInput, type NewtonTableResult } from './types.js';
+export {
+  foldCycleTypes,
+  forEachCycleType,
+  exponentNotation,
+  type CycleTypeVisit,
+} from './cycle-types.js';
+export {
+  classSumRational,
+  reduceRational,
+  type ClassRow,
+  type ClassSumInput,
+  type RationalParts,
+} from './class-sum.js';

@@ -17,6 +17,7 @@ export function mulMod(a: number, b: number, p: number): number {
 
 /** base^exp mod p by repeated squaring (exp a non-negative integer below 2^53). */
 export function powMod(base: number, exp: number, p: number): number {
+  if (p >= MAX_WORD_MODULUS) throw new RangeError(`modulus ${p} is not below 2^26`);
   let result = 1 % p;
   let b = base % p;
   let e = exp;

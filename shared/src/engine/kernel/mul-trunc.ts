@@ -38,6 +38,7 @@ function nonZeroCount(a: readonly bigint[], n: number): number {
 /** Schoolbook product, first n coefficients (zero coefficients of either side skipped). */
 export function mulSchoolbook(a: readonly bigint[], b: readonly bigint[], n: number): bigint[] {
   if (a.length > b.length) [a, b] = [b, a];
+  if (a.length === 0) return [];
   const len = Math.max(0, Math.min(n, a.length + b.length - 1));
   const out = new Array<bigint>(len).fill(0n);
   for (let i = 0; i < a.length && i < len; i++) {
@@ -107,7 +108,7 @@ function unpack(x: bigint, n: number, hexDigits: number): bigint[] {
 export function mulKronecker(a: readonly bigint[], b: readonly bigint[], n: number): bigint[] {
   const la = Math.min(a.length, n);
   const lb = Math.min(b.length, n);
-  const len = Math.max(0, Math.min(n, la + lb - 1));
+  const len = la === 0 || lb === 0 ? 0 : Math.max(0, Math.min(n, la + lb - 1));
   if (len === 0) return [];
   const bits = maxBits(a, la) + maxBits(b, lb) + Math.ceil(Math.log2(Math.min(la, lb) + 1)) + 2;
   const hexDigits = Math.ceil(bits / 4);

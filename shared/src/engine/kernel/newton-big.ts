@@ -3,6 +3,7 @@
  * multi-modular route does not take. Works on X_N = N! D^N Z(N), which is integral:
  * X_N = sum_L s^(L-1) w_L X_(N-L) D^(L-1) (N-1)!/(N-L)!.
  */
+import { gcdBig } from './gcd.js';
 import { mulTrunc } from './mul-trunc.js';
 import { KernelStopped, type NewtonTableInput, type NewtonTableResult } from './types.js';
 
@@ -38,16 +39,9 @@ export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
     let g = scale[N]!;
     const row = x[N]!.slice(0, length);
     while (row.length < length) row.push(0n);
-    for (const c of row) if (c !== 0n && g !== 1n) g = gcd(g, c);
+    for (const c of row) if (c !== 0n && g !== 1n) g = gcdBig(g, c);
     num.push(g === 1n ? row : row.map((c) => c / g));
     dens.push(scale[N]! / g);
   }
   return { num, den: dens, primes: 0, integral: false };
-}
-
-function gcd(a: bigint, b: bigint): bigint {
-  if (a < 0n) a = -a;
-  if (b < 0n) b = -b;
-  while (b !== 0n) [a, b] = [b, a % b];
-  return a;
 }

@@ -11,6 +11,7 @@
  * Y_N = d_N Z(N) with d_N = 1 when the weights are certified integral (integrality.ts) and
  * d_N = N! D^N otherwise (then c_{N,L} = N!/(N-L)! D^(L-1)); the result is reduced.
  */
+import { gcdBig } from './gcd.js';
 import { newtonCoefficientLog2Bounds, logAbs } from './coefficient-bound.js';
 import { newtonIsIntegral } from './integrality.js';
 import { invMod, transformPrimes, type TransformPrime } from './modular.js';
@@ -273,11 +274,4 @@ function assemble(
     dens.push(scaleBig[N]! / g);
   }
   return { num, den: dens, primes: K, integral };
-}
-
-function gcdBig(a: bigint, b: bigint): bigint {
-  if (a < 0n) a = -a;
-  if (b < 0n) b = -b;
-  while (b !== 0n) [a, b] = [b, a % b];
-  return a;
 }
