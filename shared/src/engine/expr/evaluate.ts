@@ -38,7 +38,11 @@ function literal(node: MathNode): Value {
     if (!d.isFinite() || Math.abs(d.e ?? 0) > 1000) throw new EngineError('number out of range');
     text = d.toFixed();
   } else throw new EngineError('only numbers are allowed as constants');
-  return Series.constant(new Fraction(text));
+  try {
+    return Series.constant(new Fraction(text));
+  } catch {
+    throw new EngineError(`cannot read the number ${text}`);
+  }
 }
 
 /** Evaluate a parsed expression over the engine's exact values. */

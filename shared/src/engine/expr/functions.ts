@@ -194,7 +194,7 @@ export function callFunction(
       return vLog(ev(0), ctx);
     case 'O': {
       arity(name, args, 1);
-      const m = ev(0);
+      const m = evaluate(args[0]!, { ...ctx, cap: null }); // the bound itself is never truncated
       if (!(m instanceof Series) || m.order !== null || m.num.length !== 1) {
         throw new EngineError(
           `O(...) takes a single power of ${ctx.variable}, e.g. O(${ctx.variable}^5)`,

@@ -13,7 +13,9 @@ export const DISABLED_FUNCTIONS = [
   'derivative',
 ] as const;
 
-const math = mathjs.create(mathjs.all, { number: 'BigNumber', precision: 64 });
+const math = mathjs.create(mathjs.all);
+// numbers are read as decimals so that 0.1 becomes exactly 1/10
+math.config({ number: 'BigNumber', precision: 64 });
 const privateParse = math.parse;
 const disabled = (name: string) => () => {
   throw new EngineError(`function ${name} is disabled`);

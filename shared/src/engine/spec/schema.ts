@@ -128,6 +128,6 @@ export function parseGasSpec(input: unknown): GasSpec {
         ? (at as Record<PropertyKey, unknown>)[key as PropertyKey]
         : undefined;
   const message = issue.code === 'invalid_type' && at === undefined ? 'is required' : issue.message;
-  if (field === 'spec') throw new EngineError(`the spec ${message}`, field);
+  if (field === 'spec') throw new EngineError('must be a JSON object (a gas spec)', field);
   throw new EngineError(message, field);
 }
