@@ -8,6 +8,7 @@ import type {
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { unusablePasswordHash } from '../auth/password.js';
+import { isUniqueViolation } from '../db/constraint-errors.js';
 import { Invitation, User } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
@@ -37,50 +38,49 @@ export async function inviteUser(
   actor: Actor,
   input: InviteRequest,
 ): Promise<InviteResponse> {
-  return ctx.dataSource.transaction(async (manager) => {
-    const users = manager.getRepository(User);
-    if (await users.existsBy({ email: input.email })) {
-      throw new AppError(
-        409,
-        'email_taken',
-        'An account with this e-mail already exists.',
-        'email',
+  const emailTaken = () =>
+    new AppError(409, 'email_taken', 'An account with this e-mail already exists.', 'email');
+  return ctx.dataSource
+    .transaction(async (manager) => {
+      const users = manager.getRepository(User);
+      if (await users.existsBy({ email: input.email })) throw emailTaken();
+      const now = new Date().toISOString();
+      const user = await users.save(
+        users.create({
+          email: input.email,
+          displayName: input.displayName,
+          role: input.role,
+          passwordHash: unusablePasswordHash(),
+          tokenVersion: 0,
+          disabled: false,
+          createdAt: now,
+        }),
       );
-    }
-    const now = new Date().toISOString();
-    const user = await users.save(
-      users.create({
-        email: input.email,
-        displayName: input.displayName,
-        role: input.role,
-        passwordHash: unusablePasswordHash(),
-        tokenVersion: 0,
-        disabled: false,
-        createdAt: now,
-      }),
-    );
-    const invitations = manager.getRepository(Invitation);
-    const invitation = await invitations.save(
-      invitations.create({
-        email: input.email,
-        role: input.role,
-        invitedBy: { id: actor.id },
-        createdAt: now,
-        acceptedAt: null,
-      }),
-    );
-    await recordAudit(manager, {
-      actorId: actor.id,
-      action: 'user.invite',
-      targetType: 'user',
-      targetId: user.id,
-      detail: { email: input.email, role: input.role, invitationId: invitation.id },
+      const invitations = manager.getRepository(Invitation);
+      const invitation = await invitations.save(
+        invitations.create({
+          email: input.email,
+          role: input.role,
+          invitedBy: { id: actor.id },
+          createdAt: now,
+          acceptedAt: null,
+        }),
+      );
+      await recordAudit(manager, {
+        actorId: actor.id,
+        action: 'user.invite',
+        targetType: 'user',
+        targetId: user.id,
+        detail: { email: input.email, role: input.role, invitationId: invitation.id },
+      });
+      return {
+        user: toUserDto(user),
+        invitation: { id: invitation.id, email: invitation.email, createdAt: invitation.createdAt },
+      };
+    })
+    .catch((err: unknown) => {
+      throw isUniqueViolation(err) ? emailTaken() : err;
     });
-    return {
-      user: toUserDto(user),
-      invitation: { id: invitation.id, email: invitation.email, createdAt: invitation.createdAt },
-    };
-  });
 }
 
 /**

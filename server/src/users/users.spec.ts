@@ -56,6 +56,18 @@ describe('users', () => {
     expect(taken.body.error).toMatchObject({ code: 'email_taken', field: 'email' });
   });
 
+  it('gives exactly one account when the same invitation arrives five times at once', async () => {
+    const body = { email: 'twice@example.test', displayName: 'Twice', role: 'author' };
+    const answers = await Promise.all(
+      Array.from({ length: 5 }, () => asAdmin('post', '/users', body)),
+    );
+    expect(answers.map((res) => res.status).sort()).toEqual([201, 409, 409, 409, 409]);
+    const [{ n }] = await t.dataSource.query(
+      "SELECT count(*) AS n FROM user WHERE email = 'twice@example.test'",
+    );
+    expect(n).toBe(1);
+  });
+
   it('lists users for admins and an active directory for everyone', async () => {
     const disabled = await insertUser(t, 'author', { disabled: true });
     const all = (await asAdmin('get', '/users')).body as Array<{ id: string; email: string }>;
