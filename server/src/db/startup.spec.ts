@@ -83,6 +83,8 @@ describe('demo seed', () => {
         .sort((a, b) => a.email.localeCompare(b.email))
         .map(({ email, role }) => ({ email, role })),
     );
+    const hashes = await t.dataSource.query('SELECT password_hash AS h FROM user');
+    expect(new Set(hashes.map((row: { h: string }) => row.h)).size).toBe(DEMO_ACCOUNTS.length);
     const studies = await t.dataSource.query('SELECT id, title FROM study');
     expect(studies).toHaveLength(1);
     expect(studies[0].title).toBe('Fermions on a ring');

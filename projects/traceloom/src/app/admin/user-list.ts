@@ -29,6 +29,8 @@ export class UserList {
   protected readonly roles = ROLES;
   protected readonly roleLabels = ROLE_LABELS;
   protected readonly users = httpResource<UserDto[]>(() => '/api/users', { defaultValue: [] });
+  /** The loaded list; empty while loading or after an error (value() throws then). */
+  protected readonly list = computed(() => (this.users.hasValue() ? this.users.value() : []));
   protected readonly errorMessage = computed(() => {
     const error = this.users.error();
     return error ? messageOf(error) : null;

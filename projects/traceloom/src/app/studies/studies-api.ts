@@ -18,6 +18,11 @@ export class StudiesApi {
     return this.http.patch<StudyDto>(`/api/studies/${encodeURIComponent(id)}`, body);
   }
 
+  /** Deletes a study (owner or admin). */
+  remove(id: string): Observable<void> {
+    return this.http.delete<void>(`/api/studies/${encodeURIComponent(id)}`);
+  }
+
   /** Adds a user as a member; answers the updated study. */
   addMember(id: string, userId: string): Observable<StudyDto> {
     return this.http.post<StudyDto>(`/api/studies/${encodeURIComponent(id)}/members`, { userId });

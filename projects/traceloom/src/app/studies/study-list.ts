@@ -28,6 +28,8 @@ export class StudyList {
   protected readonly studies = httpResource<StudyDto[]>(() => '/api/studies', {
     defaultValue: [],
   });
+  /** The loaded list; empty while loading or after an error (value() throws then). */
+  protected readonly list = computed(() => (this.studies.hasValue() ? this.studies.value() : []));
   protected readonly errorMessage = computed(() => {
     const error = this.studies.error();
     return error ? messageOf(error) : null;

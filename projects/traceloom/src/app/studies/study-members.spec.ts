@@ -103,6 +103,19 @@ describe('StudyMembers', () => {
     expect(emitted).toEqual([]);
   });
 
+  it('says so when the directory cannot be loaded, and still lists the members', async () => {
+    render(true);
+    httpTesting
+      .expectOne('/api/users/directory')
+      .flush(
+        { error: { code: 'internal', message: 'The directory is resting.' } },
+        { status: 500, statusText: 'Server Error' },
+      );
+    await fixture.whenStable();
+    expect(el.textContent).toContain('The directory could not be loaded: The directory is resting.');
+    expect(all('member-row').length).toBe(1);
+  });
+
   it('shows members read-only, without loading the directory, to those who may not manage', async () => {
     render(false);
     await fixture.whenStable();

@@ -43,7 +43,8 @@ export class StudyMembers {
   protected readonly candidates = computed(() => {
     const study = this.study();
     const taken = new Set([study.owner.id, ...study.members.map((m) => m.id)]);
-    return this.directory.value().filter((u) => !taken.has(u.id));
+    const people = this.directory.hasValue() ? this.directory.value() : [];
+    return people.filter((u) => !taken.has(u.id));
   });
   protected readonly directoryError = computed(() => {
     const error = this.directory.error();

@@ -12,8 +12,11 @@ import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
+import { filter, switchMap } from 'rxjs';
+import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { ApiError, messageOf } from '../core/api-error';
 import { parseForRequest, showOnField } from '../core/form-errors';
 import { StudyDto, studyPatchSchema } from '@traceloom/shared/api';
@@ -42,12 +45,18 @@ export class StudyPage {
   private readonly api = inject(StudiesApi);
   private readonly session = inject(Session);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly dialog = inject(MatDialog);
+  private readonly router = inject(Router);
 
   /** The study id, from the route. */
   readonly id = input.required<string>();
 
   protected readonly study = httpResource<StudyDto>(
     () => `/api/studies/${encodeURIComponent(this.id())}`,
+  );
+  /** The loaded study; undefined while loading or after an error (value() throws then). */
+  protected readonly current = computed(() =>
+    this.study.hasValue() ? this.study.value() : undefined,
   );
   protected readonly loadError = computed(() => {
     const error = this.study.error();
@@ -58,16 +67,16 @@ export class StudyPage {
   });
   /** Owner, admin, or a member whose role is author or steward (API contract, PATCH). */
   protected readonly canEdit = computed(() => {
-    const study = this.study.value();
+    const study = this.current();
     const user = this.session.user();
     if (!study || !user) return false;
     if (user.role === 'admin' || study.owner.id === user.id) return true;
     const member = study.members.some((m) => m.id === user.id);
     return member && (user.role === 'author' || user.role === 'steward');
   });
-  /** Owner or admin (API contract, members add/remove). */
+  /** Owner or admin (API contract: members add/remove, DELETE). */
   protected readonly canManageMembers = computed(() => {
-    const study = this.study.value();
+    const study = this.current();
     const user = this.session.user();
     return !!study && !!user && (user.role === 'admin' || study.owner.id === user.id);
   });
@@ -79,7 +88,7 @@ export class StudyPage {
   constructor() {
     // Fill the form whenever a (new) study arrives.
     effect(() => {
-      const study = this.study.value();
+      const study = this.current();
       if (study) {
         this.form.reset({ title: study.title, description: study.description ?? '' });
       }
@@ -109,6 +118,28 @@ export class StudyPage {
         if (!showOnField(this.form, err)) this.saveError.set(messageOf(err));
       },
     });
+  }
+
+  protected confirmDelete(study: StudyDto): void {
+    const data: ConfirmData = {
+      title: 'Delete this study?',
+      message: `“${study.title}” and everything in it will be removed for all its members.`,
+      confirmLabel: 'Delete study',
+    };
+    this.dialog
+      .open<ConfirmDialog, ConfirmData, boolean>(ConfirmDialog, { data })
+      .afterClosed()
+      .pipe(
+        filter((yes) => yes === true),
+        switchMap(() => this.api.remove(study.id)),
+      )
+      .subscribe({
+        next: () => {
+          this.snackBar.open(`Study “${study.title}” deleted.`, undefined, { duration: 4000 });
+          void this.router.navigate(['/studies']);
+        },
+        error: (err: unknown) => this.snackBar.open(messageOf(err), 'Dismiss', { duration: 6000 }),
+      });
   }
 
   protected onStudyChanged(study: StudyDto): void {

@@ -1,0 +1,22 @@
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+
+/** What the confirmation asks. */
+export interface ConfirmData {
+  title: string;
+  message: string;
+  confirmLabel: string;
+}
+
+/** Asks the user to confirm an action that cannot be undone; closes with true on confirm. */
+@Component({
+  selector: 'tl-confirm-dialog',
+  imports: [MatButtonModule, MatDialogModule],
+  templateUrl: './confirm-dialog.html',
+  styles: 'p { max-width: 420px; margin: 0; }',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ConfirmDialog {
+  protected readonly data = inject<ConfirmData>(MAT_DIALOG_DATA);
+}
