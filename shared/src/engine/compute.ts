@@ -79,7 +79,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   const t1 = now();
 
   progress.phase('recursion', nMax);
-  const Z = newtonRecursion(w.weights, nMax, fermion, cap, progress.step);
+  const Z = newtonRecursion(w.weights, nMax, fermion, cap, progress.step, opts.shouldStop);
   const t2 = now();
 
   const routes: Route[][] = Z.map(() => ['recursion']);

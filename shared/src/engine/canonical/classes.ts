@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
-import { frac } from '../rational.js';
-import { add, mul, powInt, scale } from '../series/arith.js';
+import { classSumRational, exponentNotation, foldCycleTypes } from '../kernel/index.js';
+import { frac, numer } from '../rational.js';
+import { add, mul, scale } from '../series/arith.js';
 import { Series } from '../series/series.js';
 
 /** One row of a class table: a cycle type of S_N, its class size N!/z, sign and contribution. */
@@ -16,10 +17,17 @@ export interface ClassRow {
   contribution: Series;
 }
 
+function factorial(n: number): bigint {
+  let f = 1n;
+  for (let i = 2; i <= n; i++) f *= BigInt(i);
+  return f;
+}
+
 /**
- * Class sum Z(N) = sum_lambda eps_lambda prod_L Z_L^(m_L) / z_lambda for one N, calling `onRow` per
- * cycle type (rows are not kept). Powers Z_L^m are cached; partial products follow the
- * enumeration so each partition costs about one multiplication.
+ * Class sum Z(N) = sum_lambda eps_lambda prod_L Z_L^(m_L) / z_lambda for one N, streaming each
+ * cycle type to `onRow` (rows are not kept). Exact rational weights take the kernel's integer
+ * route; series weights carry the partial product along the walk (one multiplication per step,
+ * cut at `cap`).
  */
 export function classSum(
   N: number,
@@ -29,46 +37,47 @@ export function classSum(
   onRow?: (row: ClassRow) => void,
   tick?: () => void,
 ): Series {
-  const nFact = (() => {
-    let f = 1n;
-    for (let i = 2; i <= N; i++) f *= BigInt(i);
-    return f;
-  })();
-  const powers = new Map<number, Series>();
-  const power = (L: number, m: number): Series => {
-    const key = L * 1024 + m;
-    let p = powers.get(key);
-    if (!p) {
-      p = powInt(weights[L - 1]!, m, cap);
-      powers.set(key, p);
-    }
-    return p;
-  };
-  let total = Series.constant(frac(0));
+  const w = weights.slice(0, N);
   let count = 0;
-  const path: [number, number][] = [];
-  const walk = (rest: number, maxPart: number, z: bigint, cycles: number, prod: Series): void => {
-    if (rest === 0) {
-      const sign: 1 | -1 = fermion && (N - cycles) % 2 === 1 ? -1 : 1;
-      const contribution = scale(prod, new Fraction(BigInt(sign), z));
+  const counted = (): void => {
+    if (++count % 512 === 0) tick?.();
+  };
+  if (w.every((x) => x.isConstant())) {
+    const parts = w.map((x) => x.toFraction()).map((f) => ({ num: numer(f), den: f.d }));
+    const total = classSumRational({
+      weights: parts,
+      n: N,
+      sign: fermion ? -1 : 1,
+      ...(onRow && {
+        onRow: (r) => {
+          onRow({
+            N,
+            cycleType: exponentNotation(r.visit),
+            size: r.visit.size.toString(),
+            sign: fermion ? r.visit.sign : 1,
+            contribution: Series.reducedConstant(r.contribution.num, r.contribution.den),
+          });
+          counted();
+        },
+      }),
+    });
+    return Series.of(frac(1), 0, [total.num], total.den, null);
+  }
+  const nFact = factorial(N);
+  let total = Series.constant(frac(0));
+  foldCycleTypes<Series>(
+    N,
+    Series.constant(frac(1)),
+    (s, L) => mul(s, w[L - 1]!, cap),
+    (s, visit) => {
+      const sign: 1 | -1 = fermion ? visit.sign : 1;
+      const contribution = scale(s, new Fraction(BigInt(sign) * visit.size, nFact));
       total = add(total, contribution);
       if (onRow) {
-        const cycleType = path.slice().reverse() as [number, number][];
-        onRow({ N, cycleType, size: (nFact / z).toString(), sign, contribution });
+        onRow({ N, cycleType: exponentNotation(visit), size: visit.size.toString(), sign, contribution });
       }
-      if (++count % 512 === 0) tick?.();
-      return;
-    }
-    for (let L = Math.min(rest, maxPart); L >= 1; L--) {
-      let zz = z;
-      for (let m = 1; m * L <= rest; m++) {
-        zz *= BigInt(L) * BigInt(m);
-        path.push([L, m]);
-        walk(rest - m * L, L - 1, zz, cycles + m, mul(prod, power(L, m), cap));
-        path.pop();
-      }
-    }
-  };
-  walk(N, N, 1n, 0, Series.constant(frac(1)));
+      counted();
+    },
+  );
   return total;
 }

@@ -56,6 +56,11 @@ export class Series {
     return new Series(step, start, num, den, order);
   }
 
+  /** An exact rational num/den already in lowest terms (den > 0): no normalisation work. */
+  static reducedConstant(num: bigint, den: bigint): Series {
+    return num === 0n ? new Series(frac(1), 0, [], 1n, null) : new Series(frac(1), 0, [num], den, null);
+  }
+
   /** The exact rational constant c. */
   static constant(c: Fraction): Series {
     return Series.of(frac(1), 0, [numer(c)], c.d, null);

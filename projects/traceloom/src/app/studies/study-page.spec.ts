@@ -45,8 +45,8 @@ describe('StudyPage', () => {
     el = fixture.nativeElement;
     TestBed.tick();
     answer('/api/studies/study-7');
-    await fixture.whenStable();
-    // The owner also loads the directory for the member picker.
+    // Not whenStable() yet: an owner's page also asks for the directory (the member picker).
+    TestBed.tick();
     httpTesting.match('/api/users/directory').forEach((r) => r.flush([]));
     await fixture.whenStable();
   }
