@@ -47,7 +47,10 @@ describe('StudyPage', () => {
     answer('/api/studies/study-7');
     // Not whenStable() yet: an owner's page also asks for the directory (the member picker).
     TestBed.tick();
-    httpTesting.match('/api/users/directory').forEach((r) => r.flush([]));
+    TestBed.tick();
+    const dirs = httpTesting.match('/api/users/directory');
+    console.log('DEBUG directory requests', dirs.length);
+    dirs.forEach((r) => r.flush([]));
     await fixture.whenStable();
   }
 
