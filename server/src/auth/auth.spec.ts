@@ -88,7 +88,7 @@ describe('sign-in', () => {
       .set('Authorization', `Bearer ${token}`)
       .expect(204);
     const rows = await t.dataSource.query(
-      'SELECT action FROM audit_event WHERE actor_id = ? ORDER BY created_at',
+      'SELECT action FROM audit_event WHERE actor_id = ? ORDER BY rowid',
       [user.id],
     );
     expect(rows.map((row: { action: string }) => row.action)).toEqual([
