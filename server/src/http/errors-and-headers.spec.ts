@@ -171,6 +171,7 @@ describe('headers', () => {
       }
     }
     expect(res.headers['x-content-type-options']).toBe('nosniff');
+    expect(res.headers['x-frame-options']).toBe('DENY');
   });
 
   it('serves health without a token', async () => {

@@ -24,6 +24,7 @@ export function securityHeaders() {
         formAction: ["'self'"],
       },
     },
+    xFrameOptions: { action: 'deny' },
     // Plain http on localhost: telling browsers to insist on https would lock people out.
     strictTransportSecurity: false,
   });
