@@ -25,6 +25,24 @@ export interface ServerConfig {
   loginLimit: { maxFailures: number; windowMs: number };
   /** Largest JSON body accepted, in bytes. */
   bodyLimitBytes: number;
+  /** Background runs: worker pool size, limits per run, per-user cap. */
+  runs: RunLimits;
+  /** Largest reference-table upload accepted, in bytes. */
+  uploadLimitBytes: number;
+}
+
+/** How background runs are executed and bounded. */
+export interface RunLimits {
+  /** Worker threads computing runs at once. */
+  threads: number;
+  /** Wall-clock limit of one run; the worker is terminated beyond it. */
+  wallClockMs: number;
+  /** Queued + running runs one person may have at once. */
+  perUserCap: number;
+  /** V8 old-generation heap limit of a run's worker, in MB. */
+  maxOldGenerationSizeMb: number;
+  /** Wall-clock limit of the synchronous preview (`POST /api/compute`), kept under 2 s. */
+  previewMs: number;
 }
 
 /** The password hashing cost used outside tests (OWASP Password Storage Cheat Sheet minimum). */
@@ -40,11 +58,32 @@ export const DEFAULT_CONFIG: ServerConfig = {
   scrypt: PRODUCTION_SCRYPT,
   loginLimit: { maxFailures: 10, windowMs: 15 * 60 * 1000 },
   bodyLimitBytes: 1024 * 1024,
+  runs: {
+    threads: 2,
+    wallClockMs: 10 * 60 * 1000,
+    perUserCap: 2,
+    maxOldGenerationSizeMb: 1024,
+    previewMs: 1500,
+  },
+  uploadLimitBytes: 10 * 1024 * 1024,
 };
 
+/** A positive integer from the environment, or `fallback` when unset. */
+function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
+  const raw = env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const value = Number(raw);
+  if (!Number.isInteger(value) || value < 1) {
+    throw new Error(`${name} must be a positive integer, got "${raw}"`);
+  }
+  return value;
+}
+
 /**
- * Reads `PORT`, `TRACELOOM_DB`, `TRACELOOM_MODE` and `TRACELOOM_STATIC`; throws a one-line
- * message naming the variable when a value is unusable.
+ * Reads `PORT`, `TRACELOOM_DB`, `TRACELOOM_MODE`, `TRACELOOM_STATIC`, and the run and upload
+ * limits `TRACELOOM_RUN_WALL_MS`, `TRACELOOM_RUN_THREADS`, `TRACELOOM_RUNS_PER_USER`,
+ * `TRACELOOM_UPLOAD_LIMIT`; throws a one-line message naming the variable when a value is
+ * unusable.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
   const port = env.PORT === undefined || env.PORT === '' ? DEFAULT_CONFIG.port : Number(env.PORT);
@@ -61,5 +100,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
     mode,
     databasePath: env.TRACELOOM_DB || DEFAULT_CONFIG.databasePath,
     staticDir: env.TRACELOOM_STATIC || DEFAULT_CONFIG.staticDir,
+    runs: {
+      ...DEFAULT_CONFIG.runs,
+      wallClockMs: positiveInt(env, 'TRACELOOM_RUN_WALL_MS', DEFAULT_CONFIG.runs.wallClockMs),
+      threads: positiveInt(env, 'TRACELOOM_RUN_THREADS', DEFAULT_CONFIG.runs.threads),
+      perUserCap: positiveInt(env, 'TRACELOOM_RUNS_PER_USER', DEFAULT_CONFIG.runs.perUserCap),
+    },
+    uploadLimitBytes: positiveInt(env, 'TRACELOOM_UPLOAD_LIMIT', DEFAULT_CONFIG.uploadLimitBytes),
   };
 }

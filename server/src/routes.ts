@@ -1,14 +1,32 @@
 import type { AppContext } from './app-context.js';
 import { authRoutes } from './auth/auth-routes.js';
+import { comparisonRoutes } from './comparisons/comparison-routes.js';
+import { computeRoutes } from './compute/compute-routes.js';
+import { computeServices } from './compute/services.js';
+import { gasRoutes } from './gases/gas-routes.js';
 import { healthRoutes } from './http/health-routes.js';
 import type { RouteSpec } from './http/route-table.js';
+import { referenceRoutes } from './references/reference-routes.js';
+import { runRoutes } from './runs/run-routes.js';
 import { studyRoutes } from './studies/study-routes.js';
 import { userRoutes } from './users/user-routes.js';
 
 /**
  * The whole API route table (paths below `/api`). `createApp` builds the router from it and the
- * authorization test matrix is generated from it: add a feature's routes here.
+ * authorization test matrix is generated from it: add a feature's routes here. Building it also
+ * starts the app's worker pools and run executor (restart recovery included).
  */
 export function apiRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...userRoutes(ctx), ...studyRoutes(ctx)];
+  computeServices(ctx);
+  return [
+    ...healthRoutes(ctx),
+    ...authRoutes(ctx),
+    ...userRoutes(ctx),
+    ...studyRoutes(ctx),
+    ...gasRoutes(ctx),
+    ...computeRoutes(ctx),
+    ...runRoutes(ctx),
+    ...referenceRoutes(ctx),
+    ...comparisonRoutes(ctx),
+  ];
 }

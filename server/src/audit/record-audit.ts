@@ -6,7 +6,7 @@ export interface AuditEntry {
   actorId: string;
   /** Dotted action name, e.g. `study.create`. */
   action: string;
-  targetType: 'user' | 'study' | 'invitation';
+  targetType: 'user' | 'study' | 'invitation' | 'gas' | 'run' | 'reference' | 'comparison';
   targetId: string;
   detail?: Record<string, unknown>;
 }

@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import passport from 'passport';
 import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt';
 import type { AppContext } from '../app-context.js';
@@ -15,6 +15,16 @@ function unauthenticated(): AppError {
   );
 }
 
+const fromQuery = ExtractJwt.fromUrlQueryParameter('access_token');
+
+/**
+ * `?access_token=` for server-sent event streams only (EventSource cannot send headers); every
+ * other route takes the token from the Authorization header alone.
+ */
+function eventStreamToken(req: Request): string | null {
+  return req.method === 'GET' && req.path.endsWith('/events') ? fromQuery(req) : null;
+}
+
 /**
  * Builds the bearer-token check: passport-jwt with HS256 pinned, then the database. A token only
  * counts while its user exists, is not disabled and still has the token version (`tv`) it was
@@ -26,7 +36,10 @@ export function createAuthenticate(ctx: AppContext): RequestHandler {
   authenticator.use(
     new JwtStrategy(
       {
-        jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
+        jwtFromRequest: ExtractJwt.fromExtractors([
+          ExtractJwt.fromAuthHeaderAsBearerToken(),
+          eventStreamToken,
+        ]),
         secretOrKey: ctx.tokenSecret,
         algorithms: [TOKEN_ALGORITHM],
         ignoreExpiration: false,

@@ -1,11 +1,29 @@
 import { AuditEvent } from './audit-event.entity.js';
+import { Comparison } from './comparison.entity.js';
+import { GasVersion } from './gas-version.entity.js';
+import { Gas } from './gas.entity.js';
 import { Invitation } from './invitation.entity.js';
+import { ReferenceTable } from './reference-table.entity.js';
+import { Run, type RunStatus } from './run.entity.js';
 import { Setting } from './setting.entity.js';
 import { StudyMember } from './study-member.entity.js';
 import { Study } from './study.entity.js';
 import { User } from './user.entity.js';
 
 export { AuditEvent, Invitation, Setting, Study, StudyMember, User };
+export { Comparison, Gas, GasVersion, ReferenceTable, Run, type RunStatus };
 
 /** Every entity, for the data source. */
-export const ENTITIES = [User, Invitation, Study, StudyMember, AuditEvent, Setting];
+export const ENTITIES = [
+  User,
+  Invitation,
+  Study,
+  StudyMember,
+  AuditEvent,
+  Setting,
+  Gas,
+  GasVersion,
+  Run,
+  ReferenceTable,
+  Comparison,
+];

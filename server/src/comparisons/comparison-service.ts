@@ -1,0 +1,138 @@
+import { z } from 'zod';
+import type { AppContext } from '../app-context.js';
+import { recordAudit } from '../audit/record-audit.js';
+import { computeServices } from '../compute/services.js';
+import { Comparison } from '../db/entities/index.js';
+import { AppError } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { parseInput } from '../http/validate.js';
+import type { WorkerRefusal } from '../runs/worker.js';
+import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import { loadVisibleReference } from '../references/reference-service.js';
+import type { ReferenceRow, RowVerdictDto } from './compare-rows.js';
+
+/** Wall-clock limit of one comparison in the worker. */
+const COMPARE_LIMIT_MS = 10_000;
+
+/** A stored comparison. */
+export interface ComparisonDto {
+  id: string;
+  runId: string;
+  referenceId: string | null;
+  kind: 'reference' | 'grand';
+  normalization: string;
+  rows: RowVerdictDto[];
+  summary: { agreeing: number; total: number };
+  createdAt: string;
+}
+
+const comparisonBodySchema = z.union([
+  z.strictObject({ referenceId: z.uuid({ error: 'must be an identifier (UUID)' }) }),
+  z.strictObject({ grand: z.literal(true, { error: 'must be true' }) }),
+], { error: 'send {referenceId} or {grand: true}' });
+
+function toDto(c: Comparison, runId: string): ComparisonDto {
+  const rows = JSON.parse(c.verdicts) as RowVerdictDto[];
+  return {
+    id: c.id,
+    runId,
+    referenceId: c.reference?.id ?? null,
+    kind: c.kind,
+    normalization: c.normalization,
+    rows,
+    summary: { agreeing: rows.filter((r) => r.agrees).length, total: rows.length },
+    createdAt: c.createdAt,
+  };
+}
+
+/**
+ * `POST /runs/:id/comparisons`: row verdicts of a finished run against a reference table of the
+ * same study (computed in a worker), or its grand check; stored and returned.
+ */
+export async function createComparison(
+  ctx: AppContext,
+  actor: Actor,
+  runId: string,
+  body: unknown,
+): Promise<ComparisonDto> {
+  const input = parseInput(comparisonBodySchema, body);
+  const run = await loadVisibleRun(ctx, actor, runId);
+  const result = run.status === 'done' ? unpackResult(run) : null;
+  if (!result) {
+    throw new AppError(409, 'run_not_done', `The run is ${run.status}; compare a finished run.`);
+  }
+  let rows: RowVerdictDto[];
+  let normalization = '1';
+  let referenceId: string | null = null;
+  if ('grand' in input) {
+    if (!result.grandCheck) {
+      throw new AppError(409, 'no_grand_check', "This run's gas states no grand function to check.", 'grand');
+    }
+    rows = result.grandCheck.map(({ N, agrees, agreesBelow, firstMismatch }) => ({ N, agrees, agreesBelow, firstMismatch }));
+  } else {
+    const table = await loadVisibleReference(ctx, actor, input.referenceId, 'referenceId');
+    if (table.study.id !== run.gas.study.id) {
+      throw new AppError(400, 'invalid_input', 'referenceId: the table belongs to another study.', 'referenceId');
+    }
+    referenceId = table.id;
+    normalization = table.normalization;
+    const refRows = JSON.parse(table.rows) as ReferenceRow[];
+    const nMax = result.canonical.length - 1;
+    const beyond = refRows.find((r) => r.N > nMax);
+    if (beyond) {
+      throw new AppError(400, 'invalid_input', `referenceId: line ${beyond.line} has N = ${beyond.N}, beyond this run's nMax = ${nMax}.`, 'referenceId');
+    }
+    if (table.variable !== result.spec.variable) {
+      throw new AppError(400, 'invalid_input', `referenceId: the table is in ${table.variable}, the run in ${result.spec.variable}.`, 'referenceId');
+    }
+    const output = (await computeServices(ctx).pools.quick.run(
+      {
+        kind: 'compare',
+        canonical: result.canonical.map((row) => row.value),
+        variable: result.spec.variable,
+        order: result.spec.order,
+        normalization,
+        rows: refRows,
+      },
+      { signal: AbortSignal.timeout(COMPARE_LIMIT_MS) },
+    )) as { ok: true; rows: RowVerdictDto[] } | WorkerRefusal;
+    if (!output.ok) {
+      const field = output.field === 'normalization' ? 'normalization' : 'referenceId';
+      throw new AppError(400, 'invalid_input', `${output.field ?? 'reference'}: ${output.message}.`, field);
+    }
+    rows = output.rows;
+  }
+  return ctx.dataSource.transaction(async (manager) => {
+    const repo = manager.getRepository(Comparison);
+    const saved = await repo.save(
+      repo.create({
+        run: { id: runId },
+        reference: referenceId ? { id: referenceId } : null,
+        kind: referenceId ? 'reference' : 'grand',
+        normalization,
+        verdicts: JSON.stringify(rows),
+        createdBy: { id: actor.id },
+        createdAt: new Date().toISOString(),
+      }),
+    );
+    await recordAudit(manager, {
+      actorId: actor.id,
+      action: 'comparison.create',
+      targetType: 'comparison',
+      targetId: saved.id,
+      detail: { runId, referenceId, agreeing: rows.filter((r) => r.agrees).length, total: rows.length },
+    });
+    return toDto(await repo.findOneOrFail({ where: { id: saved.id }, relations: { reference: true } }), runId);
+  });
+}
+
+/** The comparisons of a run, oldest first. */
+export async function listComparisons(ctx: AppContext, actor: Actor, runId: string): Promise<ComparisonDto[]> {
+  await loadVisibleRun(ctx, actor, runId);
+  const list = await ctx.dataSource.getRepository(Comparison).find({
+    where: { run: { id: runId } },
+    relations: { reference: true },
+    order: { createdAt: 'ASC' },
+  });
+  return list.map((c) => toDto(c, runId));
+}

@@ -1,0 +1,68 @@
+import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
+import Fraction from 'fraction.js';
+import type { AppContext } from '../app-context.js';
+import { AppError } from '../http/app-error.js';
+import type { WorkerRefusal } from '../runs/worker.js';
+import { computeServices } from './services.js';
+
+/** The preview's caps, tighter than a run's. */
+export const PREVIEW_LIMITS = { nMax: 12, orderSteps: 200, classTable: 8 } as const;
+
+function tooBig(field: string, message: string): never {
+  throw new AppError(400, 'invalid_spec', `${field}: ${message}.`, field);
+}
+
+/** Refuses specs beyond the preview's caps with 400 naming the field and its limit. */
+export function assertPreviewSize(spec: GasSpec): void {
+  if (spec.nMax > PREVIEW_LIMITS.nMax) {
+    tooBig(
+      'spec.nMax',
+      `is ${spec.nMax}; the preview allows at most ${PREVIEW_LIMITS.nMax} (start a run for more)`,
+    );
+  }
+  if (spec.classTable > PREVIEW_LIMITS.classTable) {
+    tooBig(
+      'spec.classTable',
+      `is ${spec.classTable}; the preview allows at most ${PREVIEW_LIMITS.classTable}`,
+    );
+  }
+  if (spec.order !== null) {
+    const steps = new Fraction(spec.order).div(new Fraction(spec.step));
+    if (steps.compare(PREVIEW_LIMITS.orderSteps) > 0) {
+      tooBig(
+        'spec.order',
+        `is ${steps.toFraction()} steps of ${spec.step}; the preview allows at most ${PREVIEW_LIMITS.orderSteps} steps`,
+      );
+    }
+  }
+}
+
+/**
+ * `POST /compute`: a small synchronous computation for the live preview, in a worker with a
+ * wall-clock limit (422 `too_heavy` beyond it). Engine refusals answer 400 naming the field.
+ */
+export async function previewCompute(ctx: AppContext, spec: GasSpec): Promise<ComputeResult> {
+  assertPreviewSize(spec);
+  const { pools } = computeServices(ctx);
+  const limitMs = ctx.config.runs.previewMs;
+  const signal = AbortSignal.timeout(limitMs);
+  let output: { ok: true; result: ComputeResult } | WorkerRefusal;
+  try {
+    output = (await pools.quick.run({ kind: 'preview', spec }, { signal })) as typeof output;
+  } catch (err) {
+    if (signal.aborted) {
+      throw new AppError(
+        422,
+        'too_heavy',
+        `This spec takes longer than the preview's ${limitMs / 1000} s; start a run instead.`,
+        'spec',
+      );
+    }
+    throw err;
+  }
+  if (!output.ok) {
+    const field = output.field ? `spec.${output.field}` : 'spec';
+    throw new AppError(400, 'invalid_spec', `${field}: ${output.message}.`, field);
+  }
+  return output.result;
+}

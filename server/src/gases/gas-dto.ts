@@ -1,0 +1,81 @@
+import type { GasSpec } from '@traceloom/shared/engine';
+import type { Gas, GasVersion, Run, User } from '../db/entities/index.js';
+
+/** A person as gas, run and reference answers name them. */
+export interface PersonRef {
+  id: string;
+  displayName: string;
+}
+
+/** One line of a study's gas list. */
+export interface GasSummary {
+  id: string;
+  studyId: string;
+  title: string;
+  statistics: GasSpec['statistics'];
+  weightsKind: GasSpec['weights']['kind'];
+  version: number;
+  updatedAt: string;
+  updatedBy: PersonRef;
+  lastRun: { id: string; status: Run['status']; finishedAt: string | null } | null;
+}
+
+/** A gas with its current spec and the list of its versions. */
+export interface GasDto {
+  id: string;
+  studyId: string;
+  title: string;
+  version: number;
+  spec: GasSpec;
+  versions: Array<{ version: number; createdAt: string; createdBy: PersonRef }>;
+  createdAt: string;
+  updatedAt: string;
+}
+
+/** One stored version of a gas. */
+export interface GasVersionDto {
+  version: number;
+  spec: GasSpec;
+  createdAt: string;
+  createdBy: PersonRef;
+}
+
+/** `{id, displayName}` of a loaded user. */
+export function personRef(user: Pick<User, 'id' | 'displayName'>): PersonRef {
+  return { id: user.id, displayName: user.displayName };
+}
+
+/** The stored spec text of a version, as JSON. */
+export function specOf(version: GasVersion): GasSpec {
+  return JSON.parse(version.spec) as GasSpec;
+}
+
+/** A gas loaded with `study`, `versions.createdBy`. */
+export function toGasDto(gas: Gas): GasDto {
+  const versions = [...gas.versions].sort((a, b) => a.version - b.version);
+  const current = versions.find((v) => v.version === gas.currentVersion)!;
+  return {
+    id: gas.id,
+    studyId: gas.study.id,
+    title: gas.title,
+    version: gas.currentVersion,
+    spec: specOf(current),
+    versions: versions.map((v) => ({
+      version: v.version,
+      createdAt: v.createdAt,
+      createdBy: personRef(v.createdBy),
+    })),
+    createdAt: gas.createdAt,
+    updatedAt: gas.updatedAt,
+  };
+}
+
+/** A version loaded with `createdBy`. */
+export function toGasVersionDto(version: GasVersion): GasVersionDto {
+  return {
+    version: version.version,
+    spec: specOf(version),
+    createdAt: version.createdAt,
+    createdBy: personRef(version.createdBy),
+  };
+}

@@ -1,0 +1,49 @@
+import type { Request, Response } from 'express';
+import multer from 'multer';
+import { AppError } from '../http/app-error.js';
+
+/** One received upload: the file in memory and the text fields beside it. */
+export interface Upload {
+  file: { bytes: Buffer; filename: string; contentType: string };
+  fields: Record<string, unknown>;
+}
+
+function megabytes(bytes: number): string {
+  return `${(bytes / (1024 * 1024)).toFixed(bytes % (1024 * 1024) === 0 ? 0 : 2)} MB`;
+}
+
+/**
+ * Reads a multipart body with multer into memory: one file in field `file` of at most
+ * `limitBytes` (413 `file_too_large` beyond, nothing kept), a few short text fields.
+ */
+export async function receiveUpload(req: Request, res: Response, limitBytes: number): Promise<Upload> {
+  const middleware = multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: limitBytes, files: 1, fields: 8, fieldSize: 16 * 1024, parts: 12 },
+  }).single('file');
+  await new Promise<void>((resolve, reject) => {
+    middleware(req, res, (err: unknown) => (err ? reject(err) : resolve()));
+  }).catch((err: unknown) => {
+    if (err instanceof multer.MulterError) {
+      if (err.code === 'LIMIT_FILE_SIZE') {
+        throw new AppError(
+          413,
+          'file_too_large',
+          `file: the upload is larger than the limit of ${megabytes(limitBytes)} (${limitBytes} bytes).`,
+          'file',
+        );
+      }
+      const field = err.code === 'LIMIT_UNEXPECTED_FILE' ? 'file' : (err.field ?? 'file');
+      throw new AppError(400, 'invalid_upload', `${field}: ${err.message}.`, field);
+    }
+    throw new AppError(400, 'invalid_upload', 'The upload could not be read as multipart form data.', 'file');
+  });
+  const file = req.file;
+  if (!file) {
+    throw new AppError(400, 'invalid_upload', 'file: send the table as a multipart form field named "file".', 'file');
+  }
+  return {
+    file: { bytes: file.buffer, filename: file.originalname, contentType: file.mimetype },
+    fields: (req.body ?? {}) as Record<string, unknown>,
+  };
+}

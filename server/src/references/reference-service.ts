@@ -1,0 +1,170 @@
+import { createHash } from 'node:crypto';
+import { EngineError, MAX_EXPRESSION_LENGTH, parseExpression } from '@traceloom/shared/engine';
+import type { Request, Response } from 'express';
+import { z } from 'zod';
+import type { AppContext } from '../app-context.js';
+import { recordAudit } from '../audit/record-audit.js';
+import type { ReferenceRow } from '../comparisons/compare-rows.js';
+import { ReferenceTable } from '../db/entities/index.js';
+import { personRef, type PersonRef } from '../gases/gas-dto.js';
+import { AppError, notFound } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { parseInput } from '../http/validate.js';
+import { canSee, loadVisibleStudy, STUDY_RELATIONS } from '../studies/study-access.js';
+import { parseReferenceFile, type RowError } from './reference-parse.js';
+import { receiveUpload } from './receive-upload.js';
+
+/** A reference table in a list. */
+export interface ReferenceSummary {
+  id: string;
+  studyId: string;
+  title: string;
+  filename: string;
+  contentType: string;
+  sha256: string;
+  normalization: string;
+  variable: string;
+  note: string;
+  rowCount: number;
+  createdAt: string;
+  createdBy: PersonRef;
+}
+
+/** A reference table with its rows. */
+export interface ReferenceDto extends Omit<ReferenceSummary, 'rowCount'> {
+  rows: ReferenceRow[];
+}
+
+const uploadFieldsSchema = z.object({
+  title: z.string().trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters').optional(),
+  normalization: z
+    .string()
+    .trim()
+    .min(1, 'must not be empty')
+    .max(MAX_EXPRESSION_LENGTH, `must be at most ${MAX_EXPRESSION_LENGTH} characters`)
+    .optional(),
+  variable: z
+    .string()
+    .regex(/^[a-df-hj-z]$/, 'must be one lower-case letter other than e and i')
+    .optional(),
+  note: z.string().max(5000, 'must be at most 5000 characters').optional(),
+});
+
+function toSummary(table: ReferenceTable): ReferenceSummary {
+  return {
+    id: table.id,
+    studyId: table.study.id,
+    title: table.title,
+    filename: table.filename,
+    contentType: table.contentType,
+    sha256: table.sha256,
+    normalization: table.normalization,
+    variable: table.variable,
+    note: table.note,
+    rowCount: (JSON.parse(table.rows) as unknown[]).length,
+    createdAt: table.createdAt,
+    createdBy: personRef(table.createdBy),
+  };
+}
+
+function toDto(table: ReferenceTable): ReferenceDto {
+  const { rowCount: _count, ...summary } = toSummary(table);
+  return { ...summary, rows: JSON.parse(table.rows) as ReferenceRow[] };
+}
+
+function firstError(errors: RowError[]): never {
+  const { line, message } = errors[0]!;
+  const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
+  throw new AppError(400, 'invalid_row', `line ${line}: ${message}${more}. Nothing was stored.`, 'file');
+}
+
+/**
+ * `POST /studies/:id/references`: receives, checks and stores a reference table with the file
+ * as uploaded. With `?dryRun=1` only parses and answers `{rows, errors}`. Any bad row refuses
+ * the whole file (400 `invalid_row` naming its line); nothing is stored half.
+ */
+export async function uploadReference(
+  ctx: AppContext,
+  actor: Actor,
+  studyId: string,
+  req: Request,
+  res: Response,
+): Promise<ReferenceDto | { rows: ReferenceRow[]; errors: RowError[] }> {
+  await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
+  const { file, fields } = await receiveUpload(req, res, ctx.config.uploadLimitBytes);
+  const input = parseInput(uploadFieldsSchema, fields);
+  const parsed = parseReferenceFile(file.bytes, file.filename, file.contentType);
+  if (req.query.dryRun === '1' || req.query.dryRun === 'true') {
+    res.status(200);
+    return { rows: parsed.rows, errors: parsed.errors };
+  }
+  if (parsed.errors.length) firstError(parsed.errors);
+  const normalization = input.normalization ?? parsed.normalization?.trim() ?? '1';
+  try {
+    parseExpression(normalization, 'normalization');
+  } catch (e) {
+    if (e instanceof EngineError) {
+      throw new AppError(400, 'invalid_input', `normalization: ${e.message}.`, 'normalization');
+    }
+    throw e;
+  }
+  const title = (input.title ?? parsed.title?.trim() ?? file.filename.replace(/\.[^.]*$/, '')).slice(0, 200) || 'reference table';
+  return ctx.dataSource.transaction(async (manager) => {
+    const repo = manager.getRepository(ReferenceTable);
+    const { id } = await repo.save(
+      repo.create({
+        study: { id: studyId },
+        title,
+        fileBytes: file.bytes,
+        filename: file.filename.slice(0, 255),
+        contentType: (file.contentType || 'application/octet-stream').slice(0, 100),
+        sha256: createHash('sha256').update(file.bytes).digest('hex'),
+        rows: JSON.stringify(parsed.rows),
+        normalization,
+        variable: input.variable ?? 'q',
+        note: input.note ?? '',
+        createdBy: { id: actor.id },
+        createdAt: new Date().toISOString(),
+      }),
+    );
+    await recordAudit(manager, {
+      actorId: actor.id,
+      action: 'reference.create',
+      targetType: 'reference',
+      targetId: id,
+      detail: { studyId, title, rows: parsed.rows.length, filename: file.filename },
+    });
+    return toDto(await repo.findOneOrFail({ where: { id }, relations: { study: true, createdBy: true } }));
+  });
+}
+
+/** The study's reference tables, newest first. */
+export async function listReferences(ctx: AppContext, actor: Actor, studyId: string): Promise<ReferenceSummary[]> {
+  await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
+  const tables = await ctx.dataSource.getRepository(ReferenceTable).find({
+    where: { study: { id: studyId } },
+    relations: { study: true, createdBy: true },
+    order: { createdAt: 'DESC' },
+  });
+  return tables.map(toSummary);
+}
+
+/** Loads a reference table whose study the actor may see; 404 naming `field` otherwise. */
+export async function loadVisibleReference(
+  ctx: AppContext,
+  actor: Actor,
+  referenceId: string,
+  field?: string,
+): Promise<ReferenceTable> {
+  const table = await ctx.dataSource.getRepository(ReferenceTable).findOne({
+    where: { id: referenceId },
+    relations: { study: STUDY_RELATIONS, createdBy: true },
+  });
+  if (!table || !canSee(actor, table.study)) throw notFound('The reference table', field);
+  return table;
+}
+
+/** One reference table with its rows. */
+export async function getReference(ctx: AppContext, actor: Actor, referenceId: string): Promise<ReferenceDto> {
+  return toDto(await loadVisibleReference(ctx, actor, referenceId));
+}

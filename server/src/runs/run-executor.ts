@@ -1,0 +1,240 @@
+import { MessageChannel } from 'node:worker_threads';
+import type { Progress } from '@traceloom/shared/engine';
+import type { DataSource } from 'typeorm';
+import { recordAudit } from '../audit/record-audit.js';
+import type { WorkerPools } from '../compute/pools.js';
+import type { RunLimits } from '../config.js';
+import { Run, type RunStatus } from '../db/entities/index.js';
+import type { RunOutput, WorkerRefusal } from './worker.js';
+
+/** Stored progress is written at most this often (the live value is kept in memory). */
+const STORE_EVERY_MS = 250;
+
+/** Time a worker may take to start (load the engine) before its run's clock starts. */
+const START_GRACE_MS = 60_000;
+
+/** Reason recorded when a run that was running is found after a restart it was retried for. */
+export const INTERRUPTED = 'interrupted by a server restart';
+
+interface ActiveRun {
+  controller: AbortController;
+  progress: Progress | null;
+  storedAt: number;
+  stop: 'cancel' | 'timeout' | null;
+}
+
+/**
+ * Runs queued runs on the worker pool, at most `threads` at once, in the order they were queued.
+ * Enforces the wall-clock limit by aborting the task (piscina terminates the worker), keeps live
+ * progress in memory and stores it at most every 250 ms, and on start re-queues runs a restart
+ * interrupted (once; a second interruption fails them with a reason).
+ */
+export class RunExecutor {
+  private readonly queue: string[] = [];
+  private readonly active = new Map<string, ActiveRun>();
+  private stopped = false;
+  /** Resolves once restart recovery has run. */
+  readonly ready: Promise<void>;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly pools: WorkerPools,
+    private readonly limits: RunLimits,
+    private readonly log: (err: unknown) => void = console.error,
+  ) {
+    this.ready = this.recover().catch((err: unknown) => this.log(err));
+  }
+
+  /** Puts a freshly stored queued run in line. */
+  enqueue(runId: string): void {
+    this.queue.push(runId);
+    this.pump();
+  }
+
+  /** The live progress of a running run, or null when it is not running here. */
+  progressOf(runId: string): Progress | null {
+    return this.active.get(runId)?.progress ?? null;
+  }
+
+  /** Takes a run out of the queue, or stops its worker when it is running. */
+  cancel(runId: string): void {
+    const index = this.queue.indexOf(runId);
+    if (index >= 0) this.queue.splice(index, 1);
+    const run = this.active.get(runId);
+    if (run) {
+      run.stop = 'cancel';
+      run.controller.abort();
+    }
+  }
+
+  /** Stops taking work and terminates the pools (running runs stay `running` for recovery). */
+  async stop(): Promise<void> {
+    this.stopped = true;
+    this.queue.length = 0;
+    await this.ready;
+    await this.pools.destroy();
+  }
+
+  private async recover(): Promise<void> {
+    const now = new Date().toISOString();
+    await this.dataSource.transaction(async (manager) => {
+      const interrupted = await manager.getRepository(Run).find({
+        where: { status: 'running' },
+        relations: { createdBy: true },
+      });
+      for (const run of interrupted) {
+        const retry = run.requeues < 1;
+        await manager
+          .getRepository(Run)
+          .update(
+            { id: run.id },
+            retry
+              ? { status: 'queued', requeues: run.requeues + 1, startedAt: null, progressDone: 0 }
+              : { status: 'failed', error: INTERRUPTED, finishedAt: now },
+          );
+        await recordAudit(manager, {
+          actorId: run.createdBy.id,
+          action: retry ? 'run.requeue' : 'run.fail',
+          targetType: 'run',
+          targetId: run.id,
+          detail: { reason: INTERRUPTED, automatic: true },
+        });
+      }
+    });
+    const queued = await this.dataSource.getRepository(Run).find({
+      where: { status: 'queued' },
+      select: { id: true },
+      order: { createdAt: 'ASC' },
+    });
+    for (const { id } of queued) if (!this.queue.includes(id)) this.queue.push(id);
+    this.pump();
+  }
+
+  private pump(): void {
+    while (!this.stopped && this.active.size < this.limits.threads && this.queue.length > 0) {
+      const runId = this.queue.shift()!;
+      const run: ActiveRun = {
+        controller: new AbortController(),
+        progress: null,
+        storedAt: 0,
+        stop: null,
+      };
+      this.active.set(runId, run);
+      this.execute(runId, run)
+        .catch((err: unknown) => this.log(err))
+        .finally(() => {
+          this.active.delete(runId);
+          this.pump();
+        });
+    }
+  }
+
+  private async execute(runId: string, active: ActiveRun): Promise<void> {
+    const repo = this.dataSource.getRepository(Run);
+    const run = await repo.findOne({
+      where: { id: runId },
+      relations: { gasVersion: true, createdBy: true },
+    });
+    if (!run || run.status !== 'queued') return;
+    const claimed = await repo.update(
+      { id: runId, status: 'queued' },
+      { status: 'running', startedAt: new Date().toISOString(), error: null },
+    );
+    if (!claimed.affected) return;
+    let startedAt = new Date();
+    const channel = new MessageChannel();
+    const limit = () => {
+      active.stop = 'timeout';
+      active.controller.abort();
+    };
+    // Until the worker says it has begun (a fresh worker first loads the engine), only a
+    // generous start-up limit applies; the run's own wall-clock limit starts with the work.
+    let timer = setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
+    channel.port1.on('message', (p: Progress | { started: number }) => {
+      if ('started' in p) {
+        clearTimeout(timer);
+        timer = setTimeout(limit, this.limits.wallClockMs);
+        startedAt = new Date();
+        repo
+          .update({ id: runId, status: 'running' }, { startedAt: startedAt.toISOString() })
+          .catch((err: unknown) => this.log(err));
+        return;
+      }
+      active.progress = p;
+      const t = Date.now();
+      if (t - active.storedAt < STORE_EVERY_MS) return;
+      active.storedAt = t;
+      repo
+        .update(
+          { id: runId, status: 'running' },
+          { progressDone: p.done, progressTotal: p.total, progressPhase: p.phase },
+        )
+        .catch((err: unknown) => this.log(err));
+    });
+    let outcome: Partial<Run> & { status: RunStatus };
+    try {
+      const output = (await this.pools.runs.run(
+        { kind: 'run', spec: JSON.parse(run.gasVersion.spec), port: channel.port2 },
+        { transferList: [channel.port2], signal: active.controller.signal },
+      )) as RunOutput | WorkerRefusal;
+      outcome = output.ok
+        ? {
+            status: 'done',
+            result: Buffer.from(output.gzip),
+            classCounts: JSON.stringify(output.classCounts),
+            progressDone: active.progress?.total ?? 0,
+            progressTotal: active.progress?.total ?? 0,
+            progressPhase: 'done',
+          }
+        : {
+            status: 'failed',
+            error: output.field ? `${output.field}: ${output.message}` : output.message,
+          };
+    } catch (err) {
+      outcome = this.stoppedOutcome(active, err);
+    } finally {
+      clearTimeout(timer);
+      channel.port1.close();
+    }
+    if (outcome.status === 'cancelled') return; // the cancel request already stored it
+    const finishedAt = new Date();
+    await this.dataSource.transaction(async (manager) => {
+      const done = await manager.getRepository(Run).update(
+        { id: runId, status: 'running' },
+        {
+          ...outcome,
+          finishedAt: finishedAt.toISOString(),
+          durationMs: finishedAt.getTime() - startedAt.getTime(),
+        },
+      );
+      if (!done.affected) return;
+      await recordAudit(manager, {
+        actorId: run.createdBy.id,
+        action: outcome.status === 'done' ? 'run.finish' : 'run.fail',
+        targetType: 'run',
+        targetId: runId,
+        detail: { status: outcome.status, error: outcome.error ?? null, automatic: true },
+      });
+    });
+  }
+
+  private stoppedOutcome(active: ActiveRun, err: unknown): Partial<Run> & { status: RunStatus } {
+    if (active.stop === 'cancel') return { status: 'cancelled' };
+    if (active.stop === 'timeout') {
+      const seconds = this.limits.wallClockMs / 1000;
+      return {
+        status: 'failed',
+        error: `stopped after the wall-clock limit of ${seconds} s for one run`,
+      };
+    }
+    const code = (err as { code?: unknown }).code;
+    if (code === 'ERR_WORKER_OUT_OF_MEMORY') {
+      return {
+        status: 'failed',
+        error: `ran out of memory (the limit is ${this.limits.maxOldGenerationSizeMb} MB per run)`,
+      };
+    }
+    this.log(err);
+    return { status: 'failed', error: 'the computation stopped unexpectedly' };
+  }
+}

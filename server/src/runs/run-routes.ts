@@ -1,0 +1,55 @@
+import { z } from 'zod';
+import type { AppContext } from '../app-context.js';
+import { GAS_EDITORS } from '../gases/gas-access.js';
+import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
+import { parseId, parseInput } from '../http/validate.js';
+import { streamRunEvents } from './run-events.js';
+import { cancelRun, getRun, listRuns, startRun } from './run-service.js';
+
+const runStartSchema = z.strictObject({
+  version: z
+    .number({ error: 'must be a version number' })
+    .int({ error: 'must be a whole number' })
+    .min(1, { error: 'must be at least 1' })
+    .optional(),
+});
+
+/** Run routes: start, list, read, watch (server-sent events) and cancel. */
+export function runRoutes(ctx: AppContext): RouteSpec[] {
+  const gas = (id: string | undefined) => parseId(id, 'The gas');
+  const run = (id: string | undefined) => parseId(id, 'The run');
+  return [
+    {
+      method: 'post',
+      path: '/gases/:id/runs',
+      access: GAS_EDITORS,
+      status: 202,
+      handler: ({ actor, params, body }) =>
+        startRun(ctx, actor, gas(params.id), parseInput(runStartSchema, body ?? {})),
+    },
+    {
+      method: 'get',
+      path: '/gases/:id/runs',
+      access: ANY_ROLE,
+      handler: ({ actor, params }) => listRuns(ctx, actor, gas(params.id)),
+    },
+    {
+      method: 'get',
+      path: '/runs/:id',
+      access: ANY_ROLE,
+      handler: ({ actor, params, req }) => getRun(ctx, actor, run(params.id), req.query.classes),
+    },
+    {
+      method: 'get',
+      path: '/runs/:id/events',
+      access: ANY_ROLE,
+      handler: ({ actor, params, res }) => streamRunEvents(ctx, actor, run(params.id), res),
+    },
+    {
+      method: 'post',
+      path: '/runs/:id/cancel',
+      access: GAS_EDITORS,
+      handler: ({ actor, params }) => cancelRun(ctx, actor, run(params.id)),
+    },
+  ];
+}
