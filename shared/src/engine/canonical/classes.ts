@@ -74,7 +74,13 @@ export function classSum(
       const contribution = scale(s, new Fraction(BigInt(sign) * visit.size, nFact));
       total = add(total, contribution);
       if (onRow) {
-        onRow({ N, cycleType: exponentNotation(visit), size: visit.size.toString(), sign, contribution });
+        onRow({
+          N,
+          cycleType: exponentNotation(visit),
+          size: visit.size.toString(),
+          sign,
+          contribution,
+        });
       }
       counted();
     },

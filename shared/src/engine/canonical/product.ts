@@ -1,7 +1,8 @@
 import Fraction from 'fraction.js';
-import { frac } from '../rational.js';
+import { mulTrunc } from '../series/multiply.js';
+import { frac, lcm } from '../rational.js';
 import { add, mul } from '../series/arith.js';
-import { cutAt, Series } from '../series/series.js';
+import { cutAt, gridIndex, Series, stepGcd } from '../series/series.js';
 
 /**
  * Z(0..nMax) from the product form of the grand function over a spectrum: the coefficients of
@@ -14,6 +15,20 @@ export function spectrumProduct(
   fermion: boolean,
   cap: Fraction | null,
   truncated: boolean,
+  tick?: (done: number, total: number) => void,
+): Series[] {
+  const packed = cap === null ? null : productOnArrays(points, nMax, fermion, cap, tick);
+  const X = packed ?? productBySeries(points, nMax, fermion, cap, tick);
+  if (truncated && cap !== null) for (let j = 1; j <= nMax; j++) X[j] = cutAt(X[j]!, cap);
+  return X;
+}
+
+/** The product in series arithmetic (any exponents, exact or truncated). */
+function productBySeries(
+  points: readonly Series[],
+  nMax: number,
+  fermion: boolean,
+  cap: Fraction | null,
   tick?: (done: number, total: number) => void,
 ): Series[] {
   const X: Series[] = [Series.constant(frac(1))];
@@ -31,6 +46,72 @@ export function spectrumProduct(
     }
     tick?.(seen, points.length);
   }
-  if (truncated && cap !== null) for (let j = 1; j <= nMax; j++) X[j] = cutAt(X[j]!, cap);
   return X;
+}
+
+/**
+ * The same product on integer arrays over one grid, accumulated in place: Y_j = D^j X_j with D
+ * the common denominator of the c_p. Each c_p Y_(j-1) starts at the valuation of Y_(j-1), so the
+ * work shrinks as the valuations grow. Null when some c_p has negative exponents.
+ */
+function productOnArrays(
+  points: readonly Series[],
+  nMax: number,
+  fermion: boolean,
+  cap: Fraction,
+  tick?: (done: number, total: number) => void,
+): Series[] | null {
+  let step = cap;
+  for (const c of points) step = stepGcd(step, c.step);
+  const cs = points.map((c) => c.onStep(step));
+  if (cs.some((c) => c.num.length > 0 && c.start < 0)) return null;
+  let M = gridIndex(cs[0] ?? Series.constant(frac(0)).onStep(step), cap)[1];
+  if (cs.length === 0) M = Number(cap.div(step).valueOf());
+  let D = 1n;
+  for (const c of cs) {
+    D = lcm(D, c.den);
+    if (c.order !== null) M = Math.min(M, c.order);
+  }
+  const Y: bigint[][] = [];
+  const val: number[] = [];
+  for (let j = 0; j <= nMax; j++) {
+    Y.push(new Array<bigint>(M).fill(0n));
+    val.push(Infinity);
+  }
+  if (M > 0) {
+    Y[0]![0] = 1n;
+    val[0] = 0;
+  }
+  // Y_j += C * Y_(j-1), only below M
+  const step1 = (C: bigint[], cStart: number, j: number): void => {
+    const v = val[j - 1]!;
+    const lo = cStart + v;
+    if (lo >= M) return;
+    const src = Y[j - 1]!.slice(v, M - cStart);
+    const prod = mulTrunc(C, src, M - lo);
+    const dst = Y[j]!;
+    for (let i = 0; i < prod.length; i++) {
+      const x = prod[i]!;
+      if (x !== 0n) dst[lo + i]! += x;
+    }
+    if (lo < val[j]!) {
+      let k = lo;
+      while (k < M && dst[k] === 0n) k++;
+      val[j] = Math.min(val[j]!, k === M ? Infinity : k);
+    }
+  };
+  let seen = 0;
+  for (const c of cs) {
+    seen++;
+    if (c.num.length === 0 || c.start >= M) continue;
+    const f = D / c.den;
+    const C = c.num.slice(0, M - c.start).map((x) => x * f);
+    if (fermion) for (let j = Math.min(nMax, seen); j >= 1; j--) step1(C, c.start, j);
+    else for (let j = 1; j <= nMax; j++) step1(C, c.start, j);
+    tick?.(seen, points.length);
+  }
+  const order = cs.some((c) => c.order !== null) || cs.length > 0 ? M : null;
+  return Y.map((y, j) =>
+    j === 0 ? Series.constant(frac(1)) : Series.of(step, 0, y, D ** BigInt(j), order),
+  );
 }

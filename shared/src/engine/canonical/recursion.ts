@@ -80,7 +80,9 @@ export function newtonRecursion(
         ...(shouldStop && { shouldStop }),
       });
       return r.num.map((num, N) =>
-        N === 0 ? Series.constant(frac(1)) : Series.of(packed.step, 0, num.slice(), r.den[N]!, packed.order),
+        N === 0
+          ? Series.constant(frac(1))
+          : Series.of(packed.step, 0, num.slice(), r.den[N]!, packed.order),
       );
     } catch (e) {
       if (e instanceof KernelStopped) throw new EngineCancelled();

@@ -28,16 +28,17 @@ export function add(a: Series, b: Series): Series {
   const fa = g / a.den;
   const fb = g / b.den;
   const out: bigint[] = new Array<bigint>(hi - lo).fill(0n);
-  for (let i = 0; i < a.num.length; i++) {
-    const k = a.start + i - lo;
-    if (k >= out.length) break;
-    out[k] = a.num[i]! * fa;
-  }
-  for (let i = 0; i < b.num.length; i++) {
-    const k = b.start + i - lo;
-    if (k >= out.length) break;
-    out[k]! += b.num[i]! * fb;
-  }
+  const an = a.num;
+  const bn = b.num;
+  const aEnd = Math.min(an.length, out.length + lo - a.start);
+  const bEnd = Math.min(bn.length, out.length + lo - b.start);
+  const ao = a.start - lo;
+  const bo = b.start - lo;
+  if (fa === 1n) for (let i = 0; i < aEnd; i++) out[ao + i] = an[i]!;
+  else for (let i = 0; i < aEnd; i++) out[ao + i] = an[i]! * fa;
+  if (fb === 1n) {
+    for (let i = 0; i < bEnd; i++) if (bn[i] !== 0n) out[bo + i]! += bn[i]!;
+  } else for (let i = 0; i < bEnd; i++) if (bn[i] !== 0n) out[bo + i]! += bn[i]! * fb;
   return Series.of(a.step, lo, out, g, order);
 }
 

@@ -58,7 +58,9 @@ export class Series {
 
   /** An exact rational num/den already in lowest terms (den > 0): no normalisation work. */
   static reducedConstant(num: bigint, den: bigint): Series {
-    return num === 0n ? new Series(frac(1), 0, [], 1n, null) : new Series(frac(1), 0, [num], den, null);
+    return num === 0n
+      ? new Series(frac(1), 0, [], 1n, null)
+      : new Series(frac(1), 0, [num], den, null);
   }
 
   /** The exact rational constant c. */
