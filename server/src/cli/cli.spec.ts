@@ -1,0 +1,86 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { csvCell } from './render.js';
+
+// Runs the compiled command line (npm test builds first; locally: npm run build:shared && npm run build:server).
+const root = fileURLToPath(new URL('../../../', import.meta.url));
+const cli = `${root}dist/server/cli/main.js`;
+
+function run(args: string[], input?: string) {
+  if (!existsSync(cli)) throw new Error(`build the CLI first: ${cli} is missing`);
+  const r = spawnSync(process.execPath, [cli, ...args], { input, encoding: 'utf8', cwd: root });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+const trap = JSON.stringify({
+  format: 'traceloom.gas/1',
+  statistics: 'fermion',
+  variable: 'q',
+  step: '1/2',
+  order: '8',
+  nMax: 4,
+  classTable: 4,
+  weights: { kind: 'formula', expression: 'q^(L/2) / (1 - q^L)' },
+});
+
+describe('traceloom compute', () => {
+  it('prints the result JSON with the class rows streamed (p(1)+...+p(4) = 1+2+3+5 rows, OEIS A000041)', () => {
+    const r = run(['compute', '-'], trap);
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.out);
+    expect(result.format).toBe('traceloom.result/1');
+    expect(result.classes).toHaveLength(11);
+    // Z(2) = q^2/((1-q)(1-q^2)) = q^2 + q^3 + 2q^4 + ... (Andrews 1976 Cor. 2.2)
+    expect(result.canonical[2].value.terms.slice(0, 3)).toEqual([
+      ['2', '1'],
+      ['3', '1'],
+      ['4', '2'],
+    ]);
+    expect(result.methods.classSum).toEqual({ nMax: 4, agrees: true });
+  });
+
+  it.each([
+    ['table', /N\s+routes\s+agree\s+Z\(N\)/],
+    ['csv', /^N,Z\(N\),routes,agree\n0,1,recursion\+classSum,true/],
+    ['latex', /\\toprule[\s\S]*\\midrule[\s\S]*\\bottomrule/],
+  ])('--format %s', (format, pattern) => {
+    const r = run(['compute', '-', '--format', format], trap);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(pattern);
+  });
+
+  it.each([
+    [['compute', '-'], '{"format": "traceloom.gas/1"', /^spec: not valid JSON/],
+    [['compute', '/no/such/file.json'], undefined, /^spec file not found/],
+    [['compute', '-', '--colour'], trap, /^Unknown option '--colour'/],
+    [['compute', '-', '--format', 'xml'], trap, /^--format must be/],
+    [['compute', '-'], trap.replace('"nMax":4', '"nMax":-1'), /^nMax: must be at least 0/],
+    [['compute', '-'], trap.replace('q^(L/2)', 'q^(L/2'), /^weights\.expression: /],
+    [
+      ['compute', '-'],
+      trap.replace('q^(L/2)', 'zeta(L)'),
+      /^weights\.expression: unknown function zeta/,
+    ],
+    [['frobnicate'], undefined, /^unknown command frobnicate/],
+  ])('bad input %j: exit 2, one line on stderr, no stack trace', (args, input, message) => {
+    const r = run(args, input);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(message);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).not.toMatch(/\bat .*\.js:\d+/);
+    expect(r.out).toBe('');
+  });
+});
+
+describe('csv cells (OWASP CSV injection)', () => {
+  it.each([
+    ['=1+1', "'=1+1"],
+    ['-q + 1', "'-q + 1"],
+    ['-3/4', '-3/4'],
+    ['1 + q, 2', '"1 + q, 2"'],
+  ])('%s -> %s', (cell, expected) => {
+    expect(csvCell(cell)).toBe(expected);
+  });
+});
