@@ -3,6 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from './db/entities/index.js';
 import { routeKey, type RouteSpec } from './http/route-table.js';
+import { featureAccess, featureMatrix, type MatrixCall } from './testing/matrix-fixtures.js';
 import {
   createTestApp,
   insertStudy,
@@ -13,11 +14,7 @@ import {
 } from './testing/test-app.js';
 
 /** What an allowed caller sends and the success status they must get. */
-interface AllowedCall {
-  path: string;
-  body?: unknown;
-  status: number;
-}
+type AllowedCall = MatrixCall;
 
 type Fixture = (actor: User) => Promise<AllowedCall>;
 
@@ -82,6 +79,11 @@ const MATRIX: Record<string, Fixture> = {
       status: 200,
     };
   },
+  ...featureMatrix(
+    () => t,
+    () => actors.admin,
+    (actor) => studyFor(actor),
+  ),
 };
 
 const ALL = ROLES;
@@ -105,6 +107,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | readonly Role[]> = {
   'DELETE /studies/:id': EDITORS,
   'POST /studies/:id/members': EDITORS,
   'DELETE /studies/:id/members/:userId': EDITORS,
+  ...featureAccess(ALL, EDITORS),
 };
 
 /** Fills path parameters with well-formed ids for calls that must be refused before lookup. */
@@ -112,9 +115,16 @@ function placeholderPath(path: string): string {
   return path.replace(/:[A-Za-z]+/g, '00000000-0000-4000-8000-000000000000');
 }
 
-function send(route: Pick<RouteSpec, 'method'>, path: string, token?: string, body?: unknown) {
+function send(
+  route: Pick<RouteSpec, 'method'>,
+  path: string,
+  token?: string,
+  body?: unknown,
+  file?: MatrixCall['file'],
+) {
   let req = request(t.app)[route.method](`/api${path}`);
   if (token) req = req.set('Authorization', `Bearer ${token}`);
+  if (file) return req.attach('file', file.bytes, file.filename);
   return body === undefined ? req : req.send(body as object);
 }
 
@@ -169,7 +179,7 @@ describe('route x role matrix', () => {
           seen.push(`${key} ${role} 403`);
         } else {
           const call = await fixture(actors[role]);
-          const res = await send(route, call.path, token, call.body);
+          const res = await send(route, call.path, token, call.body, call.file);
           expect(res.status, `${key} as ${role}: ${JSON.stringify(res.body)}`).toBe(call.status);
           seen.push(`${key} ${role} ${res.status}`);
         }
@@ -178,5 +188,5 @@ describe('route x role matrix', () => {
     // Every protected route was tried once per role.
     const protectedRoutes = table().filter((route) => route.access !== 'public').length;
     expect(seen.length).toBe(protectedRoutes * ROLES.length + (table().length - protectedRoutes));
-  });
+  }, 120_000);
 });

@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import { createDataSource } from './data-source.js';
+import { serializeTransactions } from './serialize-transactions.js';
 import { assertDatabaseHealthy } from './startup-checks.js';
 
 /**
@@ -10,6 +11,7 @@ import { assertDatabaseHealthy } from './startup-checks.js';
 export async function openDatabase(databasePath: string): Promise<DataSource> {
   const dataSource = createDataSource(databasePath);
   await dataSource.initialize();
+  serializeTransactions(dataSource);
   try {
     await assertDatabaseHealthy(dataSource);
     await dataSource.runMigrations({ transaction: 'each' });

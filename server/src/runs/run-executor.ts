@@ -136,7 +136,7 @@ export class RunExecutor {
       relations: { gasVersion: true, createdBy: true },
     });
     if (!run || run.status !== 'queued') return;
-    const claimed = await repo.update(
+    const claimed = await this.update(
       { id: runId, status: 'queued' },
       { status: 'running', startedAt: new Date().toISOString(), error: null },
     );
@@ -155,21 +155,19 @@ export class RunExecutor {
         clearTimeout(timer);
         timer = setTimeout(limit, this.limits.wallClockMs);
         startedAt = new Date();
-        repo
-          .update({ id: runId, status: 'running' }, { startedAt: startedAt.toISOString() })
-          .catch((err: unknown) => this.log(err));
+        this.update({ id: runId, status: 'running' }, { startedAt: startedAt.toISOString() }).catch(
+          (err: unknown) => this.log(err),
+        );
         return;
       }
       active.progress = p;
       const t = Date.now();
       if (t - active.storedAt < STORE_EVERY_MS) return;
       active.storedAt = t;
-      repo
-        .update(
-          { id: runId, status: 'running' },
-          { progressDone: p.done, progressTotal: p.total, progressPhase: p.phase },
-        )
-        .catch((err: unknown) => this.log(err));
+      this.update(
+        { id: runId, status: 'running' },
+        { progressDone: p.done, progressTotal: p.total, progressPhase: p.phase },
+      ).catch((err: unknown) => this.log(err));
     });
     let outcome: Partial<Run> & { status: RunStatus };
     try {
@@ -216,6 +214,11 @@ export class RunExecutor {
         detail: { status: outcome.status, error: outcome.error ?? null, automatic: true },
       });
     });
+  }
+
+  /** One conditional update of a run, in its own (serialized) transaction. */
+  private update(where: { id: string; status: RunStatus }, changes: Partial<Run>) {
+    return this.dataSource.transaction((manager) => manager.getRepository(Run).update(where, changes));
   }
 
   private stoppedOutcome(active: ActiveRun, err: unknown): Partial<Run> & { status: RunStatus } {
