@@ -14,7 +14,13 @@ import { UsersApi } from './users-api';
 /** Invites a person by e-mail with a display name and a role; closes with the server's answer. */
 @Component({
   selector: 'tl-user-invite-dialog',
-  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule],
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+  ],
   templateUrl: './user-invite-dialog.html',
   styleUrl: './user-invite-dialog.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -46,7 +46,9 @@ describe('UserList', () => {
     expect(mine.textContent).toContain('(you)');
     expect(mine.querySelector('[data-testid="user-toggle-disabled"]')).toBeNull();
     expect((mine.querySelector('select') as HTMLSelectElement).disabled).toBe(true);
-    expect(theirs.querySelector('[data-testid="user-status"]')?.textContent?.trim()).toContain('Active');
+    expect(theirs.querySelector('[data-testid="user-status"]')?.textContent?.trim()).toContain(
+      'Active',
+    );
     expect((theirs.querySelector('select') as HTMLSelectElement).value).toBe('author');
   });
 
@@ -70,10 +72,12 @@ describe('UserList', () => {
     expect(req.request.body).toEqual({ disabled: true });
     req.flush({ ...author, disabled: true });
     await fixture.whenStable();
-    expect(rows()[1].querySelector('[data-testid="user-status"]')?.textContent).toContain('Disabled');
-    expect(rows()[1].querySelector('[data-testid="user-toggle-disabled"]')?.textContent?.trim()).toBe(
-      'Enable',
+    expect(rows()[1].querySelector('[data-testid="user-status"]')?.textContent).toContain(
+      'Disabled',
     );
+    expect(
+      rows()[1].querySelector('[data-testid="user-toggle-disabled"]')?.textContent?.trim(),
+    ).toBe('Enable');
   });
 
   it('keeps the old role on screen when the server refuses', async () => {

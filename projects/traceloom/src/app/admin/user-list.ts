@@ -56,7 +56,11 @@ export class UserList {
     if (role === user.role) return;
     // Put the old value back until the server agrees; the answer then updates the row.
     select.value = user.role;
-    this.save(user, { role: role as Role }, `${user.displayName} is now ${ROLE_LABELS[role as Role]}.`);
+    this.save(
+      user,
+      { role: role as Role },
+      `${user.displayName} is now ${ROLE_LABELS[role as Role]}.`,
+    );
   }
 
   protected toggleDisabled(user: UserDto): void {

@@ -94,7 +94,11 @@ describe('SignIn', () => {
     await submit();
     const req = httpTesting.expectOne('/api/auth/login');
     expect(req.request.body).toEqual({ email: 'ada@example.test', password: 'traceloom-demo' });
-    req.flush({ token: 't', expiresAt: new Date(Date.now() + 60_000).toISOString(), user: testUser('author') });
+    req.flush({
+      token: 't',
+      expiresAt: new Date(Date.now() + 60_000).toISOString(),
+      user: testUser('author'),
+    });
     await fixture.whenStable();
     expect(TestBed.inject(Session).role()).toBe('author');
     expect(navigate).toHaveBeenCalledWith('/studies');

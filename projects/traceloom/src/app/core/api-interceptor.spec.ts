@@ -57,7 +57,9 @@ describe('apiInterceptor', () => {
     httpTesting
       .expectOne('/api/studies')
       .flush(
-        { error: { code: 'invalid_body', message: 'title must not be empty', field: 'body.title' } },
+        {
+          error: { code: 'invalid_body', message: 'title must not be empty', field: 'body.title' },
+        },
         { status: 400, statusText: 'Bad Request' },
       );
     const error = await outcome;

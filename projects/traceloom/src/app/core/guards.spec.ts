@@ -31,8 +31,7 @@ describe('route guards', () => {
 
   function runRoleGuard(...roles: Role[]): boolean | UrlTree {
     return TestBed.runInInjectionContext(() => roleGuard(...roles)(route, state)) as
-      | boolean
-      | UrlTree;
+      boolean | UrlTree;
   }
 
   function serialize(result: boolean | UrlTree): string | boolean {

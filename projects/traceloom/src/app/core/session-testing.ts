@@ -25,6 +25,10 @@ export function signInAs(role: Role, overrides: Partial<UserDto> = {}): UserDto 
   TestBed.inject(Session).signIn(user.email, 'secret').subscribe();
   TestBed.inject(HttpTestingController)
     .expectOne('/api/auth/login')
-    .flush({ token: `token-${role}`, expiresAt: new Date(Date.now() + 600_000).toISOString(), user });
+    .flush({
+      token: `token-${role}`,
+      expiresAt: new Date(Date.now() + 600_000).toISOString(),
+      user,
+    });
   return user;
 }

@@ -90,7 +90,9 @@ describe('StudyList', () => {
 
   it('lists each study with its owner, member count and a link to its page', async () => {
     render();
-    httpTesting.expectOne('/api/studies').flush([RING, { ...RING, id: 'x2', title: 'Harmonic trap', members: [] }]);
+    httpTesting
+      .expectOne('/api/studies')
+      .flush([RING, { ...RING, id: 'x2', title: 'Harmonic trap', members: [] }]);
     await fixture.whenStable();
     const rows = [...el.querySelectorAll('[data-testid="study-row"]')];
     expect(rows.map((r) => r.querySelector('a')?.textContent?.trim())).toEqual([

@@ -8,8 +8,18 @@ import { apiInterceptor } from '../core/api-interceptor';
 import { StudyMembers } from './study-members';
 
 const OWNER = { id: 'u-owner', displayName: 'Noor Halloran', email: 'noor@example.test' };
-const ILSE: DirectoryEntryDto = { id: 'u-ilse', displayName: 'Ilse Varga', email: 'ilse@example.test', role: 'reviewer' };
-const KAI: DirectoryEntryDto = { id: 'u-kai', displayName: 'Kai Lindqvist', email: 'kai@example.test', role: 'steward' };
+const ILSE: DirectoryEntryDto = {
+  id: 'u-ilse',
+  displayName: 'Ilse Varga',
+  email: 'ilse@example.test',
+  role: 'reviewer',
+};
+const KAI: DirectoryEntryDto = {
+  id: 'u-kai',
+  displayName: 'Kai Lindqvist',
+  email: 'kai@example.test',
+  role: 'steward',
+};
 const STUDY: StudyDto = {
   id: 'study-1',
   title: 'Fermions on a ring',
@@ -57,7 +67,9 @@ describe('StudyMembers', () => {
     await fixture.whenStable();
     const options = [...one<HTMLSelectElement>('member-select').options].map((o) => o.value);
     expect(options).toEqual(['', KAI.id]);
-    expect(all('member-row').map((r) => r.textContent)).toEqual([expect.stringContaining('Ilse Varga')]);
+    expect(all('member-row').map((r) => r.textContent)).toEqual([
+      expect.stringContaining('Ilse Varga'),
+    ]);
   });
 
   it('adds the chosen person and passes the updated study on', async () => {
@@ -99,7 +111,9 @@ describe('StudyMembers', () => {
       { status: 403, statusText: 'Forbidden' },
     );
     await fixture.whenStable();
-    expect(one('member-error').textContent).toContain('Only the owner or an admin may change members.');
+    expect(one('member-error').textContent).toContain(
+      'Only the owner or an admin may change members.',
+    );
     expect(emitted).toEqual([]);
   });
 
@@ -112,7 +126,9 @@ describe('StudyMembers', () => {
         { status: 500, statusText: 'Server Error' },
       );
     await fixture.whenStable();
-    expect(el.textContent).toContain('The directory could not be loaded: The directory is resting.');
+    expect(el.textContent).toContain(
+      'The directory could not be loaded: The directory is resting.',
+    );
     expect(all('member-row').length).toBe(1);
   });
 

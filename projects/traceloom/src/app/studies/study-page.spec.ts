@@ -16,7 +16,9 @@ const STUDY: StudyDto = {
   title: 'Harmonic trap',
   description: 'Closed form as a check.',
   owner: { id: author.id, displayName: author.displayName, email: author.email },
-  members: [{ id: reviewer.id, displayName: reviewer.displayName, email: reviewer.email, role: 'reviewer' }],
+  members: [
+    { id: reviewer.id, displayName: reviewer.displayName, email: reviewer.email, role: 'reviewer' },
+  ],
   createdAt: '2026-02-01T10:00:00.000Z',
   updatedAt: '2026-02-01T10:00:00.000Z',
 };
@@ -62,13 +64,15 @@ describe('StudyPage', () => {
   afterEach(() => httpTesting.verify());
 
   it('does not reveal whether a study it cannot show exists', async () => {
-    await render('author', (url) =>
-      httpTesting
-        .expectOne(url)
-        .flush(
-          { error: { code: 'not_found', message: 'No such study.' } },
-          { status: 404, statusText: 'Not Found' },
-        ),
+    await render(
+      'author',
+      (url) =>
+        httpTesting
+          .expectOne(url)
+          .flush(
+            { error: { code: 'not_found', message: 'No such study.' } },
+            { status: 404, statusText: 'Not Found' },
+          ),
       false,
     );
     expect(one('study-error').textContent).toContain(
@@ -105,10 +109,18 @@ describe('StudyPage', () => {
     title.dispatchEvent(new Event('input'));
     await fixture.whenStable();
     one<HTMLButtonElement>('study-edit-save').click();
-    httpTesting.expectOne('/api/studies/study-7').flush(
-      { error: { code: 'invalid_body', message: 'A study with this title exists.', field: 'body.title' } },
-      { status: 400, statusText: 'Bad Request' },
-    );
+    httpTesting
+      .expectOne('/api/studies/study-7')
+      .flush(
+        {
+          error: {
+            code: 'invalid_body',
+            message: 'A study with this title exists.',
+            field: 'body.title',
+          },
+        },
+        { status: 400, statusText: 'Bad Request' },
+      );
     await fixture.whenStable();
     const error = title.closest('mat-form-field')?.querySelector('mat-error');
     expect(error?.textContent).toContain('A study with this title exists.');
@@ -119,6 +131,8 @@ describe('StudyPage', () => {
     expect(one<HTMLInputElement>('study-edit-title').disabled).toBe(true);
     expect(one('study-edit-save')).toBeNull();
     expect(one('study-delete')).toBeNull();
-    expect(el.textContent).toContain('Only the owner, an admin, or an author or steward member may edit.');
+    expect(el.textContent).toContain(
+      'Only the owner, an admin, or an author or steward member may edit.',
+    );
   });
 });
