@@ -5,8 +5,8 @@ import { evaluateAt, EvalContext, makeContext, Truncation } from './expr/evaluat
 import { parseExpression } from './expr/sandbox.js';
 import { MAX_SPECTRUM_POINTS, STALL_TERMS } from './limits.js';
 import { frac } from './rational.js';
-import { add, mul } from './series/arith.js';
-import { cutAt, Series } from './series/series.js';
+import { add, mul, scale } from './series/arith.js';
+import { coarsen, cutAt, Series } from './series/series.js';
 import type { GasSpec } from './spec/schema.js';
 
 /** The cycle weights Z_1..Z_nMax of a gas, and for a spectrum the lattice values c_p used. */
@@ -74,14 +74,14 @@ export function cycleWeights(spec: GasSpec, ring: GasRing): CycleWeights {
   const { points, truncated } = latticeValues(spec, node, ring, truncations);
   const zero = Series.constant(frac(0));
   for (let L = 1; L <= ring.nMax; L++) weights.push(zero);
-  for (const c of points) {
+  for (const [c, m] of withMultiplicity(points)) {
     const v = c.valExponent();
     const grows = v !== null && v.compare(0) > 0;
     let pw = c;
     for (let L = 1; L <= ring.nMax; L++) {
       const pv = pw.valExponent();
       if (grows && ring.cap !== null && (pv === null || pv.compare(ring.cap) >= 0)) break;
-      weights[L - 1] = add(weights[L - 1]!, pw);
+      weights[L - 1] = add(weights[L - 1]!, m === 1 ? pw : scale(pw, frac(m)));
       if (L < ring.nMax) pw = mul(pw, c, ring.cap);
     }
     ring.tick?.();
@@ -169,4 +169,19 @@ function latticeValues(
   }
   truncations.push({ what: 'spectrum lattice points', terms: points.length });
   return { points, truncated: true };
+}
+
+/**
+ * Equal lattice values grouped with their multiplicity (symmetric spectra c_p = c_(-p) halve the
+ * work), each on its coarsest grid.
+ */
+function withMultiplicity(points: readonly Series[]): [Series, number][] {
+  const groups = new Map<string, [Series, number]>();
+  for (const c of points) {
+    const key = `${c.step.toFraction()}|${c.start}|${c.den}|${c.order}|${c.num.join(',')}`;
+    const g = groups.get(key);
+    if (g) g[1]++;
+    else groups.set(key, [coarsen(c), 1]);
+  }
+  return [...groups.values()];
 }

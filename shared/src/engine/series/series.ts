@@ -185,3 +185,23 @@ export function cutAt(s: Series, e: Fraction): Series {
   if (t.order !== null && t.order <= idx) return t;
   return Series.of(t.step, t.start, [...t.num], t.den, idx);
 }
+
+/**
+ * The same series on the coarsest grid that holds all its exponents and its order (e.g. a series
+ * in q^3 moves to step 3): products of such series then touch only the grid points they live on.
+ */
+export function coarsen(s: Series): Series {
+  if (s.num.length === 0) return s;
+  const small = (a: number, b: number): number => {
+    a = Math.abs(a);
+    b = Math.abs(b);
+    while (b) [a, b] = [b, a % b];
+    return a;
+  };
+  let g = small(s.start, s.order ?? 0);
+  for (let i = 1; i < s.num.length && g !== 1; i++) if (s.num[i] !== 0n) g = small(g, s.start + i);
+  if (g <= 1) return s;
+  const num: bigint[] = [];
+  for (let i = 0; i < s.num.length; i += g) num.push(s.num[i]!);
+  return Series.of(s.step.mul(g), s.start / g, num, s.den, s.order === null ? null : s.order / g);
+}
