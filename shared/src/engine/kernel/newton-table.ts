@@ -12,6 +12,7 @@
  * d_N = N! D^N otherwise (then c_{N,L} = N!/(N-L)! D^(L-1)); the result is reduced.
  */
 import { gcdBig } from './gcd.js';
+import { compressInput, expandResult, findCompression } from './grid-compression.js';
 import { newtonCoefficientLog2Bounds, logAbs } from './coefficient-bound.js';
 import { newtonIsIntegral } from './integrality.js';
 import { invMod, transformPrimes, type TransformPrime } from './modular.js';
@@ -36,11 +37,35 @@ function transformSize(length: number): number {
  * sizes allow it and the BigInt route otherwise.
  */
 export function newtonTable(input: NewtonTableInput): NewtonTableResult {
-  const { nMax, length } = input;
   if (input.den <= 0n) throw new RangeError('den must be positive');
+  const shape = findCompression(input);
+  if (shape) {
+    // the compressed weights are cut at different lengths, so certify integrality on the originals
+    const integral = isIntegral(input);
+    const r = newtonTableOnGrid(compressInput(input, shape.g, shape.c), integral);
+    return expandResult(r, shape.g, shape.c, input.length);
+  }
+  return newtonTableOnGrid(input);
+}
+
+function isIntegral(input: NewtonTableInput): boolean {
+  return input.den === 1n && newtonIsIntegral(input.weights, input.nMax, input.sign, input.length);
+}
+
+function newtonTableOnGrid(input: NewtonTableInput, integral?: boolean): NewtonTableResult {
+  const { nMax, length } = input;
   const fits = length >= 8 && nMax >= 2 && nMax < 2 ** 20;
   if (!fits || Math.log2(transformSize(length)) > MAX_TRANSFORM_BITS) return newtonTableBig(input);
-  return newtonTableModular(input);
+  return newtonTableModular(input, integral);
+}
+
+/** Per N, how many leading coefficients are wanted (input.validLengths, capped by length). */
+function validLengths(input: NewtonTableInput): number[] {
+  const out = [input.length];
+  for (let N = 1; N <= input.nMax; N++) {
+    out.push(Math.min(input.length, input.validLengths?.[N] ?? input.length));
+  }
+  return out;
 }
 
 function log2Factorial(n: number): number {
@@ -57,10 +82,15 @@ function log2Add(a: number, b: number): number {
   return m + Math.log2(2 ** (a - m) + 2 ** (b - m));
 }
 
-/** The multi-modular route (newtonTable picks it when it applies). */
-export function newtonTableModular(input: NewtonTableInput): NewtonTableResult {
-  const { weights, den, nMax, sign, length } = input;
-  const integral = den === 1n && newtonIsIntegral(weights, nMax, sign, length);
+/**
+ * The multi-modular route (newtonTable picks it when it applies). `integral` may pass a
+ * certificate computed elsewhere (true only when Z(N) is known to be integral).
+ */
+export function newtonTableModular(
+  input: NewtonTableInput,
+  integral = isIntegral(input),
+): NewtonTableResult {
+  const { weights, den, nMax, length } = input;
   const log2Den = den === 1n ? 0 : logAbs(den) / Math.LN2;
   const scaleLog2 = (N: number): number => (integral ? 0 : log2Factorial(N) + N * log2Den);
   const majorant = newtonCoefficientLog2Bounds(weights, den, nMax, length);
@@ -80,6 +110,7 @@ export function newtonTableModular(input: NewtonTableInput): NewtonTableResult {
   const size = transformSize(length);
   const k = Math.max(MIN_TRANSFORM_BITS, Math.log2(size));
   const valuation = valuationBounds(input);
+  const upto = validLengths(input);
   const estimate = Math.ceil(aprioriBits / 22.9) + 1;
   const primes: TransformPrime[] = [];
   const digits: (Int32Array | null)[][] = []; // digits[i][N]
@@ -113,7 +144,7 @@ export function newtonTableModular(input: NewtonTableInput): NewtonTableResult {
         const dt = digits[t]![N]!;
         const c = invRow[t]!;
         const cq = c / p;
-        for (let j = valuation[N]!; j < length; j++) {
+        for (let j = valuation[N]!; j < upto[N]!; j++) {
           // digits are below 2^23, exact in the float quotient
           const e0 = dt[j]!;
           let d = row[j]! - (e0 - p * Math.floor(e0 / p));
@@ -139,6 +170,7 @@ export function newtonTableModular(input: NewtonTableInput): NewtonTableResult {
         primes,
         digits,
         valuation,
+        upto,
         normLog2,
         scaleLog2,
         nMax,
@@ -150,7 +182,7 @@ export function newtonTableModular(input: NewtonTableInput): NewtonTableResult {
     )
       break;
   }
-  return assemble(primes, digits, valuation, scaleBig, nMax, length, integral);
+  return assemble(primes, digits, valuation, upto, scaleBig, nMax, length, integral);
 }
 
 /** s such that |Y| <= p_0 ... p_(s-1) from the mixed-radix digits of one coefficient. */
@@ -190,6 +222,7 @@ function residualCertified(
   primes: readonly TransformPrime[],
   digits: (Int32Array | null)[][],
   valuation: readonly number[],
+  upto: readonly number[],
   normLog2: readonly number[],
   scaleLog2: (N: number) => number,
   nMax: number,
@@ -204,7 +237,7 @@ function residualCertified(
   for (let N = 1; N <= nMax; N++) {
     let m = -Infinity;
     if (digits[0]![N]) {
-      for (let j = valuation[N]!; j < length; j++) {
+      for (let j = valuation[N]!; j < upto[N]!; j++) {
         m = Math.max(m, sizeLog2Of(primes, digits, prefix, N, j));
         if (m + 1 >= log2Modulus) return false;
       }
@@ -227,6 +260,7 @@ function assemble(
   primes: readonly TransformPrime[],
   digits: (Int32Array | null)[][],
   valuation: readonly number[],
+  upto: readonly number[],
   scaleBig: readonly bigint[],
   nMax: number,
   length: number,
@@ -242,7 +276,7 @@ function assemble(
   for (let N = 1; N <= nMax; N++) {
     const row = new Array<bigint>(length).fill(0n);
     if (digits[0]![N]) {
-      for (let j = valuation[N]!; j < length; j++) {
+      for (let j = valuation[N]!; j < upto[N]!; j++) {
         let neg = false;
         for (let i = K - 1; i >= 0; i--) {
           const d = digits[i]![N]![j]!;

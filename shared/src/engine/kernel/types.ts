@@ -11,6 +11,11 @@ export interface NewtonTableInput {
   readonly sign: 1 | -1;
   /** number of grid points below the order: coefficients t^0..t^(length-1) are computed */
   readonly length: number;
+  /**
+   * optional, per N (index N = 0..nMax, non-increasing): only coefficients below validLengths[N]
+   * of Z(N) are wanted; the rest of the row comes back as zeros
+   */
+  readonly validLengths?: readonly number[];
   /** called as work proceeds */
   readonly onProgress?: (done: number, total: number) => void;
   /** polled between steps; true stops the run with KernelStopped */

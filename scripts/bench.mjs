@@ -1,0 +1,169 @@
+// `npm run bench`: times the engine's whole process on the benchmark tasks, beside PARI/GP when
+// `gp` is on PATH, alternating the two commands; prints medians, ratios and whether the numbers
+// agree. Options: --quick (2 runs instead of 5), --runs N, --no-build, and task names to filter.
+import { spawnSync } from 'node:child_process';
+import {
+  existsSync,
+  mkdtempSync,
+  openSync,
+  closeSync,
+  readFileSync,
+  readdirSync,
+  rmSync,
+} from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { buildAll, root } from './lib.mjs';
+
+const args = process.argv.slice(2);
+const flag = (name) => args.includes(name);
+const runsArg = args.indexOf('--runs');
+const runs = runsArg >= 0 ? Number(args[runsArg + 1]) : flag('--quick') ? 2 : 5;
+const filters = args.filter((a, i) => !a.startsWith('--') && args[i - 1] !== '--runs');
+const benchDir = path.resolve(
+  process.env.TRACELOOM_BENCH_DIR ?? path.join(root, '..', 'shared', 'bench'),
+);
+
+if (!Number.isInteger(runs) || runs < 1) {
+  console.error('bench: --runs needs a positive whole number');
+  process.exit(2);
+}
+if (!existsSync(benchDir)) {
+  console.error(`bench: task folder not found: ${benchDir} (set TRACELOOM_BENCH_DIR)`);
+  process.exit(2);
+}
+
+const hasGp = spawnSync('sh', ['-c', 'command -v gp'], { encoding: 'utf8' }).status === 0;
+const tasks = readdirSync(benchDir)
+  .filter((f) => f.endsWith('.json'))
+  .map((f) => f.slice(0, -5))
+  .filter((t) => filters.length === 0 || filters.includes(t))
+  .sort();
+
+if (!flag('--no-build')) buildAll({ client: false });
+const work = mkdtempSync(path.join(tmpdir(), 'traceloom-bench-'));
+
+/** Runs a command with stdout to a file; returns wall seconds (exits on failure). */
+function timed(command, argv, outFile, stdinFile) {
+  const out = openSync(outFile, 'w');
+  const input = stdinFile ? openSync(stdinFile, 'r') : 'ignore';
+  const started = process.hrtime.bigint();
+  const r = spawnSync(command, argv, { cwd: root, stdio: [input, out, 'pipe'], encoding: 'utf8' });
+  const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+  closeSync(out);
+  if (typeof input === 'number') closeSync(input);
+  if (r.status !== 0) {
+    console.error(
+      `bench: ${command} ${argv.join(' ')} failed (exit ${r.status ?? r.signal}): ${r.stderr}`,
+    );
+    process.exit(1);
+  }
+  return seconds;
+}
+
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = Math.floor(s.length / 2);
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+};
+
+/** "a", "a/b" or a decimal like "999.5" as a reduced [num, den] of BigInts. */
+function rational(text) {
+  const t = text.trim();
+  let num;
+  let den = 1n;
+  if (t.includes('/')) {
+    const [a, b] = t.split('/');
+    num = BigInt(a);
+    den = BigInt(b);
+  } else if (t.includes('.')) {
+    const [a, b] = t.split('.');
+    den = 10n ** BigInt(b.length);
+    num = BigInt(a.replace('-', '')) * den + BigInt(b);
+    if (a.startsWith('-')) num = -num;
+  } else num = BigInt(t);
+  const g = (x, y) => (y === 0n ? (x < 0n ? -x : x) : g(y, x % y));
+  const d = g(num, den) || 1n;
+  return [num / d, den / d];
+}
+const same = (x, y) => x[0] * y[1] === y[0] * x[1];
+
+/** What the gp script printed: N, exponent, value (and the class count when given). */
+function parseGp(text) {
+  const m = /Z\((\d+)\)(?: coefficient of q\^(-?[\d./]+))?\s*[:=]\s*(-?[\d/]+)/.exec(text);
+  if (!m) return null;
+  const count = /classes (\d+)/.exec(text);
+  return {
+    N: Number(m[1]),
+    exponent: m[2] ?? '0',
+    value: m[3],
+    classes: count ? Number(count[1]) : null,
+  };
+}
+
+/** The same coefficient (and class-row count) from our result JSON. */
+function ours(file, want) {
+  const result = JSON.parse(readFileSync(file, 'utf8'));
+  const row = result.canonical.find((r) => r.N === want.N);
+  const e = rational(want.exponent);
+  const term = row?.value.terms.find(([x]) => same(rational(x), e));
+  const classes = (result.classes ?? []).filter((c) => c.N === want.N).length;
+  return { value: term ? term[1] : '0', classes };
+}
+
+const rows = [];
+for (const task of tasks) {
+  const spec = path.join(benchDir, `${task}.json`);
+  const gpFile = path.join(benchDir, `${task}.gp`);
+  const withGp = hasGp && existsSync(gpFile);
+  const outFile = path.join(work, `${task}.out.json`);
+  const gpOut = path.join(work, `${task}.gp.txt`);
+  const t = { ours: [], node: [], gp: [] };
+  for (let i = 0; i < runs; i++) {
+    t.ours.push(timed('npm', ['run', '-s', 'cli', '--', 'compute', spec], outFile));
+    if (withGp) t.gp.push(timed('gp', ['-q', '-s', '2000000000', gpFile], gpOut, '/dev/null'));
+    t.node.push(
+      timed(
+        process.execPath,
+        [path.join(root, 'dist/server/cli/main.js'), 'compute', spec],
+        outFile,
+      ),
+    );
+  }
+  let agree = 'no gp';
+  if (withGp) {
+    const want = parseGp(readFileSync(gpOut, 'utf8'));
+    if (!want) agree = 'gp output not understood';
+    else {
+      const got = ours(outFile, want);
+      const valueOk = same(rational(got.value), rational(want.value));
+      const countOk = want.classes === null || want.classes === got.classes;
+      agree = valueOk && countOk ? 'identical' : `DIFFER (ours ${got.value}, gp ${want.value})`;
+      if (want.classes !== null) agree += ` (${got.classes} classes)`;
+    }
+  }
+  const o = median(t.ours);
+  const g = withGp ? median(t.gp) : null;
+  rows.push({ task, o, n: median(t.node), g, agree });
+  console.log(
+    `  ${task}: ours ${t.ours.map((x) => x.toFixed(2)).join(' ')}  gp ${t.gp.map((x) => x.toFixed(2)).join(' ')}`,
+  );
+}
+rmSync(work, { recursive: true, force: true });
+
+const pad = (s, n) => String(s).padEnd(n);
+console.log(`\nmedian of ${runs}, whole process, output to a file (node = the CLI without npm)\n`);
+console.log(
+  `${pad('task', 12)}| ${pad('ours s', 8)}| ${pad('node s', 8)}| ${pad('gp s', 8)}| ${pad('ratio', 6)}| numbers`,
+);
+console.log(
+  `${'-'.repeat(12)}|${'-'.repeat(9)}|${'-'.repeat(9)}|${'-'.repeat(9)}|${'-'.repeat(7)}|--------`,
+);
+for (const r of rows) {
+  const ratio = r.g ? (r.o / r.g).toFixed(2) : '-';
+  console.log(
+    `${pad(r.task, 12)}| ${pad(r.o.toFixed(2), 8)}| ${pad(r.n.toFixed(2), 8)}| ${pad(r.g ? r.g.toFixed(2) : '-', 8)}| ${pad(ratio, 6)}| ${r.agree}`,
+  );
+}
+if (!hasGp)
+  console.log('\n(gp not on PATH: install PARI/GP, e.g. apt-get install -y pari-gp, to compare)');
