@@ -171,3 +171,23 @@ describe('finite spectrum facts (common practice)', () => {
     expect(one.isConstant()).toBe(true);
   });
 });
+
+describe('unbounded symmetric spectrum c_p = q^|p|, p in Z + 1/2', () => {
+  it('Z_L = 2 q^(L/2)/(1 - q^L) (geometric series, common practice); recursion = product form', () => {
+    const r = compute(
+      gas({
+        step: '1/2',
+        order: '15',
+        nMax: 5,
+        weights: { kind: 'spectrum', expression: 'q^abs(p)', offset: '1/2', from: null, to: null },
+      }),
+    );
+    for (const { L, value } of r.weights) {
+      const v = compareSeries(ser(`2*q^(${L}/2)/(1-q^${L})`, 15), ser(jsonText(value)));
+      expect(v.agrees && v.agreesBelow === '15', `L=${L}`).toBe(true);
+    }
+    expect(r.methods.product!.agrees).toBe(true);
+    // 2 x 15 lattice points lie below q^15
+    expect(r.methods.product!.points).toBe(30);
+  });
+});
