@@ -3,6 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from './db/entities/index.js';
 import { routeKey, type RouteSpec } from './http/route-table.js';
+import { datasetAccess, datasetMatrix } from './testing/dataset-matrix.js';
 import { featureAccess, featureMatrix, type MatrixCall } from './testing/matrix-fixtures.js';
 import {
   createTestApp,
@@ -84,6 +85,10 @@ const MATRIX: Record<string, Fixture> = {
     () => actors.admin,
     (actor) => studyFor(actor),
   ),
+  ...datasetMatrix(
+    () => t,
+    () => actors.admin,
+  ),
 };
 
 const ALL = ROLES;
@@ -108,6 +113,7 @@ const EXPECTED_ACCESS: Record<string, 'public' | readonly Role[]> = {
   'POST /studies/:id/members': EDITORS,
   'DELETE /studies/:id/members/:userId': EDITORS,
   ...featureAccess(ALL, EDITORS),
+  ...datasetAccess(ALL, EDITORS),
 };
 
 /** Fills path parameters with well-formed ids for calls that must be refused before lookup. */

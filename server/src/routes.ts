@@ -1,11 +1,14 @@
 import type { AppContext } from './app-context.js';
+import { auditRoutes } from './audit/audit-routes.js';
 import { authRoutes } from './auth/auth-routes.js';
 import { comparisonRoutes } from './comparisons/comparison-routes.js';
 import { computeRoutes } from './compute/compute-routes.js';
 import { computeServices } from './compute/services.js';
+import { datasetRoutes } from './datasets/dataset-routes.js';
 import { gasRoutes } from './gases/gas-routes.js';
 import { healthRoutes } from './http/health-routes.js';
 import type { RouteSpec } from './http/route-table.js';
+import { mailRoutes } from './mail/mail-routes.js';
 import { referenceRoutes } from './references/reference-routes.js';
 import { runRoutes } from './runs/run-routes.js';
 import { studyRoutes } from './studies/study-routes.js';
@@ -28,5 +31,8 @@ export function apiRoutes(ctx: AppContext): RouteSpec[] {
     ...runRoutes(ctx),
     ...referenceRoutes(ctx),
     ...comparisonRoutes(ctx),
+    ...datasetRoutes(ctx),
+    ...auditRoutes(ctx),
+    ...mailRoutes(ctx),
   ];
 }

@@ -6,7 +6,8 @@ export interface AuditEntry {
   actorId: string;
   /** Dotted action name, e.g. `study.create`. */
   action: string;
-  targetType: 'user' | 'study' | 'invitation' | 'gas' | 'run' | 'reference' | 'comparison';
+  targetType:
+    'user' | 'study' | 'invitation' | 'gas' | 'run' | 'reference' | 'comparison' | 'dataset';
   targetId: string;
   detail?: Record<string, unknown>;
 }

@@ -7,3 +7,4 @@ export * from './fields.js';
 export * from './auth.js';
 export * from './users.js';
 export * from './studies.js';
+export * from './datasets.js';

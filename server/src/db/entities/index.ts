@@ -1,5 +1,12 @@
 import { AuditEvent } from './audit-event.entity.js';
 import { Comparison } from './comparison.entity.js';
+import {
+  DatasetComment,
+  DatasetReview,
+  DatasetReviewRequest,
+  DatasetWaiver,
+} from './dataset-review.entity.js';
+import { Dataset, type DatasetState } from './dataset.entity.js';
 import { GasVersion } from './gas-version.entity.js';
 import { Gas } from './gas.entity.js';
 import { Invitation } from './invitation.entity.js';
@@ -12,6 +19,8 @@ import { User } from './user.entity.js';
 
 export { AuditEvent, Invitation, Setting, Study, StudyMember, User };
 export { Comparison, Gas, GasVersion, ReferenceTable, Run, type RunStatus };
+export { Dataset, DatasetComment, DatasetReview, DatasetReviewRequest, DatasetWaiver };
+export type { DatasetState };
 
 /** Every entity, for the data source. */
 export const ENTITIES = [
@@ -26,4 +35,9 @@ export const ENTITIES = [
   Run,
   ReferenceTable,
   Comparison,
+  Dataset,
+  DatasetReviewRequest,
+  DatasetReview,
+  DatasetComment,
+  DatasetWaiver,
 ];

@@ -1,10 +1,12 @@
 import { FoundationTables1764619200000 } from './1764619200000-foundation-tables.js';
 import { LookupIndexes1764619260000 } from './1764619260000-lookup-indexes.js';
 import { GasesRunsReferences1764705600000 } from './1764705600000-gases-runs-references.js';
+import { Datasets1764792000000 } from './1764792000000-datasets.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
   FoundationTables1764619200000,
   LookupIndexes1764619260000,
   GasesRunsReferences1764705600000,
+  Datasets1764792000000,
 ];

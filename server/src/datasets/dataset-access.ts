@@ -1,0 +1,68 @@
+import type { EntityManager } from 'typeorm';
+import { Dataset } from '../db/entities/index.js';
+import { AppError, notFound } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { canSee, STUDY_RELATIONS } from '../studies/study-access.js';
+
+/** Relations every dataset answer needs. */
+export const DATASET_RELATIONS = {
+  study: STUDY_RELATIONS,
+  run: true,
+  supersedes: true,
+  createdBy: true,
+  lockedBy: true,
+} as const;
+
+/** Loads a dataset whose study the actor may see; 404 `not_found` when missing or hidden. */
+export async function loadVisibleDataset(
+  manager: EntityManager,
+  actor: Actor,
+  datasetId: string,
+): Promise<Dataset> {
+  const dataset = await manager
+    .getRepository(Dataset)
+    .findOne({ where: { id: datasetId }, relations: DATASET_RELATIONS });
+  if (!dataset || !canSee(actor, dataset.study)) throw notFound('The dataset');
+  return dataset;
+}
+
+/** 409 `dataset_locked`, the one answer to every write on a locked dataset, whoever asks. */
+export function datasetLocked(): AppError {
+  return new AppError(
+    409,
+    'dataset_locked',
+    'This dataset is locked: it can be read, exported and verified, never changed.',
+  );
+}
+
+/**
+ * Refuses any write to a locked dataset (409 `dataset_locked`, for every role, admin included)
+ * or a withdrawn one (409 `dataset_withdrawn`). Checked before the caller's permissions, so the
+ * answer is the same for everyone.
+ */
+export function assertWritable(dataset: Dataset): void {
+  if (dataset.state === 'locked') throw datasetLocked();
+  if (dataset.state === 'withdrawn') {
+    throw new AppError(
+      409,
+      'dataset_withdrawn',
+      'This dataset was withdrawn; it can only be read.',
+    );
+  }
+}
+
+/** True when the error is SQLite refusing a write to a locked dataset through a trigger. */
+export function isLockTrigger(err: unknown): boolean {
+  return err instanceof Error && /dataset_locked/.test(err.message);
+}
+
+/** Loads the dataset, then refuses a write to it when locked or withdrawn. */
+export async function loadWritableDataset(
+  manager: EntityManager,
+  actor: Actor,
+  datasetId: string,
+): Promise<Dataset> {
+  const dataset = await loadVisibleDataset(manager, actor, datasetId);
+  assertWritable(dataset);
+  return dataset;
+}

@@ -1,0 +1,105 @@
+import type { DatasetCheckDto } from '@traceloom/shared/api';
+import type { DatasetWaiver } from '../db/entities/index.js';
+import type { DatasetSnapshot } from './snapshot.js';
+
+interface VerdictLike {
+  agrees: boolean;
+  agreesBelow: string | null;
+  firstMismatch: { exponent: string; expected: string; found: string } | null;
+}
+
+function verdictDetail(v: VerdictLike): string {
+  if (v.agrees) {
+    return v.agreesBelow === null ? 'agrees exactly' : `agrees below exponent ${v.agreesBelow}`;
+  }
+  const m = v.firstMismatch;
+  return m
+    ? `differs at exponent ${m.exponent}: expected ${m.expected}, found ${m.found}`
+    : 'does not agree';
+}
+
+type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean };
+
+/**
+ * Every check row a snapshot carries: agreement of the routes to Z(N), the grand check and the
+ * weights it implies, the spec's own reference check, and each stored comparison with a
+ * reference table.
+ */
+function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
+  const r = snapshot.result;
+  const rows: CheckRow[] = [];
+  for (const c of r.canonical) {
+    if (c.routes.length < 2) continue;
+    rows.push({
+      check: 'routes',
+      label: `Z(N) by ${c.routes.join(', ')}`,
+      N: c.N,
+      agrees: c.agrees,
+      detail: c.agrees ? 'the routes agree term by term' : 'the routes disagree',
+    });
+  }
+  for (const v of r.grandCheck ?? []) {
+    rows.push({
+      check: 'grand',
+      label: 'grand check',
+      N: v.N,
+      agrees: v.agrees,
+      detail: verdictDetail(v),
+    });
+  }
+  for (const v of r.impliedWeights ?? []) {
+    rows.push({
+      check: 'implied-weights',
+      label: `weight implied by the grand function, L = ${v.L}`,
+      N: v.L,
+      agrees: v.agrees,
+      detail: verdictDetail(v),
+    });
+  }
+  for (const v of r.referenceCheck ?? []) {
+    rows.push({
+      check: 'reference',
+      label: "the spec's reference table",
+      N: v.N,
+      agrees: v.agrees,
+      detail: verdictDetail(v),
+    });
+  }
+  for (const c of snapshot.comparisons) {
+    const label =
+      c.kind === 'grand' ? 'stored grand comparison' : 'comparison with a reference table';
+    for (const v of c.rows) {
+      rows.push({
+        check: `comparison:${c.id}`,
+        label,
+        N: v.N,
+        agrees: v.agrees,
+        detail: verdictDetail(v),
+      });
+    }
+  }
+  return rows;
+}
+
+/** The check rows of a snapshot with their status: green, red, or waived by a matching waiver. */
+export function datasetChecks(
+  snapshot: DatasetSnapshot,
+  waivers: readonly DatasetWaiver[],
+): DatasetCheckDto[] {
+  return checkRows(snapshot).map(({ agrees, ...row }) => {
+    const waiver = agrees
+      ? undefined
+      : waivers.find((w) => w.check === row.check && (w.rowN === null || w.rowN === row.N));
+    return {
+      ...row,
+      status: agrees ? 'green' : waiver ? 'waived' : 'red',
+      waiver: waiver
+        ? {
+            reason: waiver.reason,
+            by: { id: waiver.waivedBy.id, displayName: waiver.waivedBy.displayName },
+            at: waiver.createdAt,
+          }
+        : null,
+    };
+  });
+}

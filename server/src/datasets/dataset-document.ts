@@ -1,0 +1,127 @@
+import { createHash } from 'node:crypto';
+import canonicalizeModule from 'canonicalize';
+import type { DatasetCheckDto, DatasetPersonDto } from '@traceloom/shared/api';
+import { csvCell, renderCsv, renderLatex } from '../cli/render.js';
+import type { Dataset } from '../db/entities/index.js';
+import { datasetChecks } from './dataset-checks.js';
+import { person, type DatasetChildren } from './dataset-dto.js';
+import { readSnapshot, type DatasetSnapshot } from './snapshot.js';
+
+// The package is CommonJS (`module.exports = serialize`); its typings describe an ES default export.
+const canonicalize = canonicalizeModule as unknown as (value: unknown) => string | undefined;
+
+/** Format name of a dataset document. */
+export const DATASET_FORMAT = 'traceloom.dataset/1';
+
+/** The document a lock hashes and the JSON export answers: snapshot plus metadata. */
+export interface DatasetDocument {
+  format: typeof DATASET_FORMAT;
+  id: string;
+  title: string;
+  description: string;
+  version: number;
+  supersedes: { id: string; version: number } | null;
+  study: { id: string; title: string };
+  createdBy: DatasetPersonDto;
+  createdAt: string;
+  lockedBy: DatasetPersonDto;
+  lockedAt: string;
+  snapshot: DatasetSnapshot;
+  checks: DatasetCheckDto[];
+  reviews: Array<{ reviewer: DatasetPersonDto; verdict: string; comment: string; at: string }>;
+  comments: Array<{ author: DatasetPersonDto; N: number | null; body: string; at: string }>;
+}
+
+/** Builds the document of `d` as it is locked by `lockedBy` at `lockedAt`. */
+export function buildDocument(
+  d: Dataset,
+  children: DatasetChildren,
+  lockedBy: DatasetPersonDto,
+  lockedAt: string,
+): DatasetDocument {
+  const snapshot = readSnapshot(d.snapshot);
+  return {
+    format: DATASET_FORMAT,
+    id: d.id,
+    title: d.title,
+    description: d.description,
+    version: d.version,
+    supersedes: d.supersedes ? { id: d.supersedes.id, version: d.supersedes.version } : null,
+    study: { id: d.study.id, title: d.study.title },
+    createdBy: person(d.createdBy),
+    createdAt: d.createdAt,
+    lockedBy,
+    lockedAt,
+    snapshot,
+    checks: datasetChecks(snapshot, children.waivers),
+    reviews: children.reviews.map((r) => ({
+      reviewer: person(r.reviewer),
+      verdict: r.verdict,
+      comment: r.comment,
+      at: r.createdAt,
+    })),
+    comments: children.comments.map((c) => ({
+      author: person(c.author),
+      N: c.rowN,
+      body: c.body,
+      at: c.createdAt,
+    })),
+  };
+}
+
+/**
+ * The canonical JSON of any JSON value (RFC 8785, JSON Canonicalization Scheme, through the
+ * `canonicalize` package) and its SHA-256 in lower-case hex (FIPS 180-4).
+ */
+export function canonicalHash(value: unknown): { canonical: string; hash: string } {
+  const canonical = canonicalize(value);
+  if (canonical === undefined) throw new Error('The value has no JSON form.');
+  return { canonical, hash: sha256Hex(canonical) };
+}
+
+/** SHA-256 of a text's UTF-8 bytes, lower-case hex. */
+export function sha256Hex(text: string): string {
+  return createHash('sha256').update(text, 'utf8').digest('hex');
+}
+
+function latexEscape(text: string): string {
+  return text
+    .replace(/[\\{}$&#^_%~]/g, (c) =>
+      c === '\\' ? '\\textbackslash{}' : c === '^' ? '\\^{}' : c === '~' ? '\\~{}' : `\\${c}`,
+    )
+    .replace(/[\r\n]+/g, ' ');
+}
+
+/** What the CSV and LaTeX exports name besides the tables. */
+export interface ExportHeading {
+  title: string;
+  version: number;
+  lockedAt: string | null;
+  hash: string | null;
+}
+
+/**
+ * CSV of a dataset: metadata rows (title, version, locked, hash), a blank line, then the
+ * canonical and class tables. Every cell goes through `csvCell`: text starting with = + - @ TAB
+ * CR gets a leading ' (OWASP CSV Injection cheat sheet), numbers stay numbers.
+ */
+export function datasetCsv(h: ExportHeading, result: DatasetSnapshot['result']): string {
+  const meta = [
+    ['dataset', h.title],
+    ['version', String(h.version)],
+    ['locked', h.lockedAt ?? 'not locked'],
+    ['sha256', h.hash ?? 'not locked'],
+  ];
+  const head = meta.map((row) => row.map(csvCell).join(',')).join('\n');
+  return `${head}\n\n${renderCsv(result)}`;
+}
+
+/** LaTeX (booktabs) tables of a dataset, after comment lines naming it and its hash. */
+export function datasetLatex(h: ExportHeading, result: DatasetSnapshot['result']): string {
+  return [
+    `% ${latexEscape(h.title)}, version ${h.version}, ${h.lockedAt ? `locked ${h.lockedAt}` : 'not locked'}`,
+    `% SHA-256 ${h.hash ?? '(not locked)'}`,
+    '% needs \\usepackage{booktabs}',
+    renderLatex(result),
+  ].join('\n');
+}

@@ -1,0 +1,155 @@
+import type { DatasetDto, DatasetPersonDto, DatasetSummaryDto } from '@traceloom/shared/api';
+import type { EntityManager } from 'typeorm';
+import {
+  Dataset,
+  DatasetComment,
+  DatasetReview,
+  DatasetReviewRequest,
+  DatasetWaiver,
+  type User,
+} from '../db/entities/index.js';
+import type { Actor } from '../http/route-table.js';
+import { datasetChecks } from './dataset-checks.js';
+import { readSnapshot } from './snapshot.js';
+
+/** A person as datasets name them (no e-mail: exports and the public page carry these). */
+export function person(user: Pick<User, 'id' | 'displayName'>): DatasetPersonDto {
+  return { id: user.id, displayName: user.displayName };
+}
+
+/** The dataset that supersedes `dataset`, if any (the newest one). */
+export async function supersededBy(
+  manager: EntityManager,
+  datasetId: string,
+): Promise<{ id: string; version: number } | null> {
+  const next = await manager.getRepository(Dataset).findOne({
+    where: { supersedes: { id: datasetId } },
+    order: { version: 'DESC' },
+  });
+  return next ? { id: next.id, version: next.version } : null;
+}
+
+/** A dataset (loaded with `DATASET_RELATIONS`) as a list shows it. */
+export async function toSummary(manager: EntityManager, d: Dataset): Promise<DatasetSummaryDto> {
+  return {
+    id: d.id,
+    studyId: d.study.id,
+    runId: d.run.id,
+    title: d.title,
+    version: d.version,
+    state: d.state,
+    hash: d.hash,
+    lockedAt: d.lockedAt,
+    supersedes: d.supersedes ? { id: d.supersedes.id, version: d.supersedes.version } : null,
+    supersededBy: await supersededBy(manager, d.id),
+    createdBy: person(d.createdBy),
+    createdAt: d.createdAt,
+    updatedAt: d.updatedAt,
+  };
+}
+
+/** Everything a dataset's children say: requests, reviews, comments and waivers, oldest first. */
+export async function loadChildren(manager: EntityManager, datasetId: string) {
+  const where = { dataset: { id: datasetId } };
+  const order = { createdAt: 'ASC' } as const;
+  const [requests, reviews, comments, waivers] = await Promise.all([
+    manager
+      .getRepository(DatasetReviewRequest)
+      .find({ where, order, relations: { reviewer: true, requestedBy: true } }),
+    manager.getRepository(DatasetReview).find({ where, order, relations: { reviewer: true } }),
+    manager.getRepository(DatasetComment).find({ where, order, relations: { author: true } }),
+    manager.getRepository(DatasetWaiver).find({ where, order, relations: { waivedBy: true } }),
+  ]);
+  return { requests, reviews, comments, waivers };
+}
+
+/** Children of one dataset, as `loadChildren` gives them. */
+export type DatasetChildren = Awaited<ReturnType<typeof loadChildren>>;
+
+/** The latest verdict of each reviewer, by reviewer id. */
+export function latestVerdicts(
+  reviews: readonly DatasetReview[],
+): Map<string, 'approve' | 'changes'> {
+  const latest = new Map<string, 'approve' | 'changes'>();
+  for (const r of reviews) latest.set(r.reviewer.id, r.verdict);
+  return latest;
+}
+
+/** The citation line: title, version, lock date, hash. */
+export function citationOf(
+  d: Pick<Dataset, 'title' | 'version' | 'lockedAt' | 'hash'>,
+): string | null {
+  if (!d.hash || !d.lockedAt) return null;
+  return `${d.title}, version ${d.version}, Traceloom dataset locked ${d.lockedAt.slice(0, 10)}, SHA-256 ${d.hash}.`;
+}
+
+/** Why the dataset cannot be locked now (state, approvals, red checks); empty when it can. */
+export function lockBlockers(d: Dataset, children: DatasetChildren): string[] {
+  const out: string[] = [];
+  if (d.state !== 'in_review') out.push('the dataset must be in review');
+  const approvals = [...latestVerdicts(children.reviews).values()].filter((v) => v === 'approve');
+  if (approvals.length === 0) out.push('no reviewer has approved it yet');
+  const red = datasetChecks(readSnapshot(d.snapshot), children.waivers).filter(
+    (c) => c.status === 'red',
+  );
+  if (red.length > 0) out.push(`${red.length} check row(s) are red and not waived`);
+  return out;
+}
+
+/** The full dataset answer for `actor`, with what they may do now. */
+export async function toDatasetDto(
+  manager: EntityManager,
+  d: Dataset,
+  actor: Actor,
+): Promise<DatasetDto> {
+  const children = await loadChildren(manager, d.id);
+  const snapshot = readSnapshot(d.snapshot);
+  const open = d.state === 'draft' || d.state === 'in_review';
+  const isCreator = d.createdBy.id === actor.id;
+  const steward = actor.role === 'steward';
+  const requested = children.requests.some((r) => r.reviewer.id === actor.id);
+  const blockers = lockBlockers(d, children);
+  return {
+    ...(await toSummary(manager, d)),
+    description: d.description,
+    snapshot: {
+      gas: snapshot.gas,
+      run: snapshot.run,
+      statistics: snapshot.spec.statistics,
+      variable: snapshot.spec.variable,
+      order: snapshot.result.canonical[0]?.value.order ?? null,
+      nMax: snapshot.result.canonical.length - 1,
+      canonical: snapshot.result.canonical.map(({ N, value }) => ({ N, value })),
+    },
+    checks: datasetChecks(snapshot, children.waivers),
+    reviewRequests: children.requests.map((r) => ({
+      reviewer: person(r.reviewer),
+      requestedBy: person(r.requestedBy),
+      at: r.createdAt,
+    })),
+    reviews: children.reviews.map((r) => ({
+      id: r.id,
+      reviewer: person(r.reviewer),
+      verdict: r.verdict,
+      comment: r.comment,
+      at: r.createdAt,
+    })),
+    comments: children.comments.map((c) => ({
+      id: c.id,
+      author: person(c.author),
+      N: c.rowN,
+      body: c.body,
+      at: c.createdAt,
+    })),
+    citation: citationOf(d),
+    can: {
+      edit: d.state === 'draft' && (isCreator || steward || actor.role === 'admin'),
+      requestReview: open && (isCreator || steward),
+      review: d.state === 'in_review' && requested,
+      waive: open && steward,
+      lock: steward && !isCreator && blockers.length === 0,
+      withdraw: open && steward,
+    },
+    lockBlockers: steward && !isCreator ? blockers : [],
+  };
+}

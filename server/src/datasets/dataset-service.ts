@@ -1,0 +1,241 @@
+import type {
+  DatasetCreateRequest,
+  DatasetDto,
+  DatasetPatchRequest,
+  DatasetSummaryDto,
+  ReviewInboxEntryDto,
+} from '@traceloom/shared/api';
+import type { AppContext } from '../app-context.js';
+import { recordAudit } from '../audit/record-audit.js';
+import { listComparisons } from '../comparisons/comparison-service.js';
+import { Dataset, DatasetReview, DatasetReviewRequest } from '../db/entities/index.js';
+import { AppError, forbidden } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { parseId } from '../http/validate.js';
+import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import { canSee, loadVisibleStudy } from '../studies/study-access.js';
+import { DATASET_RELATIONS, loadVisibleDataset, loadWritableDataset } from './dataset-access.js';
+import { latestVerdicts, person, toDatasetDto, toSummary } from './dataset-dto.js';
+import type { DatasetSnapshot } from './snapshot.js';
+
+/**
+ * `POST /runs/:id/datasets`: a draft snapshot of a finished run (spec version, full result,
+ * stored comparisons). With `supersedesId` it is the next version of a locked or withdrawn
+ * dataset of the same study, which stays readable and names its successor.
+ */
+export async function createDataset(
+  ctx: AppContext,
+  actor: Actor,
+  runId: string,
+  input: DatasetCreateRequest,
+): Promise<DatasetDto> {
+  const run = await loadVisibleRun(ctx, actor, runId);
+  const result = run.status === 'done' ? unpackResult(run) : null;
+  if (!result) {
+    throw new AppError(
+      409,
+      'run_not_done',
+      `The run is ${run.status}; a dataset needs a finished run.`,
+    );
+  }
+  const comparisons = await listComparisons(ctx, actor, runId);
+  const snapshot: DatasetSnapshot = {
+    gas: { id: run.gas.id, title: run.gas.title, version: run.gasVersion.version },
+    run: { id: run.id, finishedAt: run.finishedAt, durationMs: run.durationMs },
+    spec: result.spec,
+    result,
+    comparisons: comparisons.map(({ id, referenceId, kind, normalization, rows }) => ({
+      id,
+      referenceId,
+      kind,
+      normalization,
+      rows,
+    })),
+  };
+  const id = await ctx.dataSource.transaction(async (manager) => {
+    let version = 1;
+    let supersedes: { id: string } | null = null;
+    if (input.supersedesId) {
+      const old = await loadVisibleDataset(manager, actor, input.supersedesId).catch(() => {
+        throw new AppError(
+          404,
+          'not_found',
+          'supersedesId: the dataset was not found.',
+          'supersedesId',
+        );
+      });
+      if (old.study.id !== run.gas.study.id) {
+        throw new AppError(
+          400,
+          'invalid_input',
+          'supersedesId: that dataset belongs to another study.',
+          'supersedesId',
+        );
+      }
+      if (old.state !== 'locked' && old.state !== 'withdrawn') {
+        throw new AppError(
+          409,
+          'supersedes_open',
+          'supersedesId: only a locked or withdrawn dataset can be superseded; edit the draft instead.',
+          'supersedesId',
+        );
+      }
+      const taken = await manager.getRepository(Dataset).existsBy({ supersedes: { id: old.id } });
+      if (taken) {
+        throw new AppError(
+          409,
+          'already_superseded',
+          'supersedesId: a newer version of that dataset already exists.',
+          'supersedesId',
+        );
+      }
+      version = old.version + 1;
+      supersedes = { id: old.id };
+    }
+    const now = new Date().toISOString();
+    const repo = manager.getRepository(Dataset);
+    const saved = await repo.save(
+      repo.create({
+        study: { id: run.gas.study.id },
+        run: { id: run.id },
+        version,
+        supersedes,
+        title: input.title,
+        description: input.description ?? '',
+        state: 'draft',
+        snapshot: JSON.stringify(snapshot),
+        hash: null,
+        canonical: null,
+        lockedAt: null,
+        lockedBy: null,
+        createdBy: { id: actor.id },
+        createdAt: now,
+        updatedAt: now,
+      }),
+    );
+    await recordAudit(manager, {
+      actorId: actor.id,
+      action: 'dataset.create',
+      targetType: 'dataset',
+      targetId: saved.id,
+      detail: { runId, version, supersedesId: supersedes?.id ?? null, state: 'draft' },
+    });
+    return saved.id;
+  });
+  return getDataset(ctx, actor, id);
+}
+
+/** The datasets the actor may see, newest first; `studyId` narrows to one study. */
+export async function listDatasets(
+  ctx: AppContext,
+  actor: Actor,
+  studyId: unknown,
+): Promise<DatasetSummaryDto[]> {
+  const manager = ctx.dataSource.manager;
+  let where = {};
+  if (studyId !== undefined) {
+    const id = parseId(typeof studyId === 'string' ? studyId : undefined, 'The study');
+    await loadVisibleStudy(manager, actor, id);
+    where = { study: { id } };
+  }
+  const rows = await manager
+    .getRepository(Dataset)
+    .find({ where, relations: DATASET_RELATIONS, order: { createdAt: 'DESC' } });
+  const visible = rows.filter((d) => canSee(actor, d.study));
+  return Promise.all(visible.map((d) => toSummary(manager, d)));
+}
+
+/** One dataset with snapshot summary, checks, reviews and comments. */
+export async function getDataset(
+  ctx: AppContext,
+  actor: Actor,
+  datasetId: string,
+): Promise<DatasetDto> {
+  const manager = ctx.dataSource.manager;
+  return toDatasetDto(manager, await loadVisibleDataset(manager, actor, datasetId), actor);
+}
+
+function assertCanEditDraft(actor: Actor, d: Dataset): void {
+  if (d.state !== 'draft') {
+    throw new AppError(
+      409,
+      'not_draft',
+      'Only a draft can be edited or deleted; this one is in review.',
+    );
+  }
+  if (d.createdBy.id !== actor.id && actor.role !== 'steward' && actor.role !== 'admin') {
+    throw forbidden("Only the dataset's author, a steward or an admin may edit or delete a draft.");
+  }
+}
+
+/** `PATCH /datasets/:id`: title and description of a draft. */
+export async function patchDataset(
+  ctx: AppContext,
+  actor: Actor,
+  datasetId: string,
+  patch: () => DatasetPatchRequest,
+): Promise<DatasetDto> {
+  await ctx.dataSource.transaction(async (manager) => {
+    const d = await loadWritableDataset(manager, actor, datasetId);
+    assertCanEditDraft(actor, d);
+    const input = patch();
+    const before = { title: d.title, description: d.description };
+    await manager
+      .getRepository(Dataset)
+      .update({ id: d.id }, { ...input, updatedAt: new Date().toISOString() });
+    await recordAudit(manager, {
+      actorId: actor.id,
+      action: 'dataset.update',
+      targetType: 'dataset',
+      targetId: d.id,
+      detail: { before, after: input },
+    });
+  });
+  return getDataset(ctx, actor, datasetId);
+}
+
+/** `DELETE /datasets/:id`: drafts only. */
+export async function deleteDataset(
+  ctx: AppContext,
+  actor: Actor,
+  datasetId: string,
+): Promise<void> {
+  await ctx.dataSource.transaction(async (manager) => {
+    const d = await loadWritableDataset(manager, actor, datasetId);
+    assertCanEditDraft(actor, d);
+    await manager.getRepository(Dataset).delete({ id: d.id });
+    await recordAudit(manager, {
+      actorId: actor.id,
+      action: 'dataset.delete',
+      targetType: 'dataset',
+      targetId: d.id,
+      detail: { title: d.title, version: d.version, state: d.state },
+    });
+  });
+}
+
+/** `GET /review-requests`: the datasets the actor was asked to review, newest request first. */
+export async function reviewInbox(ctx: AppContext, actor: Actor): Promise<ReviewInboxEntryDto[]> {
+  const manager = ctx.dataSource.manager;
+  const requests = await manager.getRepository(DatasetReviewRequest).find({
+    where: { reviewer: { id: actor.id } },
+    relations: { dataset: DATASET_RELATIONS, requestedBy: true },
+    order: { createdAt: 'DESC' },
+  });
+  const out: ReviewInboxEntryDto[] = [];
+  for (const r of requests) {
+    if (!canSee(actor, r.dataset.study)) continue;
+    const reviews = await manager.getRepository(DatasetReview).find({
+      where: { dataset: { id: r.dataset.id } },
+      relations: { reviewer: true },
+      order: { createdAt: 'ASC' },
+    });
+    out.push({
+      dataset: await toSummary(manager, r.dataset),
+      requestedBy: person(r.requestedBy),
+      requestedAt: r.createdAt,
+      myVerdict: latestVerdicts(reviews).get(actor.id) ?? null,
+    });
+  }
+  return out;
+}

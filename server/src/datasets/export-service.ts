@@ -1,0 +1,156 @@
+import type { Response } from 'express';
+import { z } from 'zod';
+import type { AppContext } from '../app-context.js';
+import { Dataset } from '../db/entities/index.js';
+import { AppError, notFound } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { parseInput } from '../http/validate.js';
+import { DATASET_RELATIONS, loadVisibleDataset } from './dataset-access.js';
+import { canonicalHash, DATASET_FORMAT, datasetCsv, datasetLatex } from './dataset-document.js';
+import { citationOf, toSummary } from './dataset-dto.js';
+import { readSnapshot } from './snapshot.js';
+
+const FORMATS = ['json', 'csv', 'latex'] as const;
+
+/** A file name from a title: letters, digits and dashes only. */
+function fileStem(d: Pick<Dataset, 'title' | 'version'>): string {
+  const stem = d.title
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '')
+    .slice(0, 60);
+  return `${stem || 'dataset'}-v${d.version}`;
+}
+
+function send(res: Response, d: Dataset, format: (typeof FORMATS)[number], body: string): void {
+  const types = {
+    json: 'application/json',
+    csv: 'text/csv',
+    latex: 'application/x-latex',
+  } as const;
+  const ext = { json: 'json', csv: 'csv', latex: 'tex' } as const;
+  res
+    .status(200)
+    .set('Content-Type', `${types[format]}; charset=utf-8`)
+    .set('Content-Disposition', `attachment; filename="${fileStem(d)}.${ext[format]}"`)
+    .send(Buffer.from(body, 'utf8'));
+}
+
+/**
+ * Writes the export of `d` to `res`. JSON (locked only) is exactly the canonical bytes that were
+ * hashed, so SHA-256 of the body equals the lock hash; CSV and LaTeX carry the tables.
+ */
+export function writeExport(res: Response, d: Dataset, formatParam: unknown): void {
+  const format = (formatParam ?? 'json') as (typeof FORMATS)[number];
+  if (!FORMATS.includes(format)) {
+    throw new AppError(400, 'invalid_input', 'format: must be json, csv or latex.', 'format');
+  }
+  if (format === 'json') {
+    if (d.state !== 'locked' || d.canonical === null) {
+      throw new AppError(
+        409,
+        'not_locked',
+        'The JSON export is the locked, hashed document: lock the dataset first.',
+      );
+    }
+    return send(res, d, format, d.canonical);
+  }
+  const result = readSnapshot(d.snapshot).result;
+  const heading = { title: d.title, version: d.version, lockedAt: d.lockedAt, hash: d.hash };
+  send(
+    res,
+    d,
+    format,
+    format === 'csv' ? datasetCsv(heading, result) : datasetLatex(heading, result),
+  );
+}
+
+/** `GET /datasets/:id/export?format=json|csv|latex`. */
+export async function exportDataset(
+  ctx: AppContext,
+  actor: Actor,
+  datasetId: string,
+  format: unknown,
+  res: Response,
+): Promise<void> {
+  writeExport(res, await loadVisibleDataset(ctx.dataSource.manager, actor, datasetId), format);
+}
+
+const HASH = /^[0-9a-f]{64}$/;
+
+async function lockedByHash(ctx: AppContext, hash: string | undefined): Promise<Dataset> {
+  const d =
+    hash && HASH.test(hash)
+      ? await ctx.dataSource
+          .getRepository(Dataset)
+          .findOne({ where: { hash, state: 'locked' }, relations: DATASET_RELATIONS })
+      : null;
+  if (!d) throw notFound('No locked dataset has this hash; it');
+  return d;
+}
+
+/** `GET /public/datasets/:hash` (no sign-in): a locked dataset's document and citation. */
+export async function publicDataset(ctx: AppContext, hash: string | undefined) {
+  const d = await lockedByHash(ctx, hash);
+  return {
+    hash: d.hash,
+    citation: citationOf(d),
+    supersededBy: (await toSummary(ctx.dataSource.manager, d)).supersededBy,
+    document: JSON.parse(d.canonical!) as unknown,
+  };
+}
+
+/** `GET /public/datasets/:hash/export?format=`: the same exports, without sign-in. */
+export async function publicExport(
+  ctx: AppContext,
+  hash: string | undefined,
+  format: unknown,
+  res: Response,
+): Promise<void> {
+  writeExport(res, await lockedByHash(ctx, hash), format);
+}
+
+const importSchema = z.looseObject({
+  format: z.literal(DATASET_FORMAT, { error: `must be "${DATASET_FORMAT}"` }),
+  id: z.uuid({ error: 'must be an identifier (UUID)' }),
+  title: z.string({ error: 'must be a text value' }),
+  version: z.number({ error: 'must be a number' }).int().min(1),
+  lockedAt: z.string({ error: 'must be a time' }),
+  snapshot: z.looseObject({
+    spec: z.looseObject({ format: z.string({ error: 'must be the gas format name' }) }),
+    result: z.looseObject({ format: z.string({ error: 'must be the result format name' }) }),
+  }),
+  checks: z.array(z.unknown(), { error: 'must be a list' }),
+  reviews: z.array(z.unknown(), { error: 'must be a list' }),
+});
+
+/**
+ * `POST /datasets/import` (body = a JSON export): validates the document, recomputes its
+ * canonical form and SHA-256, and says whether a locked dataset here has that hash. Nothing is
+ * stored; a document changed by even one character gives another hash.
+ */
+export async function importDataset(ctx: AppContext, actor: Actor, body: unknown) {
+  const doc = parseInput(importSchema, body);
+  const { hash } = canonicalHash(body);
+  const match = await ctx.dataSource
+    .getRepository(Dataset)
+    .findOne({ where: { hash, state: 'locked' }, relations: DATASET_RELATIONS });
+  let dataset = null;
+  if (match) {
+    try {
+      dataset = await toSummary(
+        ctx.dataSource.manager,
+        await loadVisibleDataset(ctx.dataSource.manager, actor, match.id),
+      );
+    } catch {
+      dataset = null; // locked here but in a study the caller cannot see: the public page still shows it
+    }
+  }
+  return {
+    hash,
+    known: match !== null,
+    idMatches: match?.id === doc.id,
+    dataset,
+    publicPath: match ? `/public/${hash}` : null,
+  };
+}

@@ -1,0 +1,210 @@
+import { MessageChannel } from 'node:worker_threads';
+import { gunzipSync } from 'node:zlib';
+import type { ComputeResult } from '@traceloom/shared/engine';
+import type { AppContext } from '../app-context.js';
+import { recordAudit } from '../audit/record-audit.js';
+import { computeServices } from '../compute/services.js';
+import { Dataset } from '../db/entities/index.js';
+import { AppError, forbidden } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { mailUsers } from '../mail/mailer.js';
+import type { RunOutput, WorkerRefusal } from '../runs/worker.js';
+import {
+  datasetLocked,
+  isLockTrigger,
+  loadVisibleDataset,
+  loadWritableDataset,
+} from './dataset-access.js';
+import { buildDocument, canonicalHash, sha256Hex } from './dataset-document.js';
+import { citationOf, loadChildren, lockBlockers, person } from './dataset-dto.js';
+import { lockMail } from './dataset-mails.js';
+import { datasetLink } from './review-service.js';
+import { readSnapshot } from './snapshot.js';
+
+/**
+ * `POST /datasets/:id/lock` (a steward who is not the dataset's author): needs the dataset in
+ * review, at least one approval (latest verdict per reviewer) and every check green or waived.
+ * Hashes the RFC 8785 canonical JSON of snapshot + metadata with SHA-256, stores both, and mails
+ * the author and the reviewers. From then on the database triggers refuse any change.
+ */
+export async function lockDataset(
+  ctx: AppContext,
+  actor: Actor,
+  datasetId: string,
+): Promise<{ hash: string }> {
+  const locked = await ctx.dataSource
+    .transaction(async (manager) => {
+      const d = await loadWritableDataset(manager, actor, datasetId);
+      if (actor.role !== 'steward') throw forbidden('Only a steward may lock a dataset.');
+      if (d.createdBy.id === actor.id) {
+        throw new AppError(
+          403,
+          'own_dataset',
+          'You created this dataset; another steward must lock it.',
+        );
+      }
+      const children = await loadChildren(manager, d.id);
+      const blockers = lockBlockers(d, children);
+      if (blockers.length > 0) {
+        throw new AppError(
+          409,
+          'not_ready',
+          `The dataset cannot be locked yet: ${blockers.join('; ')}.`,
+        );
+      }
+      const lockedAt = new Date().toISOString();
+      const { canonical, hash } = canonicalHash(
+        buildDocument(d, children, person(actor), lockedAt),
+      );
+      await manager
+        .getRepository(Dataset)
+        .update(
+          { id: d.id },
+          {
+            state: 'locked',
+            hash,
+            canonical,
+            lockedAt,
+            lockedBy: { id: actor.id },
+            updatedAt: lockedAt,
+          },
+        );
+      await recordAudit(manager, {
+        actorId: actor.id,
+        action: 'dataset.lock',
+        targetType: 'dataset',
+        targetId: d.id,
+        detail: { hash, from: d.state, to: 'locked' },
+      });
+      const recipients = [d.createdBy.id, ...children.requests.map((r) => r.reviewer.id)];
+      return { d: { ...d, hash, lockedAt }, recipients, hash };
+    })
+    .catch((err: unknown) => {
+      throw isLockTrigger(err) ? datasetLocked() : err;
+    });
+  const citation = citationOf(locked.d) ?? '';
+  await mailUsers(
+    ctx,
+    locked.recipients,
+    lockMail(locked.d, actor.displayName, locked.hash, citation, datasetLink(ctx, datasetId)),
+  );
+  return { hash: locked.hash };
+}
+
+/** `POST /datasets/:id/withdraw` (steward): a draft or a dataset in review is withdrawn. */
+export async function withdrawDataset(
+  ctx: AppContext,
+  actor: Actor,
+  datasetId: string,
+): Promise<{ state: 'withdrawn' }> {
+  await ctx.dataSource.transaction(async (manager) => {
+    const d = await loadWritableDataset(manager, actor, datasetId);
+    if (actor.role !== 'steward') throw forbidden('Only a steward may withdraw a dataset.');
+    const now = new Date().toISOString();
+    await manager
+      .getRepository(Dataset)
+      .update({ id: d.id }, { state: 'withdrawn', updatedAt: now });
+    await recordAudit(manager, {
+      actorId: actor.id,
+      action: 'dataset.withdraw',
+      targetType: 'dataset',
+      targetId: d.id,
+      detail: { from: d.state, to: 'withdrawn' },
+    });
+  });
+  return { state: 'withdrawn' };
+}
+
+/** Parts of a result that must come out the same when the spec is computed again. */
+const COMPARED = [
+  'spec',
+  'weights',
+  'canonical',
+  'classes',
+  'methods',
+  'grandCheck',
+  'impliedWeights',
+  'referenceCheck',
+  'truncations',
+] as const;
+
+function keyed(section: string, value: unknown): Map<string, string> {
+  const out = new Map<string, string>();
+  if (!Array.isArray(value)) {
+    out.set(section, canonicalHash(value ?? null).canonical);
+    return out;
+  }
+  const counts = new Map<string, number>();
+  for (const row of value as Array<Record<string, unknown>>) {
+    const base =
+      'N' in row ? `${section} N = ${row.N}` : 'L' in row ? `${section} L = ${row.L}` : section;
+    const k = (counts.get(base) ?? 0) + 1;
+    counts.set(base, k);
+    out.set(k > 1 ? `${base} #${k}` : base, canonicalHash(row).canonical);
+  }
+  return out;
+}
+
+/** The places where two results differ (timings are not compared). */
+export function resultMismatches(stored: ComputeResult, fresh: ComputeResult): string[] {
+  const out: string[] = [];
+  for (const section of COMPARED) {
+    const a = keyed(section, stored[section]);
+    const b = keyed(section, fresh[section]);
+    for (const k of new Set([...a.keys(), ...b.keys()])) {
+      if (a.get(k) !== b.get(k))
+        out.push(
+          !a.has(k)
+            ? `${k}: only in the recomputed result`
+            : !b.has(k)
+              ? `${k}: missing from the recomputed result`
+              : `${k}: differs`,
+        );
+    }
+  }
+  return out;
+}
+
+/**
+ * `POST /datasets/:id/verify`: computes the stored spec again with the engine (in the run worker
+ * pool) and compares every part of the result but timings with the stored one; for a locked
+ * dataset also checks that the stored canonical text still hashes to the lock hash.
+ */
+export async function verifyDataset(ctx: AppContext, actor: Actor, datasetId: string) {
+  const d = await loadVisibleDataset(ctx.dataSource.manager, actor, datasetId);
+  const snapshot = readSnapshot(d.snapshot);
+  const channel = new MessageChannel();
+  const started = Date.now();
+  let output: RunOutput | WorkerRefusal;
+  try {
+    output = (await computeServices(ctx).pools.runs.run(
+      { kind: 'run', spec: snapshot.spec, port: channel.port2 },
+      { transferList: [channel.port2], signal: AbortSignal.timeout(ctx.config.runs.wallClockMs) },
+    )) as RunOutput | WorkerRefusal;
+  } finally {
+    channel.port1.close();
+  }
+  if (!output.ok) {
+    throw new AppError(
+      422,
+      'verify_failed',
+      `The stored spec no longer computes: ${output.message}`,
+    );
+  }
+  const fresh = JSON.parse(gunzipSync(output.gzip).toString('utf8')) as ComputeResult;
+  const mismatches = resultMismatches(snapshot.result, fresh);
+  const hashOk =
+    d.state === 'locked' ? d.canonical !== null && sha256Hex(d.canonical) === d.hash : null;
+  if (hashOk === false)
+    mismatches.push('the stored canonical text no longer hashes to the lock hash');
+  await ctx.dataSource.transaction((manager) =>
+    recordAudit(manager, {
+      actorId: actor.id,
+      action: 'dataset.verify',
+      targetType: 'dataset',
+      targetId: d.id,
+      detail: { ok: mismatches.length === 0, mismatches: mismatches.length },
+    }),
+  );
+  return { ok: mismatches.length === 0, mismatches, hashOk, durationMs: Date.now() - started };
+}

@@ -1,0 +1,185 @@
+import { z } from 'zod';
+import { API_LIMITS, idSchema } from './fields.js';
+
+/** Limits of the dataset routes. */
+export const DATASET_LIMITS = {
+  commentMax: 5000,
+  reasonMax: 2000,
+  reviewersMax: 20,
+  checkKeyMax: 64,
+} as const;
+
+const titleSchema = z
+  .string({ error: 'must be a text value' })
+  .trim()
+  .min(1, 'must not be empty')
+  .max(API_LIMITS.titleMax, `must be at most ${API_LIMITS.titleMax} characters`);
+
+const descriptionSchema = z
+  .string({ error: 'must be a text value' })
+  .max(API_LIMITS.descriptionMax, `must be at most ${API_LIMITS.descriptionMax} characters`);
+
+const rowSchema = z
+  .number({ error: 'must be a row number N' })
+  .int({ error: 'must be a whole number' })
+  .min(0, { error: 'must be at least 0' });
+
+const textSchema = (max: number) =>
+  z
+    .string({ error: 'must be a text value' })
+    .trim()
+    .min(1, 'must not be empty')
+    .max(max, `must be at most ${max} characters`);
+
+/** Body of `POST /api/runs/:id/datasets`. */
+export const datasetCreateSchema = z.strictObject({
+  title: titleSchema,
+  description: descriptionSchema.optional(),
+  supersedesId: idSchema.optional(),
+});
+
+/** Parsed dataset creation body. */
+export type DatasetCreateRequest = z.infer<typeof datasetCreateSchema>;
+
+/** Body of `PATCH /api/datasets/:id`; at least one field. */
+export const datasetPatchSchema = z
+  .strictObject({ title: titleSchema.optional(), description: descriptionSchema.optional() })
+  .refine((patch) => patch.title !== undefined || patch.description !== undefined, {
+    message: 'give at least one of title, description',
+  });
+
+/** Parsed dataset patch. */
+export type DatasetPatchRequest = z.infer<typeof datasetPatchSchema>;
+
+/** Body of `POST /api/datasets/:id/review-requests`. */
+export const reviewRequestSchema = z.strictObject({
+  reviewerIds: z
+    .array(idSchema, { error: 'must be a list of user ids' })
+    .min(1, 'must name at least one reviewer')
+    .max(DATASET_LIMITS.reviewersMax, `must name at most ${DATASET_LIMITS.reviewersMax} reviewers`),
+});
+
+/** Body of `POST /api/datasets/:id/comments`. */
+export const datasetCommentSchema = z.strictObject({
+  body: textSchema(DATASET_LIMITS.commentMax),
+  N: rowSchema.optional(),
+});
+
+/** Body of `POST /api/datasets/:id/reviews`. */
+export const datasetReviewSchema = z.strictObject({
+  verdict: z.enum(['approve', 'changes'], { error: 'must be approve or changes' }),
+  comment: z
+    .string({ error: 'must be a text value' })
+    .trim()
+    .max(DATASET_LIMITS.commentMax, `must be at most ${DATASET_LIMITS.commentMax} characters`),
+});
+
+/** Body of `POST /api/datasets/:id/waivers`. */
+export const datasetWaiverSchema = z.strictObject({
+  check: z
+    .string({ error: 'must be a check key' })
+    .min(1, 'must not be empty')
+    .max(DATASET_LIMITS.checkKeyMax, `must be at most ${DATASET_LIMITS.checkKeyMax} characters`),
+  N: rowSchema.optional(),
+  reason: textSchema(DATASET_LIMITS.reasonMax),
+});
+
+/** Where a dataset is in its life. */
+export type DatasetStateName = 'draft' | 'in_review' | 'locked' | 'withdrawn';
+
+/** A person as a dataset names them. */
+export interface DatasetPersonDto {
+  id: string;
+  displayName: string;
+}
+
+/** One row of one check of a dataset, with its waiver when a steward accepted it red. */
+export interface DatasetCheckDto {
+  /** `class-sum`, `product`, `grand`, `implied-weights`, `reference`, or `comparison:<id>`. */
+  check: string;
+  label: string;
+  N: number | null;
+  status: 'green' | 'red' | 'waived';
+  detail: string;
+  waiver: { reason: string; by: DatasetPersonDto; at: string } | null;
+}
+
+/** A dataset in a list. */
+export interface DatasetSummaryDto {
+  id: string;
+  studyId: string;
+  runId: string;
+  title: string;
+  version: number;
+  state: DatasetStateName;
+  hash: string | null;
+  lockedAt: string | null;
+  supersedes: { id: string; version: number } | null;
+  supersededBy: { id: string; version: number } | null;
+  createdBy: DatasetPersonDto;
+  createdAt: string;
+  updatedAt: string;
+}
+
+/** A dataset with its snapshot summary, checks, reviews and comments. */
+export interface DatasetDto extends DatasetSummaryDto {
+  description: string;
+  snapshot: {
+    gas: { id: string; title: string; version: number };
+    run: { id: string; finishedAt: string | null; durationMs: number | null };
+    statistics: string;
+    variable: string;
+    order: string | null;
+    nMax: number;
+    /** Z(N) rows as the result format gives them. */
+    canonical: Array<{ N: number; value: { order: string | null; terms: [string, string][] } }>;
+  };
+  checks: DatasetCheckDto[];
+  reviewRequests: Array<{ reviewer: DatasetPersonDto; requestedBy: DatasetPersonDto; at: string }>;
+  reviews: Array<{
+    id: string;
+    reviewer: DatasetPersonDto;
+    verdict: 'approve' | 'changes';
+    comment: string;
+    at: string;
+  }>;
+  comments: Array<{
+    id: string;
+    author: DatasetPersonDto;
+    N: number | null;
+    body: string;
+    at: string;
+  }>;
+  /** Ready to paste: title, version, date, hash (locked datasets only). */
+  citation: string | null;
+  /** What the caller may do now. */
+  can: {
+    edit: boolean;
+    requestReview: boolean;
+    review: boolean;
+    waive: boolean;
+    lock: boolean;
+    withdraw: boolean;
+  };
+  /** Why locking is not possible yet (empty when it is, or when the caller may not lock). */
+  lockBlockers: string[];
+}
+
+/** One review request in the reviewer's inbox. */
+export interface ReviewInboxEntryDto {
+  dataset: DatasetSummaryDto;
+  requestedBy: DatasetPersonDto;
+  requestedAt: string;
+  myVerdict: 'approve' | 'changes' | null;
+}
+
+/** One audit event. */
+export interface AuditEventDto {
+  id: string;
+  action: string;
+  targetType: string;
+  targetId: string;
+  actor: DatasetPersonDto;
+  detail: Record<string, unknown>;
+  createdAt: string;
+}
