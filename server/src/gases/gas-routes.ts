@@ -3,12 +3,18 @@ import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
 import { parseId } from '../http/validate.js';
 import { GAS_EDITORS } from './gas-access.js';
 import { parseGasBody } from './gas-input.js';
+import { assertSpecEvaluates } from './gas-probe.js';
 import { createGas, deleteGas, getGas, getGasVersion, listGases, updateGas } from './gas-service.js';
 
 /** Gas routes: a study's gases, one gas, its versions. Study access is checked in the service. */
 export function gasRoutes(ctx: AppContext): RouteSpec[] {
   const study = (id: string | undefined) => parseId(id, 'The study');
   const gas = (id: string | undefined) => parseId(id, 'The gas');
+  const checkedSpec = async (body: unknown) => {
+    const spec = parseGasBody(body);
+    await assertSpecEvaluates(ctx, spec);
+    return spec;
+  };
   return [
     {
       method: 'get',
@@ -21,7 +27,8 @@ export function gasRoutes(ctx: AppContext): RouteSpec[] {
       path: '/studies/:id/gases',
       access: GAS_EDITORS,
       status: 201,
-      handler: ({ actor, params, body }) => createGas(ctx, actor, study(params.id), parseGasBody(body)),
+      handler: async ({ actor, params, body }) =>
+        createGas(ctx, actor, study(params.id), await checkedSpec(body)),
     },
     {
       method: 'get',
@@ -39,7 +46,8 @@ export function gasRoutes(ctx: AppContext): RouteSpec[] {
       method: 'put',
       path: '/gases/:id',
       access: GAS_EDITORS,
-      handler: ({ actor, params, body }) => updateGas(ctx, actor, gas(params.id), parseGasBody(body)),
+      handler: async ({ actor, params, body }) =>
+        updateGas(ctx, actor, gas(params.id), await checkedSpec(body)),
     },
     {
       method: 'delete',

@@ -1,0 +1,51 @@
+import type { GasSpec } from '@traceloom/shared/engine';
+import Fraction from 'fraction.js';
+import type { AppContext } from '../app-context.js';
+import { computeServices } from '../compute/services.js';
+import { AppError } from '../http/app-error.js';
+import type { WorkerRefusal } from '../runs/worker.js';
+
+/** The probe's size: N up to 2, eight grid steps. */
+const PROBE_N = 2;
+const PROBE_STEPS = 8;
+/** Longest the probe may take; a heavy but valid spec is accepted when it runs out. */
+const PROBE_MS = 1000;
+
+/** The same gas, cut down to a few N and grid steps. */
+export function probeOf(spec: GasSpec): GasSpec {
+  const step = new Fraction(spec.step);
+  const cap = step.mul(PROBE_STEPS);
+  const order = spec.order === null || new Fraction(spec.order).compare(cap) <= 0 ? spec.order : cap.toFraction();
+  const probe: GasSpec = {
+    ...spec,
+    nMax: Math.min(spec.nMax, PROBE_N),
+    classTable: Math.min(spec.classTable, PROBE_N),
+    order,
+  };
+  if (spec.reference) {
+    probe.reference = { ...spec.reference, rows: spec.reference.rows.filter((row) => row.N <= PROBE_N) };
+  }
+  return probe;
+}
+
+/**
+ * Evaluates a cut-down copy of a spec in a worker before it is stored, so an unknown function,
+ * a symbol out of place or a power beyond the engine's limits is refused at once (400 naming
+ * the field) rather than when a run fails. A probe that runs out of time is no refusal.
+ */
+export async function assertSpecEvaluates(ctx: AppContext, spec: GasSpec): Promise<void> {
+  const signal = AbortSignal.timeout(PROBE_MS);
+  let output: { ok: true } | WorkerRefusal;
+  try {
+    output = (await computeServices(ctx).pools.quick.run({ kind: 'preview', spec: probeOf(spec) }, { signal })) as
+      | { ok: true }
+      | WorkerRefusal;
+  } catch (err) {
+    if (signal.aborted) return;
+    throw err;
+  }
+  if (!output.ok) {
+    const field = output.field ? `spec.${output.field}` : 'spec';
+    throw new AppError(400, 'invalid_spec', `${field}: ${output.message}.`, field);
+  }
+}
