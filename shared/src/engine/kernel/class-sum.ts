@@ -46,8 +46,8 @@ export function reduceRational(num: bigint, den: bigint): RationalParts {
 interface WalkState {
   readonly a: bigint;
   readonly q: bigint;
-  /** prod b_L^(m_L), only tracked when rows are wanted */
-  readonly b: bigint;
+  /** prod (b_L L)^(m_L) m_L!, the row's denominator: only tracked when rows are wanted */
+  readonly d: bigint;
 }
 
 /** The class sum Z(n) (reduced) for rational weights, streaming the rows to onRow if given. */
@@ -59,25 +59,38 @@ export function classSumRational(input: ClassSumInput): RationalParts {
   for (let L = 1; L <= n; L++) common *= w[L - 1]!.den ** BigInt(Math.floor(n / L));
   let factorial = 1n;
   for (let i = 2; i <= n; i++) factorial *= BigInt(i);
+  const rowFactor = w.map((x, t) => x.den * BigInt(t + 1));
+  // powers for the last level (k cycles of length 1 at once)
+  const w1 = w[0]!;
+  const a1 = [1n];
+  const b1 = [1n];
+  const d1 = [1n];
+  for (let k = 1; k <= n; k++) {
+    a1.push(a1[k - 1]! * w1.num);
+    b1.push(b1[k - 1]! * w1.den);
+    d1.push(d1[k - 1]! * w1.den * BigInt(k));
+  }
   let total = 0n;
   const track = onRow !== undefined;
   foldCycleTypes<WalkState>(
     n,
-    { a: 1n, q: common, b: 1n },
-    (s, L) => {
+    { a: 1n, q: common, d: 1n },
+    (s, L, k) => {
       const x = w[L - 1]!;
-      return { a: s.a * x.num, q: s.q / x.den, b: track ? s.b * x.den : 1n };
+      const d = track ? s.d * rowFactor[L - 1]! * BigInt(k) : 1n;
+      return { a: s.a * x.num, q: x.den === 1n ? s.q : s.q / x.den, d };
     },
     (s, visit) => {
       const eps = sign === -1 ? visit.sign : 1;
       const term = s.a * visit.size * s.q;
       total += eps === 1 ? term : -term;
-      if (onRow) {
-        // contribution = eps * A / (B * z) with z = n!/size
-        const z = factorial / visit.size;
-        onRow({ visit, contribution: reduceRational(eps === 1 ? s.a : -s.a, s.b * z) });
-      }
+      if (onRow) onRow({ visit, contribution: reduceRational(eps === 1 ? s.a : -s.a, s.d) });
     },
+    (s, k) => ({
+      a: s.a * a1[k]!,
+      q: w1.den === 1n ? s.q : s.q / b1[k]!,
+      d: track ? s.d * d1[k]! : 1n,
+    }),
   );
   return reduceRational(total, common * factorial);
 }

@@ -30,15 +30,15 @@ export function foldCycleTypes<S>(
   initial: S,
   extend: (state: S, L: number, k: number) => S,
   leaf: (state: S, visit: CycleTypeVisit) => void,
+  /** optional shortcut: the state after k cycles of length 1 in one step (same as k extends) */
+  ones?: (state: S, k: number) => S,
 ): number {
   if (!Number.isInteger(n) || n < 0)
     throw new RangeError(`n must be a non-negative integer, got ${n}`);
   const m = new Int32Array(n + 1);
-  const factorial = (() => {
-    let f = 1n;
-    for (let i = 2; i <= n; i++) f *= BigInt(i);
-    return f;
-  })();
+  const factorials = [1n];
+  for (let i = 1; i <= n; i++) factorials.push(factorials[i - 1]! * BigInt(i));
+  const factorial = factorials[n]!;
   let count = 0;
   let parts = 0;
   const visit = { n, m, parts: 0, size: 0n, sign: 1 as 1 | -1 };
@@ -46,11 +46,9 @@ export function foldCycleTypes<S>(
   const walk = (L: number, rest: number, state: S, size: bigint): void => {
     if (L === 1) {
       let s = state;
-      let z = size;
-      for (let k = 1; k <= rest; k++) {
-        s = extend(s, 1, k);
-        z /= BigInt(k);
-      }
+      if (ones) s = ones(s, rest);
+      else for (let k = 1; k <= rest; k++) s = extend(s, 1, k);
+      const z = rest > 1 ? size / factorials[rest]! : size;
       m[1] = rest;
       parts += rest;
       visit.parts = parts;
