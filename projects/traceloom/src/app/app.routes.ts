@@ -25,6 +25,31 @@ export const routes: Routes = [
         loadComponent: () => import('./studies/study-page').then((m) => m.StudyPage),
       },
       {
+        path: 'studies/:studyId/gases/new',
+        title: 'New gas · Traceloom',
+        loadComponent: () => import('./gases/gas-editor').then((m) => m.GasEditor),
+      },
+      {
+        path: 'gases/:gasId',
+        title: 'Gas · Traceloom',
+        loadComponent: () => import('./gases/gas-editor').then((m) => m.GasEditor),
+      },
+      {
+        path: 'runs/:runId',
+        title: 'Run · Traceloom',
+        loadComponent: () => import('./runs/run-page').then((m) => m.RunPage),
+      },
+      {
+        path: 'help',
+        title: 'Guide · Traceloom',
+        loadComponent: () => import('./help/help-page').then((m) => m.HelpPageView),
+      },
+      {
+        path: 'help/:page',
+        title: 'Guide · Traceloom',
+        loadComponent: () => import('./help/help-page').then((m) => m.HelpPageView),
+      },
+      {
         path: 'admin/users',
         title: 'Users · Traceloom',
         canActivate: [roleGuard('admin')],

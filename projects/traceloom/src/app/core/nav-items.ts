@@ -19,6 +19,7 @@ const EVERYONE: readonly Role[] = ['author', 'reviewer', 'steward', 'admin'];
 export const NAV_ITEMS: readonly NavItem[] = [
   { id: 'studies', label: 'Studies', icon: 'folder_open', route: '/studies', roles: EVERYONE },
   { id: 'users', label: 'Users', icon: 'group', route: '/admin/users', roles: ['admin'] },
+  { id: 'help', label: 'Guide', icon: 'menu_book', route: '/help', roles: EVERYONE },
 ];
 
 /** The navigation entries a role may use. */

@@ -1,13 +1,9 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { Router, provideRouter } from '@angular/router';
+import { Router } from '@angular/router';
 import { Role } from '@traceloom/shared/api';
-import { apiInterceptor } from '../core/api-interceptor';
 import { Session } from '../core/session';
-import { signInAs } from '../core/session-testing';
+import { signInAs, testProviders } from '../core/session-testing';
 import { Shell } from './shell';
 
 describe('Shell', () => {
@@ -15,13 +11,7 @@ describe('Shell', () => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
       imports: [Shell],
-      providers: [
-        provideZonelessChangeDetection(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
   });
 
@@ -39,10 +29,10 @@ describe('Shell', () => {
   }
 
   it.each<[Role, string[]]>([
-    ['author', ['nav-studies']],
-    ['reviewer', ['nav-studies']],
-    ['steward', ['nav-studies']],
-    ['admin', ['nav-studies', 'nav-users']],
+    ['author', ['nav-studies', 'nav-help']],
+    ['reviewer', ['nav-studies', 'nav-help']],
+    ['steward', ['nav-studies', 'nav-help']],
+    ['admin', ['nav-studies', 'nav-users', 'nav-help']],
   ])('shows %s only the navigation that role may use', async (role, expected) => {
     const el = await render(role);
     expect(navIds(el)).toEqual(expected);

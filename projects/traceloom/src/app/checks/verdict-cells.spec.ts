@@ -1,0 +1,40 @@
+import { cellState, matrixExponents, verdictText } from './verdict-cells';
+
+describe('check matrix cells', () => {
+  const agreeing = { N: 2, agrees: true, agreesBelow: '4', firstMismatch: null };
+  const differing = {
+    N: 3,
+    agrees: false,
+    agreesBelow: '3/2',
+    firstMismatch: { exponent: '3/2', expected: '8', found: '4' },
+  };
+
+  it('marks coefficients below the agreed order as agreeing and the rest as unchecked', () => {
+    expect(cellState(agreeing, '0')).toBe('agrees');
+    expect(cellState(agreeing, '7/2')).toBe('agrees');
+    expect(cellState(agreeing, '4')).toBe('unchecked');
+  });
+
+  it('marks the first mismatch, and what follows it as unchecked', () => {
+    expect(cellState(differing, '1')).toBe('agrees');
+    expect(cellState(differing, '3/2')).toBe('differs');
+    expect(cellState(differing, '2')).toBe('unchecked');
+  });
+
+  it('treats exact agreement as agreeing everywhere', () => {
+    expect(cellState({ N: 0, agrees: true, agreesBelow: null, firstMismatch: null }, '99')).toBe(
+      'agrees',
+    );
+  });
+
+  it('lays out the exponent grid in steps below the order, capped', () => {
+    expect(matrixExponents('1/2', '2', [])).toEqual(['0', '1/2', '1', '3/2']);
+    expect(matrixExponents('1', '100', [], 5)).toEqual(['0', '1', '2', '3', '4']);
+    expect(matrixExponents('1', null, [differing])).toEqual(['0', '1', '2']);
+  });
+
+  it('says the verdict in words', () => {
+    expect(verdictText(differing)).toBe('differs at q^(3/2): expected 8, found 4');
+    expect(verdictText(agreeing)).toBe('agrees to O(q^4)');
+  });
+});

@@ -1,0 +1,218 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { GasSpecInput } from '@traceloom/shared/engine';
+import { ApiError, messageOf } from '../core/api-error';
+import { Session } from '../core/session';
+import { canWriteGases } from './gas-roles';
+import { GasRuns } from '../runs/gas-runs';
+import { errorText } from './field-error';
+import { applyFieldErrors, controlPathFor, fillGasForm, gasForm, specFromForm } from './gas-form';
+import { GasPreview } from './gas-preview';
+import { specProblems } from './gas-validation';
+import { GasVersions } from './gas-versions';
+import { GasDto, GasesApi } from './gases-api';
+import { GasWeights } from './gas-weights';
+
+/**
+ * Define or edit a gas: the spec as a reactive form checked by the shared schema as you type, a
+ * live preview, saving as a new version, the version history, and runs of the saved version.
+ */
+@Component({
+  selector: 'tl-gas-editor',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    RouterLink,
+    GasPreview,
+    GasRuns,
+    GasVersions,
+    GasWeights,
+  ],
+  templateUrl: './gas-editor.html',
+  styleUrl: './gas-editor.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class GasEditor {
+  private readonly api = inject(GasesApi);
+  private readonly session = inject(Session);
+  private readonly router = inject(Router);
+  private readonly snackBar = inject(MatSnackBar);
+  private readonly destroyRef = inject(DestroyRef);
+
+  /** Route `studies/:studyId/gases/new`: the study a new gas goes into. */
+  readonly studyId = input<string>();
+  /** Route `gases/:gasId`: the gas to edit. */
+  readonly gasId = input<string>();
+
+  protected readonly form = gasForm();
+  protected readonly gas = signal<GasDto | null>(null);
+  protected readonly loading = signal(false);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly saving = signal(false);
+  protected readonly saveError = signal<string | null>(null);
+  /** A version other than the latest, shown read-only; null = the latest (editable). */
+  protected readonly viewedVersion = signal<number | null>(null);
+  protected readonly otherProblems = signal<string[]>([]);
+  /** The valid spec the preview follows, or null while the form has problems. */
+  protected readonly previewInput = signal<GasSpecInput | null>(null);
+
+  protected readonly canWrite = computed(() => canWriteGases(this.session.role()));
+  protected readonly readOnly = computed(() => !this.canWrite() || this.viewedVersion() !== null);
+  protected readonly isNew = computed(() => !this.gasId());
+  protected readonly backLink = computed(() => {
+    const study = this.gas()?.studyId ?? this.studyId();
+    return study ? ['/studies', study] : ['/studies'];
+  });
+  protected readonly errorText = errorText;
+
+  constructor() {
+    this.form.valueChanges
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe(() => this.validate());
+    effect(() => {
+      const id = this.gasId();
+      if (id) this.load(id);
+      else queueMicrotask(() => this.validate());
+    });
+    effect(() => (this.readOnly() ? this.form.disable() : this.form.enable()));
+  }
+
+  /** Checks the form with the shared schema and puts each problem under its field. */
+  protected validate(): void {
+    const value = this.form.getRawValue();
+    const spec = specFromForm(value);
+    const problems = specProblems(spec, value.weightsKind);
+    applyFieldErrors(this.form, 'schema', problems.byControl);
+    this.otherProblems.set(problems.other);
+    const clean =
+      problems.byControl.size === 0 && problems.other.length === 0 && !this.hasRequiredGaps();
+    this.previewInput.set(clean ? spec : null);
+  }
+
+  /** Shows a preview failure that names a field on that field (as the server's message). */
+  protected onPreviewProblem(error: ApiError | null): void {
+    const messages = new Map<string, string>();
+    const path = error?.field
+      ? controlPathFor(error.field, this.form.getRawValue().weightsKind)
+      : null;
+    if (error && path) messages.set(path, error.message);
+    applyFieldErrors(this.form, 'server', messages, true);
+  }
+
+  protected save(): void {
+    this.validate();
+    if (this.form.invalid || this.otherProblems().length > 0) {
+      this.form.markAllAsTouched();
+      this.saveError.set('Some fields need attention; each says what is wrong.');
+      return;
+    }
+    const spec = specFromForm(this.form.getRawValue());
+    const gas = this.gas();
+    const studyId = this.studyId();
+    const request = gas
+      ? this.api.update(gas.id, spec)
+      : studyId
+        ? this.api.create(studyId, spec)
+        : null;
+    if (!request) return;
+    this.saving.set(true);
+    this.saveError.set(null);
+    request.subscribe({
+      next: (saved) => {
+        this.saving.set(false);
+        this.gas.set(saved);
+        this.form.markAsPristine();
+        this.snackBar.open(`Saved as version ${saved.version}.`, undefined, { duration: 3000 });
+        if (!gas) void this.router.navigate(['/gases', saved.id]);
+      },
+      error: (err: unknown) => {
+        this.saving.set(false);
+        const path =
+          err instanceof ApiError && err.field
+            ? controlPathFor(err.field, this.form.getRawValue().weightsKind)
+            : null;
+        if (err instanceof ApiError && path && this.form.get(path)) {
+          applyFieldErrors(this.form, 'server', new Map([[path, err.message]]), true);
+          this.saveError.set('The server refused one field; see the message under it.');
+        } else {
+          this.saveError.set(messageOf(err));
+        }
+      },
+    });
+  }
+
+  /** Shows an old version read-only (null: back to the latest, editable). */
+  protected viewVersion(version: number | null): void {
+    const gas = this.gas();
+    if (!gas) return;
+    if (version === null || version === gas.version) {
+      this.viewedVersion.set(null);
+      fillGasForm(this.form, gas.spec);
+      this.form.markAsPristine();
+      return;
+    }
+    this.loading.set(true);
+    this.api.version(gas.id, version).subscribe({
+      next: (old) => {
+        this.loading.set(false);
+        this.viewedVersion.set(old.version);
+        fillGasForm(this.form, old.spec);
+      },
+      error: (err: unknown) => {
+        this.loading.set(false);
+        this.snackBar.open(messageOf(err), 'Dismiss', { duration: 6000 });
+      },
+    });
+  }
+
+  private load(id: string): void {
+    this.loading.set(true);
+    this.loadError.set(null);
+    this.api.get(id).subscribe({
+      next: (gas) => {
+        this.loading.set(false);
+        this.gas.set(gas);
+        this.viewedVersion.set(null);
+        fillGasForm(this.form, gas.spec);
+        this.form.markAsPristine();
+      },
+      error: (err: unknown) => {
+        this.loading.set(false);
+        this.loadError.set(
+          err instanceof ApiError && err.status === 404
+            ? 'This gas does not exist, or you are not a member of its study.'
+            : messageOf(err),
+        );
+      },
+    });
+  }
+
+  private hasRequiredGaps(): boolean {
+    const check = (c: { hasError(k: string): boolean }) => c.hasError('required');
+    const f = this.form.controls;
+    return [f.title, f.variable, f.step, f.nMax].some(check);
+  }
+}

@@ -1,0 +1,43 @@
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatRadioModule } from '@angular/material/radio';
+import { errorText } from './field-error';
+import { GasForm } from './gas-form';
+
+/** The weight source (values list, formula in L, spectrum) and the optional grand function. */
+@Component({
+  selector: 'tl-gas-weights',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatRadioModule,
+  ],
+  templateUrl: './gas-weights.html',
+  styleUrl: './gas-weights.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class GasWeights {
+  readonly form = input.required<GasForm>();
+  readonly readOnly = input(false);
+
+  protected readonly errorText = errorText;
+
+  protected addValue(): void {
+    const rows = this.form().controls.values;
+    rows.push(new FormControl('', { nonNullable: true }));
+    this.form().markAsDirty();
+  }
+
+  protected removeValue(index: number): void {
+    const rows = this.form().controls.values;
+    if (rows.length > 1) rows.removeAt(index);
+    this.form().markAsDirty();
+  }
+}

@@ -1,0 +1,83 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import { Observable } from 'rxjs';
+import type { ComputeResult, GasSpecInput } from '@traceloom/shared/engine';
+
+/** A person as the API names them beside a change. */
+export interface PersonRef {
+  id: string;
+  displayName: string;
+}
+
+/** One gas in a study's list (API contract, GET /api/studies/:id/gases). */
+export interface GasSummary {
+  id: string;
+  studyId: string;
+  title: string;
+  statistics: 'fermion' | 'boson';
+  weightsKind: 'values' | 'formula' | 'spectrum';
+  version: number;
+  updatedAt: string;
+  updatedBy: PersonRef;
+  lastRun: { id: string; status: string; finishedAt: string | null } | null;
+}
+
+/** One saved version of a gas. */
+export interface GasVersionRef {
+  version: number;
+  createdAt: string;
+  createdBy: PersonRef;
+}
+
+/** A gas with its latest spec and the list of its versions. */
+export interface GasDto {
+  id: string;
+  studyId: string;
+  title: string;
+  version: number;
+  spec: GasSpecInput;
+  versions: GasVersionRef[];
+  createdAt: string;
+  updatedAt: string;
+}
+
+/** An old version of a gas, read-only. */
+export interface GasVersionDto extends GasVersionRef {
+  spec: GasSpecInput;
+}
+
+/** The gas endpoints and the synchronous preview (`/api/compute`). */
+@Injectable({ providedIn: 'root' })
+export class GasesApi {
+  private readonly http = inject(HttpClient);
+
+  /** The study's gases (deleted ones are not listed). */
+  list(studyId: string): Observable<GasSummary[]> {
+    return this.http.get<GasSummary[]>(`/api/studies/${encodeURIComponent(studyId)}/gases`);
+  }
+
+  /** Creates a gas (version 1). */
+  create(studyId: string, spec: GasSpecInput): Observable<GasDto> {
+    return this.http.post<GasDto>(`/api/studies/${encodeURIComponent(studyId)}/gases`, { spec });
+  }
+
+  get(id: string): Observable<GasDto> {
+    return this.http.get<GasDto>(`/api/gases/${encodeURIComponent(id)}`);
+  }
+
+  /** Saves the spec as a new version; old versions and their runs stay. */
+  update(id: string, spec: GasSpecInput): Observable<GasDto> {
+    return this.http.put<GasDto>(`/api/gases/${encodeURIComponent(id)}`, { spec });
+  }
+
+  version(id: string, version: number): Observable<GasVersionDto> {
+    return this.http.get<GasVersionDto>(
+      `/api/gases/${encodeURIComponent(id)}/versions/${encodeURIComponent(version)}`,
+    );
+  }
+
+  /** The small synchronous computation behind the live preview (strict server caps). */
+  compute(spec: GasSpecInput): Observable<ComputeResult> {
+    return this.http.post<ComputeResult>('/api/compute', { spec });
+  }
+}

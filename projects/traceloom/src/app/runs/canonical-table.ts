@@ -1,0 +1,107 @@
+import { CdkVirtualScrollViewport, ScrollingModule } from '@angular/cdk/scrolling';
+import { ClipboardModule } from '@angular/cdk/clipboard';
+import {
+  AfterViewInit,
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
+import { toObservable } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { MatTableModule } from '@angular/material/table';
+import type { CanonicalRowJson } from '@traceloom/shared/engine';
+import { ExportButtons } from '../exports/export-buttons';
+import {
+  CanonicalLine,
+  agreementText,
+  canonicalExport,
+  canonicalLatex,
+  canonicalLines,
+} from './canonical-rows';
+import { Tex } from './tex';
+import { valueTex } from './value-format';
+
+/** Height of one collapsed row, the virtual scroll step. */
+const ROW_PX = 52;
+/** Rows visible before the table scrolls. */
+const VISIBLE_ROWS = 12;
+
+/**
+ * The canonical table, one row per N, in a Material table. Long tables scroll virtually: the
+ * viewport decides which rows are rendered and the table shows only that slice. A row expands to
+ * the full series, typeset and as copyable plain text.
+ */
+@Component({
+  selector: 'tl-canonical-table',
+  imports: [
+    ClipboardModule,
+    MatButtonModule,
+    MatIconModule,
+    MatTableModule,
+    ScrollingModule,
+    ExportButtons,
+    Tex,
+  ],
+  templateUrl: './canonical-table.html',
+  styleUrl: './canonical-table.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class CanonicalTable implements AfterViewInit {
+  private readonly destroyRef = inject(DestroyRef);
+  private readonly snackBar = inject(MatSnackBar);
+
+  readonly rows = input.required<readonly CanonicalRowJson[]>();
+  readonly variable = input('q');
+  readonly title = input('canonical table');
+  /** The whole result, for the JSON export. */
+  readonly result = input<unknown>(null);
+
+  protected readonly lines = computed(() => canonicalLines(this.rows(), this.variable()));
+  protected readonly visible = signal<CanonicalLine[]>([]);
+  protected readonly offset = signal(0);
+  protected readonly expanded = signal<number | null>(null);
+  protected readonly viewportHeight = computed(
+    () => Math.min(this.lines().length, VISIBLE_ROWS) * ROW_PX + ROW_PX + 4,
+  );
+  protected readonly exportTable = computed(() => canonicalExport(this.lines()));
+  protected readonly latexTable = computed(() => canonicalLatex(this.lines(), this.variable()));
+  protected readonly columns = ['expand', 'N', 'lead', 'valuation', 'terms', 'known', 'agreement'];
+  protected readonly rowPx = ROW_PX;
+  protected readonly agreementText = agreementText;
+  protected readonly valueTex = valueTex;
+  protected readonly trackN = (_: number, line: CanonicalLine) => line.N;
+
+  private readonly viewport = viewChild.required(CdkVirtualScrollViewport);
+  private readonly lines$ = toObservable(this.lines);
+
+  ngAfterViewInit(): void {
+    const viewport = this.viewport();
+    // The viewport needs a data source to size its scroll area; the table renders the slice.
+    viewport.attach({ dataStream: this.lines$, measureRangeSize: () => 0 });
+    const sub = viewport.renderedRangeStream.subscribe((range) => {
+      this.visible.set(this.lines().slice(range.start, range.end));
+      this.offset.set(range.start * ROW_PX);
+    });
+    this.destroyRef.onDestroy(() => {
+      sub.unsubscribe();
+      viewport.detach();
+    });
+  }
+
+  protected toggle(line: CanonicalLine): void {
+    this.expanded.set(this.expanded() === line.N ? null : line.N);
+  }
+
+  protected copied(ok: boolean): void {
+    this.snackBar.open(ok ? 'Copied the series as plain text.' : 'Copying failed.', undefined, {
+      duration: 2500,
+    });
+  }
+}

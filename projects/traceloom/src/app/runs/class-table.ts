@@ -1,0 +1,152 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
+import { FormsModule } from '@angular/forms';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSort, MatSortModule } from '@angular/material/sort';
+import { MatTableDataSource, MatTableModule } from '@angular/material/table';
+import type { ClassRowJson } from '@traceloom/shared/engine';
+import { messageOf } from '../core/api-error';
+import { ExportButtons } from '../exports/export-buttons';
+import { ExportTable } from '../exports/export-files';
+import { RunsApi } from './runs-api';
+import { Tex } from './tex';
+import {
+  cycleTypeTex,
+  cycleTypeText,
+  rationalNumber,
+  valuation,
+  valueTex,
+  valueText,
+} from './value-format';
+
+/** One class-table row as shown. */
+export interface ClassLine {
+  cycleType: string;
+  cycleTex: string;
+  cycles: number;
+  size: string;
+  sign: 1 | -1;
+  contributionText: string;
+  contributionTex: string;
+  valuation: number;
+}
+
+/** Class-table rows for the screen and the exports. */
+export function classLines(rows: readonly ClassRowJson[], variable: string): ClassLine[] {
+  return rows.map((r) => ({
+    cycleType: cycleTypeText(r.cycleType),
+    cycleTex: cycleTypeTex(r.cycleType),
+    cycles: r.cycleType.reduce((n, [, m]) => n + m, 0),
+    size: r.size,
+    sign: r.sign,
+    contributionText: valueText(r.contribution, variable),
+    contributionTex: valueTex(r.contribution, variable, 4),
+    valuation: rationalNumber(valuation(r.contribution) ?? 'Infinity'),
+  }));
+}
+
+/** The class table of one N: cycle type, class size N!/z, sign, contribution; sortable, paged. */
+@Component({
+  selector: 'tl-class-table',
+  imports: [
+    FormsModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatPaginatorModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    MatSortModule,
+    MatTableModule,
+    ExportButtons,
+    Tex,
+  ],
+  templateUrl: './class-table.html',
+  styleUrl: './class-table.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ClassTable {
+  private readonly api = inject(RunsApi);
+
+  readonly runId = input.required<string>();
+  /** Cycle-type counts per N (`{"4": 5}`), from the run. */
+  readonly counts = input<Record<string, number>>({});
+  readonly variable = input('q');
+  readonly title = input('class table');
+
+  protected readonly choices = computed(() =>
+    Object.keys(this.counts())
+      .map(Number)
+      .filter((n) => n >= 1)
+      .sort((a, b) => a - b),
+  );
+  protected readonly chosen = signal<number | null>(null);
+  protected readonly loading = signal(false);
+  protected readonly error = signal<string | null>(null);
+  protected readonly rows = signal<ClassRowJson[]>([]);
+  protected readonly lines = computed(() => classLines(this.rows(), this.variable()));
+  protected readonly source = new MatTableDataSource<ClassLine>([]);
+  protected readonly columns = ['cycleType', 'size', 'sign', 'contribution'];
+  protected readonly exportTable = computed<ExportTable>(() => ({
+    columns: ['cycle type', 'size', 'sign', 'contribution'],
+    rows: this.lines().map((l) => [
+      l.cycleType,
+      l.size,
+      l.sign > 0 ? '+1' : '-1',
+      l.contributionText,
+    ]),
+  }));
+
+  private readonly sort = viewChild(MatSort);
+  private readonly paginator = viewChild(MatPaginator);
+
+  constructor() {
+    this.source.sortingDataAccessor = (line, column) => {
+      if (column === 'size') return rationalNumber(line.size);
+      if (column === 'sign') return line.sign;
+      if (column === 'contribution') return line.valuation;
+      return line.cycles;
+    };
+    effect(() => {
+      const choices = this.choices();
+      if (this.chosen() === null && choices.length) this.chosen.set(choices[choices.length - 1]);
+    });
+    effect(() => {
+      const n = this.chosen();
+      if (n !== null) this.load(this.runId(), n);
+    });
+    effect(() => {
+      this.source.data = this.lines();
+      const sort = this.sort();
+      const paginator = this.paginator();
+      if (sort) this.source.sort = sort;
+      if (paginator) this.source.paginator = paginator;
+    });
+  }
+
+  protected load(runId: string, n: number): void {
+    this.loading.set(true);
+    this.error.set(null);
+    this.api.classes(runId, n).subscribe({
+      next: (run) => {
+        this.loading.set(false);
+        this.rows.set((run.result?.classes ?? []).filter((r) => r.N === n));
+      },
+      error: (err: unknown) => {
+        this.loading.set(false);
+        this.error.set(messageOf(err));
+      },
+    });
+  }
+}

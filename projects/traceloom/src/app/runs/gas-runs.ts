@@ -1,0 +1,102 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { RouterLink } from '@angular/router';
+import { ApiError, messageOf } from '../core/api-error';
+import { RunProgressPanel } from './run-progress';
+import { RunStatus, RunSummary, RunsApi, isActive, runErrorText } from './runs-api';
+import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
+
+/** Starting a run of a gas, following it live, and the gas's run history. */
+@Component({
+  selector: 'tl-gas-runs',
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    RouterLink,
+    RunProgressPanel,
+  ],
+  templateUrl: './gas-runs.html',
+  styleUrl: './gas-runs.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class GasRuns {
+  private readonly api = inject(RunsApi);
+
+  readonly gasId = input.required<string>();
+  readonly latestVersion = input.required<number>();
+  /** An older version on screen: the run button runs that one. */
+  readonly viewedVersion = input<number | null>(null);
+  readonly canRun = input(false);
+
+  protected readonly runs = signal<RunSummary[]>([]);
+  protected readonly loading = signal(true);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly starting = signal(false);
+  protected readonly startError = signal<string | null>(null);
+  /** The run followed live (the newest active one). */
+  protected readonly followed = signal<string | null>(null);
+  protected readonly version = computed(() => this.viewedVersion() ?? this.latestVersion());
+  protected readonly labels = STATUS_LABELS;
+  protected readonly icons = STATUS_ICONS;
+  protected readonly runErrorText = runErrorText;
+  protected readonly durationText = durationText;
+
+  constructor() {
+    effect(() => this.reload(this.gasId()));
+  }
+
+  protected start(): void {
+    this.starting.set(true);
+    this.startError.set(null);
+    const version = this.viewedVersion() ?? undefined;
+    this.api.start(this.gasId(), version).subscribe({
+      next: (run) => {
+        this.starting.set(false);
+        this.followed.set(run.id);
+        this.reload(this.gasId());
+      },
+      error: (err: unknown) => {
+        this.starting.set(false);
+        this.startError.set(
+          err instanceof ApiError && err.code === 'too_many_runs'
+            ? `${err.message} Wait for one of your runs to finish, or cancel one.`
+            : messageOf(err),
+        );
+      },
+    });
+  }
+
+  protected onFinished(_status: RunStatus): void {
+    this.reload(this.gasId());
+  }
+
+  protected reload(gasId: string): void {
+    this.loadError.set(null);
+    this.api.list(gasId).subscribe({
+      next: (runs) => {
+        this.loading.set(false);
+        const sorted = [...runs].sort((a, b) => b.createdAt.localeCompare(a.createdAt));
+        this.runs.set(sorted);
+        const active = sorted.find((r) => isActive(r.status));
+        if (active && !this.followed()) this.followed.set(active.id);
+      },
+      error: (err: unknown) => {
+        this.loading.set(false);
+        this.loadError.set(messageOf(err));
+      },
+    });
+  }
+}

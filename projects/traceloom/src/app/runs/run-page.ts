@@ -1,0 +1,92 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatTabsModule } from '@angular/material/tabs';
+import { RouterLink } from '@angular/router';
+import { RunChecks } from '../checks/run-checks';
+import { ApiError, messageOf } from '../core/api-error';
+import { Session } from '../core/session';
+import { canWriteGases } from '../gases/gas-roles';
+import { CanonicalTable } from './canonical-table';
+import { ClassTable } from './class-table';
+import { RunPlots } from '../plots/run-plots';
+import { RunProgressPanel } from './run-progress';
+import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
+import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
+
+/** One run: status and timings, then its canonical table, class table, checks and plots. */
+@Component({
+  selector: 'tl-run-page',
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatTabsModule,
+    RouterLink,
+    CanonicalTable,
+    ClassTable,
+    RunChecks,
+    RunPlots,
+    RunProgressPanel,
+  ],
+  templateUrl: './run-page.html',
+  styleUrl: './run-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class RunPage {
+  private readonly api = inject(RunsApi);
+  private readonly session = inject(Session);
+
+  /** Route `runs/:runId`. */
+  readonly runId = input.required<string>();
+
+  protected readonly run = signal<RunDto | null>(null);
+  protected readonly loading = signal(true);
+  protected readonly error = signal<string | null>(null);
+  protected readonly tab = signal(0);
+  protected readonly variable = computed(() => this.run()?.spec.variable ?? 'q');
+  protected readonly title = computed(() => this.run()?.spec.title || 'run');
+  protected readonly active = computed(() => {
+    const run = this.run();
+    return !!run && isActive(run.status);
+  });
+  protected readonly canCancel = computed(() => canWriteGases(this.session.role()));
+  protected readonly labels = STATUS_LABELS;
+  protected readonly icons = STATUS_ICONS;
+  protected readonly durationText = durationText;
+  protected readonly runErrorText = runErrorText;
+
+  constructor() {
+    effect(() => this.load(this.runId()));
+  }
+
+  protected load(id: string): void {
+    this.loading.set(true);
+    this.error.set(null);
+    this.api.get(id).subscribe({
+      next: (run) => {
+        this.loading.set(false);
+        this.run.set(run);
+      },
+      error: (err: unknown) => {
+        this.loading.set(false);
+        this.error.set(
+          err instanceof ApiError && err.status === 404
+            ? 'This run does not exist, or you are not a member of its study.'
+            : messageOf(err),
+        );
+      },
+    });
+  }
+}

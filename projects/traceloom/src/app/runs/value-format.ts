@@ -1,0 +1,120 @@
+import type { ValueJson } from '@traceloom/shared/engine';
+
+/**
+ * Presentation of result-format values (`{order, terms: [[exponent, coefficient]]}`) without the
+ * engine: the screens only print, they never compute, so this stays out of the engine's chunk.
+ */
+
+interface Rational {
+  sign: '' | '-';
+  num: string;
+  den: string;
+}
+
+function rational(text: string): Rational {
+  const t = text.trim();
+  const sign = t.startsWith('-') ? '-' : '';
+  const [num, den = '1'] = t.replace(/^[-+]/, '').split('/');
+  return { sign, num: num.trim(), den: den.trim() };
+}
+
+function isOne(r: Rational): boolean {
+  return r.num === '1' && r.den === '1';
+}
+
+/** `q^2`, `q^(1/2)`, `q` or `` (exponent 0), as the expression language writes powers. */
+export function plainPower(variable: string, exponent: string): string {
+  if (exponent === '0') return '';
+  if (exponent === '1') return variable;
+  return /^\d+$/.test(exponent) ? `${variable}^${exponent}` : `${variable}^(${exponent})`;
+}
+
+function texRational(r: Rational): string {
+  return r.den === '1' ? r.num : `\\tfrac{${r.num}}{${r.den}}`;
+}
+
+function texPower(variable: string, exponent: string): string {
+  if (exponent === '0') return '';
+  if (exponent === '1') return variable;
+  const e = rational(exponent);
+  const body = e.den === '1' ? e.num : `${e.num}/${e.den}`;
+  return `${variable}^{${e.sign}${body}}`;
+}
+
+/** Joins signed parts (`+ a`, `- b`) into `a - b`, or `-a - b`. */
+function joinSigned(parts: string[]): string {
+  if (parts.length === 0) return '0';
+  const text = parts.join(' ');
+  return text.startsWith('+ ') ? text.slice(2) : `-${text.slice(2)}`;
+}
+
+/**
+ * Plain text in the expression language, e.g. `q^(1/2) - 3/4*q^2 + O(q^5)`, so it can be pasted
+ * back into a gas or a reference table.
+ */
+export function valueText(value: ValueJson, variable = 'q'): string {
+  const parts = value.terms.map(([e, c]) => {
+    const r = rational(c);
+    const power = plainPower(variable, e);
+    const mag = r.den === '1' ? r.num : `${r.num}/${r.den}`;
+    const coeff = power === '' ? mag : isOne(r) ? '' : `${mag}*`;
+    return `${r.sign === '-' ? '-' : '+'} ${coeff}${power}`;
+  });
+  if (value.order !== null) parts.push(`+ O(${plainPower(variable, value.order) || '1'})`);
+  return joinSigned(parts);
+}
+
+/** LaTeX for KaTeX, e.g. `q^{1/2} - \tfrac{3}{4}q^{2} + O(q^{5})`; `maxTerms` elides the middle. */
+export function valueTex(value: ValueJson, variable = 'q', maxTerms = Infinity): string {
+  const shown = value.terms.length > maxTerms ? value.terms.slice(0, maxTerms) : value.terms;
+  const parts = shown.map(([e, c]) => {
+    const r = rational(c);
+    const power = texPower(variable, e);
+    const coeff = power === '' || !isOne(r) ? texRational(r) : '';
+    return `${r.sign === '-' ? '-' : '+'} ${coeff}${power}`;
+  });
+  if (shown.length < value.terms.length) parts.push('+ \\cdots');
+  if (value.order !== null) parts.push(`+ O(${texPower(variable, value.order) || '1'})`);
+  return joinSigned(parts);
+}
+
+/** The lowest-order term alone (`q^(9/2)`), or `0` when every known coefficient vanishes. */
+export function leadingTerm(value: ValueJson, variable = 'q'): string {
+  const first = value.terms[0];
+  return first ? valueText({ order: null, terms: [first] }, variable) : '0';
+}
+
+/** LaTeX of the lowest-order term. */
+export function leadingTermTex(value: ValueJson, variable = 'q'): string {
+  const first = value.terms[0];
+  return first ? valueTex({ order: null, terms: [first] }, variable) : '0';
+}
+
+/** Exponent of the lowest non-zero term, or null when none is known. */
+export function valuation(value: ValueJson): string | null {
+  return value.terms[0]?.[0] ?? null;
+}
+
+/** A rational string as a number (for plots and sorting; never for results). */
+export function rationalNumber(text: string): number {
+  const r = rational(text);
+  const v = Number(r.num) / Number(r.den);
+  return r.sign === '-' ? -v : v;
+}
+
+/** How far a value is known, in words: `exact` or `to O(q^40)`. */
+export function knownTo(value: ValueJson, variable = 'q'): string {
+  return value.order === null ? 'exact' : `O(${plainPower(variable, value.order) || '1'})`;
+}
+
+/** A cycle type `[[1, 2], [2, 1]]` (length, multiplicity) in exponent notation: `1^2 2^1`. */
+export function cycleTypeText(cycleType: readonly (readonly [number, number])[]): string {
+  return cycleType.length === 0 ? '∅' : cycleType.map(([l, m]) => `${l}^${m}`).join(' ');
+}
+
+/** The same cycle type in LaTeX: `1^{2}\,2^{1}`. */
+export function cycleTypeTex(cycleType: readonly (readonly [number, number])[]): string {
+  return cycleType.length === 0
+    ? '\\varnothing'
+    : cycleType.map(([l, m]) => `${l}^{${m}}`).join('\\,');
+}
