@@ -1,9 +1,13 @@
 import type { OutgoingMail } from '../mail/mailer.js';
+import { oneLine } from '../mail/mail-text.js';
 
 interface Named {
   title: string;
   version: number;
 }
+
+/** The dataset's name for a mail: one line, so a title never shapes the message. */
+const named = (d: Named) => `"${oneLine(d.title)}", version ${d.version}`;
 
 const footer = (link: string) => `\n\nOpen it in Traceloom: ${link}\n\n-- \nTraceloom\n`;
 
@@ -11,7 +15,7 @@ const footer = (link: string) => `\n\nOpen it in Traceloom: ${link}\n\n-- \nTrac
 export function reviewRequestMail(d: Named, requester: string, link: string): OutgoingMail {
   return {
     subject: `Review requested: ${d.title} (v${d.version})`,
-    text: `${requester} asks you to review the dataset "${d.title}", version ${d.version}.\nRead its checks, comment on rows, and approve it or ask for changes.${footer(link)}`,
+    text: `${requester} asks you to review the dataset ${named(d)}.\nRead its checks, comment on rows, and approve it or ask for changes.${footer(link)}`,
   };
 }
 
@@ -26,7 +30,7 @@ export function verdictMail(
   const said = verdict === 'approve' ? 'approved' : 'asked for changes to';
   return {
     subject: `${verdict === 'approve' ? 'Approved' : 'Changes asked'}: ${d.title} (v${d.version})`,
-    text: `${reviewer} ${said} the dataset "${d.title}", version ${d.version}.${comment ? `\n\nTheir comment:\n${comment}` : ''}${footer(link)}`,
+    text: `${reviewer} ${said} the dataset ${named(d)}.${comment ? `\n\nTheir comment:\n${comment}` : ''}${footer(link)}`,
   };
 }
 
@@ -40,7 +44,7 @@ export function lockMail(
 ): OutgoingMail {
   return {
     subject: `Locked: ${d.title} (v${d.version})`,
-    text: `${steward} locked the dataset "${d.title}", version ${d.version}.\nSHA-256: ${hash}\n\nCite it as:\n${citation}${footer(link)}`,
+    text: `${steward} locked the dataset ${named(d)}.\nSHA-256: ${hash}\n\nCite it as:\n${citation}${footer(link)}`,
   };
 }
 
@@ -53,6 +57,6 @@ export function invitationMail(
 ): OutgoingMail {
   return {
     subject: 'You are invited to Traceloom',
-    text: `Hello ${name},\n\n${inviter} invited you to Traceloom, the team workbench for partition functions of one-dimensional gases, with the role ${role}.\nAsk ${inviter} for your first password, then sign in at ${link}\n\n-- \nTraceloom\n`,
+    text: `Hello ${name},\n\n${inviter} invited you to Traceloom, the team workbench for partition functions of one-dimensional gases, with the role ${role}.\nYour sign-in e-mail is this address: ${link}\n\n-- \nTraceloom\n`,
   };
 }

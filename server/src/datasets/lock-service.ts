@@ -56,19 +56,17 @@ export async function lockDataset(
       const { canonical, hash } = canonicalHash(
         buildDocument(d, children, person(actor), lockedAt),
       );
-      await manager
-        .getRepository(Dataset)
-        .update(
-          { id: d.id },
-          {
-            state: 'locked',
-            hash,
-            canonical,
-            lockedAt,
-            lockedBy: { id: actor.id },
-            updatedAt: lockedAt,
-          },
-        );
+      await manager.getRepository(Dataset).update(
+        { id: d.id },
+        {
+          state: 'locked',
+          hash,
+          canonical,
+          lockedAt,
+          lockedBy: { id: actor.id },
+          updatedAt: lockedAt,
+        },
+      );
       await recordAudit(manager, {
         actorId: actor.id,
         action: 'dataset.lock',

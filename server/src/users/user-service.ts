@@ -12,6 +12,8 @@ import { isUniqueViolation } from '../db/constraint-errors.js';
 import { Invitation, User } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
+import { invitationMail } from '../datasets/dataset-mails.js';
+import { mailServices, mailUsers } from '../mail/mailer.js';
 import { toDirectoryEntry, toUserDto } from './user-dto.js';
 
 /** Every user, oldest first (admin view). */
@@ -29,8 +31,8 @@ export async function userDirectory(ctx: AppContext): Promise<DirectoryEntryDto[
 }
 
 /**
- * Invites a person: creates their account with an unusable password (they set one when the
- * invitation mail arrives, a later feature) and records the invitation. 409 `email_taken` when
+ * Invites a person: creates their account with an unusable password, records the invitation and
+ * mails the invitation to the new account's address (from the database). 409 `email_taken` when
  * the address already has an account.
  */
 export async function inviteUser(
@@ -40,7 +42,7 @@ export async function inviteUser(
 ): Promise<InviteResponse> {
   const emailTaken = () =>
     new AppError(409, 'email_taken', 'An account with this e-mail already exists.', 'email');
-  return ctx.dataSource
+  const answer = await ctx.dataSource
     .transaction(async (manager) => {
       const users = manager.getRepository(User);
       if (await users.existsBy({ email: input.email })) throw emailTaken();
@@ -81,6 +83,13 @@ export async function inviteUser(
     .catch((err: unknown) => {
       throw isUniqueViolation(err) ? emailTaken() : err;
     });
+  const link = `${mailServices(ctx).baseUrl}/sign-in`;
+  await mailUsers(
+    ctx,
+    [answer.user.id],
+    invitationMail(answer.user.displayName, answer.user.role, actor.displayName, link),
+  );
+  return answer;
 }
 
 /**
