@@ -8,8 +8,8 @@ import { forwardTransform, inverseTransformUnscaled, transformPlan } from './ntt
 import { residueArray } from './residues.js';
 import { KernelStopped, type NewtonTableInput } from './types.js';
 
-/** 64 products of residues below 2^23 sum exactly in a double. */
-const ACCUMULATE = 64;
+/** 32 products of residues below 2^24 sum exactly in a double (32 * 2^48 = 2^53). */
+const ACCUMULATE = 32;
 
 /** Index of the first non-zero coefficient below `length` (Infinity when none). */
 export function valuationOf(w: readonly bigint[], length: number): number {

@@ -21,7 +21,8 @@ import { residueRun, valuationBounds } from './newton-residues.js';
 import { bigResidue } from './residues.js';
 import type { NewtonTableInput, NewtonTableResult } from './types.js';
 
-const PRIME_LIMIT = 2 ** 23;
+/** Word primes stay below 2^24: see ACCUMULATE in newton-residues.ts. */
+const PRIME_LIMIT = 2 ** 24;
 const MIN_TRANSFORM_BITS = 15;
 const MAX_TRANSFORM_BITS = 19;
 
@@ -111,7 +112,7 @@ export function newtonTableModular(
   const k = Math.max(MIN_TRANSFORM_BITS, Math.log2(size));
   const valuation = valuationBounds(input);
   const upto = validLengths(input);
-  const estimate = Math.ceil(aprioriBits / 22.9) + 1;
+  const estimate = Math.ceil(aprioriBits / 23.9) + 1;
   const primes: TransformPrime[] = [];
   const digits: (Int32Array | null)[][] = []; // digits[i][N]
   const inv: number[][] = [];
@@ -145,7 +146,7 @@ export function newtonTableModular(
         const c = invRow[t]!;
         const cq = c / p;
         for (let j = valuation[N]!; j < upto[N]!; j++) {
-          // digits are below 2^23, exact in the float quotient
+          // digits are below 2^24, exact in the float quotient
           const e0 = dt[j]!;
           let d = row[j]! - (e0 - p * Math.floor(e0 / p));
           d += (d >> 31) & p;

@@ -51,7 +51,7 @@ export function transformPlan(prime: TransformPrime, size: number): TransformPla
 /** In-place forward transform (natural order in, bit-reversed order out); residues in [0, p). */
 export function forwardTransform(a: Int32Array, plan: TransformPlan): void {
   const { p, size, tw, twq } = plan;
-  // branch-free corrections: residues are below 2^23, so int32 sign tricks are exact
+  // branch-free corrections: residues are below 2^24, so int32 sign tricks are exact
   for (let h = size >> 1; h >= 1; h >>= 1) {
     for (let s = 0; s < size; s += 2 * h) {
       for (let j = 0; j < h; j++) {
