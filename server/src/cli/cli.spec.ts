@@ -2,7 +2,7 @@ import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { csvCell } from './render.js';
+import { classRowText, csvCell } from './render.js';
 
 // Runs the compiled command line (npm test builds first; locally: npm run build:shared && npm run build:server).
 const root = fileURLToPath(new URL('../../../', import.meta.url));
@@ -82,5 +82,23 @@ describe('csv cells (OWASP CSV injection)', () => {
     ['1 + q, 2', '"1 + q, 2"'],
   ])('%s -> %s', (cell, expected) => {
     expect(csvCell(cell)).toBe(expected);
+  });
+});
+
+describe('class row text', () => {
+  it('is the same JSON as JSON.stringify', () => {
+    const row = {
+      N: 3,
+      cycleType: [
+        [1, 1],
+        [2, 1],
+      ] as [number, number][],
+      size: '3',
+      sign: -1 as const,
+      contribution: { order: '10', terms: [['3/2', '-1/2']] as [string, string][] },
+    };
+    expect(JSON.parse(classRowText(row))).toEqual(row);
+    const exact = { ...row, contribution: { order: null, terms: [] } };
+    expect(JSON.parse(classRowText(exact))).toEqual(exact);
   });
 });

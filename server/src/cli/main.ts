@@ -14,7 +14,7 @@ import {
   type ClassRowJson,
   type ComputeResult,
 } from '@traceloom/shared';
-import { renderCsv, renderLatex, renderTable } from './render.js';
+import { classRowText, renderCsv, renderLatex, renderTable } from './render.js';
 
 const USAGE = 'usage: traceloom compute SPEC.json|- [--format json|table|csv|latex]';
 
@@ -69,7 +69,7 @@ function streamJson(input: unknown): void {
   let first = true;
   const onClass = (row: ClassRowJson): void => {
     if (!opened) open();
-    out.write((first ? '\n' : ',\n') + JSON.stringify(row));
+    out.write((first ? '\n' : ',\n') + classRowText(row));
     first = false;
   };
   const result: ComputeResult = compute(input, { onClass, collectClasses: false });

@@ -11,12 +11,18 @@ export interface ValueJson {
 /** The result-format JSON of a series (zero terms omitted, sorted by exponent). */
 export function toValueJson(s: Series): ValueJson {
   const terms: [string, string][] = [];
+  const sn = s.step.s * s.step.n;
+  const sd = s.step.d;
+  const exponent = (i: number): string =>
+    sd === 1n ? String(sn * BigInt(i)) : s.step.mul(i).toFraction();
+  // one term, or an integer denominator: already in lowest terms (Series.of divides out the gcd)
+  const coefficient = (c: bigint): string =>
+    s.den === 1n ? String(c) : s.num.length === 1 ? `${c}/${s.den}` : frac(c, s.den).toFraction();
   for (let i = 0; i < s.num.length; i++) {
     const c = s.num[i]!;
-    if (c === 0n) continue;
-    terms.push([s.step.mul(s.start + i).toFraction(), frac(c, s.den).toFraction()]);
+    if (c !== 0n) terms.push([exponent(s.start + i), coefficient(c)]);
   }
-  return { order: s.order === null ? null : s.step.mul(s.order).toFraction(), terms };
+  return { order: s.order === null ? null : exponent(s.order), terms };
 }
 
 /** Non-zero terms as [exponent, coefficient] fractions. */
