@@ -1,11 +1,7 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { UserDto } from '@traceloom/shared/api';
-import { apiInterceptor } from '../core/api-interceptor';
-import { signInAs, testUser } from '../core/session-testing';
+import { signInAs, testProviders, testUser } from '../core/session-testing';
 import { UserList } from './user-list';
 
 describe('UserList', () => {
@@ -19,12 +15,7 @@ describe('UserList', () => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
       imports: [UserList],
-      providers: [
-        provideZonelessChangeDetection(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
     httpTesting = TestBed.inject(HttpTestingController);
     me = signInAs('admin');

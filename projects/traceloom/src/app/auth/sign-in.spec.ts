@@ -1,11 +1,8 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { Router, provideRouter } from '@angular/router';
-import { apiInterceptor } from '../core/api-interceptor';
+import { Router } from '@angular/router';
 import { Session } from '../core/session';
-import { testUser } from '../core/session-testing';
+import { testProviders, testUser } from '../core/session-testing';
 import { SignIn } from './sign-in';
 
 describe('SignIn', () => {
@@ -17,12 +14,7 @@ describe('SignIn', () => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
       imports: [SignIn],
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
     httpTesting = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(SignIn);

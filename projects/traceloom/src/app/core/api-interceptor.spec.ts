@@ -1,13 +1,12 @@
-import { HttpClient, provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpClient } from '@angular/common/http';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { Router, provideRouter } from '@angular/router';
+import { Router } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { ApiError } from './api-error';
 import { apiInterceptor } from './api-interceptor';
 import { Session } from './session';
-import { signInAs } from './session-testing';
+import { signInAs, testProviders } from './session-testing';
 
 describe('apiInterceptor', () => {
   let http: HttpClient;
@@ -16,12 +15,7 @@ describe('apiInterceptor', () => {
   beforeEach(() => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
     http = TestBed.inject(HttpClient);
     httpTesting = TestBed.inject(HttpTestingController);
@@ -54,14 +48,12 @@ describe('apiInterceptor', () => {
 
   it('turns the contract error body into an ApiError with status, code, message and field', async () => {
     const outcome = get('/api/studies');
-    httpTesting
-      .expectOne('/api/studies')
-      .flush(
-        {
-          error: { code: 'invalid_body', message: 'title must not be empty', field: 'body.title' },
-        },
-        { status: 400, statusText: 'Bad Request' },
-      );
+    httpTesting.expectOne('/api/studies').flush(
+      {
+        error: { code: 'invalid_body', message: 'title must not be empty', field: 'body.title' },
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
     const error = await outcome;
     expect(error).toBeInstanceOf(ApiError);
     expect(error).toMatchObject({

@@ -1,6 +1,3 @@
-import { provideHttpClient } from '@angular/common/http';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import {
   ActivatedRouteSnapshot,
@@ -11,18 +8,13 @@ import {
 } from '@angular/router';
 import { Role } from '@traceloom/shared/api';
 import { roleGuard, signedInGuard } from './guards';
-import { signInAs } from './session-testing';
+import { signInAs, testProviders } from './session-testing';
 
 describe('route guards', () => {
   beforeEach(() => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([]),
-        provideHttpClient(),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
   });
 

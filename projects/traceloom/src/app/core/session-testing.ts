@@ -1,7 +1,26 @@
+import { provideHttpClient, withInterceptors } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { EnvironmentProviders, Provider, provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
-import { HttpTestingController } from '@angular/common/http/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { Routes, provideRouter } from '@angular/router';
 import { Role, UserDto } from '@traceloom/shared/api';
+import { apiInterceptor } from './api-interceptor';
 import { Session } from './session';
+
+/**
+ * The providers every client unit test starts from: zoneless change detection, no animations,
+ * the router with `routes`, HttpClient through our interceptor, and HttpTestingController.
+ */
+export function testProviders(routes: Routes = []): (Provider | EnvironmentProviders)[] {
+  return [
+    provideZonelessChangeDetection(),
+    { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+    provideRouter(routes),
+    provideHttpClient(withInterceptors([apiInterceptor])),
+    provideHttpClientTesting(),
+  ];
+}
 
 /** A user of the given role, for unit tests. */
 export function testUser(role: Role, overrides: Partial<UserDto> = {}): UserDto {

@@ -1,11 +1,7 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import { provideRouter } from '@angular/router';
-import { apiInterceptor } from './api-interceptor';
 import { Session } from './session';
-import { testUser } from './session-testing';
+import { testProviders, testUser } from './session-testing';
 
 describe('Session', () => {
   function setUp(
@@ -24,12 +20,7 @@ describe('Session', () => {
       );
     }
     TestBed.configureTestingModule({
-      providers: [
-        provideZonelessChangeDetection(),
-        provideRouter([{ path: 'sign-in', children: [] }]),
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders([{ path: 'sign-in', children: [] }]),
     });
     return { session: TestBed.inject(Session), httpTesting: TestBed.inject(HttpTestingController) };
   }

@@ -1,12 +1,7 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { provideRouter } from '@angular/router';
 import { Role, StudyDto } from '@traceloom/shared/api';
-import { apiInterceptor } from '../core/api-interceptor';
-import { signInAs } from '../core/session-testing';
+import { signInAs, testProviders } from '../core/session-testing';
 import { StudyList } from './study-list';
 
 const RING: StudyDto = {
@@ -28,13 +23,7 @@ describe('StudyList', () => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
       imports: [StudyList],
-      providers: [
-        provideZonelessChangeDetection(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
     httpTesting = TestBed.inject(HttpTestingController);
     signInAs(role);

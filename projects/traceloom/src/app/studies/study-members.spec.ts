@@ -1,10 +1,6 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { DirectoryEntryDto, StudyDto } from '@traceloom/shared/api';
-import { apiInterceptor } from '../core/api-interceptor';
 import { StudyMembers } from './study-members';
 
 const OWNER = { id: 'u-owner', displayName: 'Noor Halloran', email: 'noor@example.test' };
@@ -29,6 +25,7 @@ const STUDY: StudyDto = {
   createdAt: '2026-02-01T10:00:00.000Z',
   updatedAt: '2026-02-01T10:00:00.000Z',
 };
+import { testProviders } from '../core/session-testing';
 
 describe('StudyMembers', () => {
   let fixture: ComponentFixture<StudyMembers>;
@@ -39,12 +36,7 @@ describe('StudyMembers', () => {
   function render(canManage: boolean): void {
     TestBed.configureTestingModule({
       imports: [StudyMembers],
-      providers: [
-        provideZonelessChangeDetection(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
     httpTesting = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(StudyMembers);

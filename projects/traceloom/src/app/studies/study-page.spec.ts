@@ -1,12 +1,7 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { HttpTestingController } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { provideRouter } from '@angular/router';
 import { Role, StudyDto } from '@traceloom/shared/api';
-import { apiInterceptor } from '../core/api-interceptor';
-import { signInAs, testUser } from '../core/session-testing';
+import { signInAs, testProviders, testUser } from '../core/session-testing';
 import { StudyPage } from './study-page';
 
 const author = testUser('author');
@@ -32,13 +27,7 @@ describe('StudyPage', () => {
     sessionStorage.clear();
     TestBed.configureTestingModule({
       imports: [StudyPage],
-      providers: [
-        provideZonelessChangeDetection(),
-        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-        provideRouter([]),
-        provideHttpClient(withInterceptors([apiInterceptor])),
-        provideHttpClientTesting(),
-      ],
+      providers: testProviders(),
     });
     httpTesting = TestBed.inject(HttpTestingController);
     signInAs(role);
@@ -109,18 +98,16 @@ describe('StudyPage', () => {
     title.dispatchEvent(new Event('input'));
     await fixture.whenStable();
     one<HTMLButtonElement>('study-edit-save').click();
-    httpTesting
-      .expectOne('/api/studies/study-7')
-      .flush(
-        {
-          error: {
-            code: 'invalid_body',
-            message: 'A study with this title exists.',
-            field: 'body.title',
-          },
+    httpTesting.expectOne('/api/studies/study-7').flush(
+      {
+        error: {
+          code: 'invalid_body',
+          message: 'A study with this title exists.',
+          field: 'body.title',
         },
-        { status: 400, statusText: 'Bad Request' },
-      );
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
     await fixture.whenStable();
     const error = title.closest('mat-form-field')?.querySelector('mat-error');
     expect(error?.textContent).toContain('A study with this title exists.');
