@@ -1,6 +1,7 @@
 // `npm run bench`: times the engine's whole process on the benchmark tasks, beside PARI/GP when
 // `gp` is on PATH, alternating the two commands; prints medians, ratios and whether the numbers
-// agree. Options: --quick (2 runs instead of 5), --runs N, --no-build, and task names to filter.
+// agree. Options: --quick (2 runs instead of 5), --runs N, --no-build, --direct (also time the
+// CLI without npm in front), and task names to filter.
 import { spawnSync } from 'node:child_process';
 import {
   existsSync,
@@ -144,7 +145,7 @@ for (const task of tasks) {
   }
   const o = median(t.ours);
   const g = withGp ? median(t.gp) : null;
-  rows.push({ task, o, n: median(t.node), g, agree });
+  rows.push({ task, o, n: t.node.length ? median(t.node) : null, g, agree });
   console.log(
     `  ${task}: ours ${t.ours.map((x) => x.toFixed(2)).join(' ')}  gp ${t.gp.map((x) => x.toFixed(2)).join(' ')}`,
   );
@@ -152,7 +153,9 @@ for (const task of tasks) {
 rmSync(work, { recursive: true, force: true });
 
 const pad = (s, n) => String(s).padEnd(n);
-console.log(`\nmedian of ${runs}, whole process, output to a file (node = the CLI without npm)\n`);
+console.log(
+  `\nmedian of ${runs}, whole process, output to a file (node = the CLI without npm, with --direct)\n`,
+);
 console.log(
   `${pad('task', 12)}| ${pad('ours s', 8)}| ${pad('node s', 8)}| ${pad('gp s', 8)}| ${pad('ratio', 6)}| numbers`,
 );
@@ -162,7 +165,7 @@ console.log(
 for (const r of rows) {
   const ratio = r.g ? (r.o / r.g).toFixed(2) : '-';
   console.log(
-    `${pad(r.task, 12)}| ${pad(r.o.toFixed(2), 8)}| ${pad(r.n.toFixed(2), 8)}| ${pad(r.g ? r.g.toFixed(2) : '-', 8)}| ${pad(ratio, 6)}| ${r.agree}`,
+    `${pad(r.task, 12)}| ${pad(r.o.toFixed(2), 8)}| ${pad(r.n === null ? '-' : r.n.toFixed(2), 8)}| ${pad(r.g ? r.g.toFixed(2) : '-', 8)}| ${pad(ratio, 6)}| ${r.agree}`,
   );
 }
 if (!hasGp)
