@@ -64,7 +64,7 @@ export function residueRun(
       size,
       negate ? p - denInv : denInv,
     );
-    forwardTransform(a, plan);
+    forwardTransform(a, plan, 2 * length <= size);
     wHat.push(a);
   }
   const zHat: (Int32Array | null)[] = [new Int32Array(size).fill(1)];
@@ -108,7 +108,7 @@ export function residueRun(
     for (let i = 0; i < v; i++) row[i] = 0;
     out.set(row);
     out.fill(0, length);
-    forwardTransform(out, plan);
+    forwardTransform(out, plan, 2 * length <= size);
     zHat.push(out);
     const s = scaleMod(N);
     if (s !== 1) for (let i = v; i < length; i++) row[i] = mulMod(row[i]!, s, p);

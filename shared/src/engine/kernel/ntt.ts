@@ -48,11 +48,26 @@ export function transformPlan(prime: TransformPrime, size: number): TransformPla
   return { p, size, tw, twq, itw, itwq, invSize: invMod(size, p) };
 }
 
-/** In-place forward transform (natural order in, bit-reversed order out); residues in [0, p). */
-export function forwardTransform(a: Int32Array, plan: TransformPlan): void {
+/**
+ * In-place forward transform (natural order in, bit-reversed order out); residues in [0, p).
+ * `upperHalfZero` promises a[size/2..] = 0, which turns the first stage into one multiplication.
+ */
+export function forwardTransform(a: Int32Array, plan: TransformPlan, upperHalfZero = false): void {
   const { p, size, tw, twq } = plan;
+  let top = size >> 1;
+  if (upperHalfZero && top >= 1) {
+    for (let j = 0; j < top; j++) {
+      const u = a[j]!;
+      let r = (u * tw[top + j]! - p * Math.floor(u * twq[top + j]!)) | 0;
+      r += (r >> 31) & p;
+      r -= p;
+      r += (r >> 31) & p;
+      a[j + top] = r;
+    }
+    top >>= 1;
+  }
   // branch-free corrections: residues are below 2^24, so int32 sign tricks are exact
-  for (let h = size >> 1; h >= 1; h >>= 1) {
+  for (let h = top; h >= 1; h >>= 1) {
     for (let s = 0; s < size; s += 2 * h) {
       for (let j = 0; j < h; j++) {
         const i = s + j;
