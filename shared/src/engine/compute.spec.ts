@@ -242,3 +242,16 @@ describe('gas spec validation names the field', () => {
     expect(parseGasSpec(spec).nMax).toBe(spec.nMax);
   });
 });
+
+describe('spec field clashes', () => {
+  it('the variable of a spectrum may not be its lattice index p', () => {
+    expect(() =>
+      compute(
+        gas({
+          variable: 'p',
+          weights: { kind: 'spectrum', expression: 'p^abs(p)', from: '1', to: '2' },
+        }),
+      ),
+    ).toThrow(expect.objectContaining({ field: 'variable' }));
+  });
+});

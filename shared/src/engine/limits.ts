@@ -14,3 +14,7 @@ export const STALL_TERMS = 2000;
 export const MAX_POWER = 100000;
 /** Most lattice points an unbounded spectrum may use. */
 export const MAX_SPECTRUM_POINTS = 200000;
+/** Most stored coefficients of one exact (untruncated) series. */
+export const MAX_TERMS_PER_SERIES = 4 * MAX_ORDER;
+/** Largest size in bits of an exact number raised to a power. */
+export const MAX_NUMBER_BITS = 4_000_000;

@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
 import type { MathNode } from 'mathjs';
 import { EngineError } from '../errors.js';
+import { MAX_TERMS } from '../limits.js';
 import { factorialBig, frac } from '../rational.js';
 import { Series } from '../series/series.js';
 import type { EvalContext } from './evaluate.js';
@@ -144,6 +145,8 @@ function theta(
 /** Generalised binomial coefficient x(x-1)...(x-k+1)/k! for rational x and integer k >= 0. */
 function binom(x: Fraction, k: number): Fraction {
   if (k < 0) return frac(0);
+  if (k > MAX_TERMS)
+    throw new EngineError(`binom: the second argument must be at most ${MAX_TERMS}`);
   let r = frac(1);
   for (let i = 0; i < k; i++) r = r.mul(x.sub(i)).div(i + 1);
   return r;

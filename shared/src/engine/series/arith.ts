@@ -1,6 +1,6 @@
 import Fraction from 'fraction.js';
 import { EngineError } from '../errors.js';
-import { MAX_POWER } from '../limits.js';
+import { MAX_NUMBER_BITS, MAX_POWER, MAX_TERMS_PER_SERIES } from '../limits.js';
 import { frac, numer } from '../rational.js';
 import { mulTrunc } from './multiply.js';
 import { align, gridIndex, Series, truncate } from './series.js';
@@ -100,6 +100,9 @@ export function mul(a: Series, b: Series, cap: Fraction | null = null): Series {
   if (a.num.length === 0 || b.num.length === 0) return Series.of(a.step, 0, [], 1n, order);
   const n = order === null ? a.num.length + b.num.length - 1 : order - start;
   if (n <= 0) return Series.of(a.step, 0, [], 1n, order);
+  if (n > MAX_TERMS_PER_SERIES) {
+    throw new EngineError('exact result has too many terms: give the gas a finite order');
+  }
   return Series.of(a.step, start, mulTrunc(a.num, b.num, n), a.den * b.den, order);
 }
 
@@ -184,8 +187,13 @@ export function powInt(a: Series, n: number, cap: Fraction | null = null): Serie
     return powInt(inverse(a, invCap), -n, cap);
   }
   if (a.num.length === 1 && a.order === null) {
+    const bits = a.num[0]!.toString(16).length + a.den.toString(16).length;
+    if (bits * 4 * n > MAX_NUMBER_BITS) throw new EngineError('number too large');
     const c = a.num[0]! ** BigInt(n);
     return truncate(Series.of(a.step, a.start * n, [c], a.den ** BigInt(n), null), cap);
+  }
+  if (cap === null && a.order === null && (a.num.length - 1) * n + 1 > MAX_TERMS_PER_SERIES) {
+    throw new EngineError('exact result has too many terms: give the gas a finite order');
   }
   let result: Series | null = null;
   let base = a;

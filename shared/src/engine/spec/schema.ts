@@ -105,6 +105,13 @@ export const gasSpecSchema = z
         ctx.addIssue({ code: 'custom', path: ['order'], message: 'must be positive' });
       }
     }
+    if (spec.weights.kind === 'spectrum' && spec.variable === 'p') {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['variable'],
+        message: 'p is the lattice index of a spectrum',
+      });
+    }
     if (spec.classTable > spec.nMax) {
       ctx.addIssue({ code: 'custom', path: ['classTable'], message: 'must not exceed nMax' });
     }
