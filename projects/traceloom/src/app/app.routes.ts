@@ -9,6 +9,11 @@ export const routes: Routes = [
     loadComponent: () => import('./auth/sign-in').then((m) => m.SignIn),
   },
   {
+    path: 'public/:hash',
+    title: 'Dataset · Traceloom',
+    loadComponent: () => import('./public/public-dataset').then((m) => m.PublicDatasetPage),
+  },
+  {
     path: '',
     canActivate: [signedInGuard],
     loadComponent: () => import('./shell/shell').then((m) => m.Shell),
@@ -38,6 +43,33 @@ export const routes: Routes = [
         path: 'runs/:runId',
         title: 'Run · Traceloom',
         loadComponent: () => import('./runs/run-page').then((m) => m.RunPage),
+      },
+      {
+        path: 'datasets',
+        title: 'Datasets · Traceloom',
+        loadComponent: () => import('./datasets/dataset-list').then((m) => m.DatasetList),
+      },
+      {
+        path: 'datasets/:datasetId',
+        title: 'Dataset · Traceloom',
+        loadComponent: () => import('./datasets/dataset-page').then((m) => m.DatasetPage),
+      },
+      {
+        path: 'reviews',
+        title: 'Review requests · Traceloom',
+        loadComponent: () => import('./review/review-inbox').then((m) => m.ReviewInbox),
+      },
+      {
+        path: 'audit',
+        title: 'Audit log · Traceloom',
+        canActivate: [roleGuard('steward', 'admin')],
+        loadComponent: () => import('./audit/audit-log').then((m) => m.AuditLog),
+      },
+      {
+        path: 'admin/mailbox',
+        title: 'Mailbox · Traceloom',
+        canActivate: [roleGuard('admin')],
+        loadComponent: () => import('./mailbox/mailbox').then((m) => m.Mailbox),
       },
       {
         path: 'help',

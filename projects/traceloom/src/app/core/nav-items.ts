@@ -18,7 +18,23 @@ const EVERYONE: readonly Role[] = ['author', 'reviewer', 'steward', 'admin'];
  */
 export const NAV_ITEMS: readonly NavItem[] = [
   { id: 'studies', label: 'Studies', icon: 'folder_open', route: '/studies', roles: EVERYONE },
+  { id: 'datasets', label: 'Datasets', icon: 'inventory_2', route: '/datasets', roles: EVERYONE },
+  {
+    id: 'reviews',
+    label: 'Review requests',
+    icon: 'rate_review',
+    route: '/reviews',
+    roles: ['reviewer', 'steward'],
+  },
+  {
+    id: 'audit',
+    label: 'Audit log',
+    icon: 'history',
+    route: '/audit',
+    roles: ['steward', 'admin'],
+  },
   { id: 'users', label: 'Users', icon: 'group', route: '/admin/users', roles: ['admin'] },
+  { id: 'mailbox', label: 'Mailbox', icon: 'mail', route: '/admin/mailbox', roles: ['admin'] },
   { id: 'help', label: 'Guide', icon: 'menu_book', route: '/help', roles: EVERYONE },
 ];
 

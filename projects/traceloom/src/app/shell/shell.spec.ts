@@ -29,10 +29,10 @@ describe('Shell', () => {
   }
 
   it.each<[Role, string[]]>([
-    ['author', ['nav-studies', 'nav-help']],
-    ['reviewer', ['nav-studies', 'nav-help']],
-    ['steward', ['nav-studies', 'nav-help']],
-    ['admin', ['nav-studies', 'nav-users', 'nav-help']],
+    ['author', ['nav-studies', 'nav-datasets', 'nav-help']],
+    ['reviewer', ['nav-studies', 'nav-datasets', 'nav-reviews', 'nav-help']],
+    ['steward', ['nav-studies', 'nav-datasets', 'nav-reviews', 'nav-audit', 'nav-help']],
+    ['admin', ['nav-studies', 'nav-datasets', 'nav-audit', 'nav-users', 'nav-mailbox', 'nav-help']],
   ])('shows %s only the navigation that role may use', async (role, expected) => {
     const el = await render(role);
     expect(navIds(el)).toEqual(expected);

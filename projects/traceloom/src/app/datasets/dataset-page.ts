@@ -1,0 +1,192 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { DatasetCheckDto, DatasetDto, StudyDto } from '@traceloom/shared/api';
+import type { Observable } from 'rxjs';
+import { ApiError, messageOf } from '../core/api-error';
+import { downloadText, fileStem } from '../exports/export-files';
+import { valueText } from '../runs/value-format';
+import { DatasetReviewPanel } from './dataset-review-panel';
+import { DatasetsApi, ExportFormat, STATE_ICONS, STATE_LABELS, VerifyAnswer } from './datasets-api';
+
+const EXPORT_TYPES: Record<ExportFormat, [ext: string, type: string]> = {
+  json: ['json', 'application/json'],
+  csv: ['csv', 'text/csv'],
+  latex: ['tex', 'application/x-latex'],
+};
+
+/**
+ * One dataset: state and snapshot, checks with waivers, review requests, reviews and row
+ * comments, and the steward's lock; once locked, the citation, exports and verify.
+ */
+@Component({
+  selector: 'tl-dataset-page',
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    RouterLink,
+    DatasetReviewPanel,
+  ],
+  templateUrl: './dataset-page.html',
+  styleUrl: './dataset-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class DatasetPage {
+  private readonly api = inject(DatasetsApi);
+  private readonly snack = inject(MatSnackBar);
+  private readonly router = inject(Router);
+
+  /** Route `datasets/:datasetId`. */
+  readonly datasetId = input.required<string>();
+
+  protected readonly dataset = signal<DatasetDto | null>(null);
+  protected readonly study = signal<StudyDto | null>(null);
+  protected readonly loading = signal(true);
+  protected readonly error = signal<string | null>(null);
+  protected readonly busy = signal(false);
+  protected readonly verifyAnswer = signal<VerifyAnswer | null>(null);
+  protected readonly waiverReasons = signal<Partial<Record<string, string>>>({});
+  protected readonly labels = STATE_LABELS;
+  protected readonly icons = STATE_ICONS;
+  protected readonly valueText = valueText;
+  protected readonly redCount = computed(
+    () => this.dataset()?.checks.filter((c) => c.status === 'red').length ?? 0,
+  );
+  protected readonly publicPath = computed(() => {
+    const hash = this.dataset()?.hash;
+    return hash ? `/public/${hash}` : null;
+  });
+
+  constructor() {
+    effect(() => this.load(this.datasetId()));
+  }
+
+  protected load(id: string): void {
+    this.loading.set(true);
+    this.error.set(null);
+    this.api.get(id).subscribe({
+      next: (d) => {
+        this.loading.set(false);
+        this.dataset.set(d);
+        if (this.study()?.id !== d.studyId) {
+          this.api.study(d.studyId).subscribe({ next: (s) => this.study.set(s), error: () => {} });
+        }
+      },
+      error: (err: unknown) => {
+        this.loading.set(false);
+        this.error.set(
+          err instanceof ApiError && err.status === 404
+            ? 'This dataset does not exist, or you are not a member of its study.'
+            : messageOf(err),
+        );
+      },
+    });
+  }
+
+  /** Runs a write; on success shows the answer (or reloads), on failure a snackbar. */
+  protected act(call: Observable<unknown>, done: string, after?: (value: unknown) => void): void {
+    this.busy.set(true);
+    call.subscribe({
+      next: (value) => {
+        this.busy.set(false);
+        this.snack.open(done, 'Close', { duration: 4000 });
+        if (value && typeof value === 'object' && 'checks' in value)
+          this.dataset.set(value as DatasetDto);
+        else this.load(this.datasetId());
+        after?.(value);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.snack.open(messageOf(err), 'Close', { duration: 8000 });
+      },
+    });
+  }
+
+  protected updated(d: DatasetDto): void {
+    this.dataset.set(d);
+  }
+
+  protected lock(d: DatasetDto): void {
+    this.act(this.api.lock(d.id), 'Locked. The dataset can no longer change.');
+  }
+
+  protected withdraw(d: DatasetDto): void {
+    this.act(this.api.withdraw(d.id), 'Withdrawn.');
+  }
+
+  protected remove(d: DatasetDto): void {
+    this.act(
+      this.api.remove(d.id),
+      'Draft deleted.',
+      () => void this.router.navigate(['/datasets']),
+    );
+  }
+
+  protected verify(d: DatasetDto): void {
+    this.busy.set(true);
+    this.verifyAnswer.set(null);
+    this.api.verify(d.id).subscribe({
+      next: (answer) => {
+        this.busy.set(false);
+        this.verifyAnswer.set(answer);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.snack.open(messageOf(err), 'Close', { duration: 8000 });
+      },
+    });
+  }
+
+  protected download(d: DatasetDto, format: ExportFormat): void {
+    const [ext, type] = EXPORT_TYPES[format];
+    this.api.exportText(d.id, format).subscribe({
+      next: (text) => downloadText(text, `${fileStem(d.title)}-v${d.version}.${ext}`, type),
+      error: (err: unknown) => this.snack.open(messageOf(err), 'Close', { duration: 8000 }),
+    });
+  }
+
+  protected copyCitation(text: string): void {
+    void navigator.clipboard?.writeText(text).then(
+      () => this.snack.open('Citation copied.', 'Close', { duration: 3000 }),
+      () =>
+        this.snack.open('Copy failed: select the text and copy it.', 'Close', { duration: 5000 }),
+    );
+  }
+
+  protected checkKey(c: DatasetCheckDto): string {
+    return `${c.check}|${c.N ?? ''}`;
+  }
+
+  protected setReason(c: DatasetCheckDto, reason: string): void {
+    this.waiverReasons.update((all) => ({ ...all, [this.checkKey(c)]: reason }));
+  }
+
+  protected waive(d: DatasetDto, c: DatasetCheckDto): void {
+    const reason = (this.waiverReasons()[this.checkKey(c)] ?? '').trim();
+    if (!reason) {
+      this.snack.open('Write the reason for the waiver first.', 'Close', { duration: 5000 });
+      return;
+    }
+    this.act(this.api.waive(d.id, c.check, c.N, reason), 'Check waived with your reason.');
+  }
+}

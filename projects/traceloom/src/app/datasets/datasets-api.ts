@@ -1,0 +1,195 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import { Observable } from 'rxjs';
+import type {
+  AuditEventDto,
+  StudyDto,
+  DatasetDto,
+  DatasetSummaryDto,
+  ReviewInboxEntryDto,
+} from '@traceloom/shared/api';
+
+/** Export formats of a dataset. */
+export type ExportFormat = 'json' | 'csv' | 'latex';
+
+/** What verify answers. */
+export interface VerifyAnswer {
+  ok: boolean;
+  mismatches: string[];
+  hashOk: boolean | null;
+  durationMs: number;
+}
+
+/** A message the local mail fake received. */
+export interface MailboxMessage {
+  id: number;
+  receivedAt: string;
+  envelope: { from: string; to: string[] };
+  from: string;
+  to: string;
+  subject: string;
+  text: string;
+}
+
+/** The public answer for a locked dataset. */
+export interface PublicDataset {
+  hash: string;
+  citation: string;
+  supersededBy: { id: string; version: number } | null;
+  document: {
+    title: string;
+    description: string;
+    version: number;
+    lockedAt: string;
+    lockedBy: { displayName: string };
+    createdBy: { displayName: string };
+    study: { title: string };
+    snapshot: {
+      spec: { variable: string; statistics: string; order?: string | null };
+      result: {
+        canonical: Array<{ N: number; value: { order: string | null; terms: [string, string][] } }>;
+      };
+    };
+    checks: DatasetDto['checks'];
+    reviews: Array<{
+      reviewer: { displayName: string };
+      verdict: string;
+      comment: string;
+      at: string;
+    }>;
+  };
+}
+
+const enc = encodeURIComponent;
+
+/** The dataset, review, audit and mailbox endpoints. */
+@Injectable({ providedIn: 'root' })
+export class DatasetsApi {
+  private readonly http = inject(HttpClient);
+
+  /** A draft dataset from a finished run. */
+  create(
+    runId: string,
+    body: { title: string; description?: string; supersedesId?: string },
+  ): Observable<DatasetDto> {
+    return this.http.post<DatasetDto>(`/api/runs/${enc(runId)}/datasets`, body);
+  }
+
+  /** Datasets the caller may see (of one study when given). */
+  list(studyId?: string): Observable<DatasetSummaryDto[]> {
+    return this.http.get<DatasetSummaryDto[]>('/api/datasets', {
+      params: studyId ? { studyId } : {},
+    });
+  }
+
+  /** One dataset with checks, reviews and comments. */
+  get(id: string): Observable<DatasetDto> {
+    return this.http.get<DatasetDto>(`/api/datasets/${enc(id)}`);
+  }
+
+  /** Title and description of a draft. */
+  update(id: string, body: { title?: string; description?: string }): Observable<DatasetDto> {
+    return this.http.patch<DatasetDto>(`/api/datasets/${enc(id)}`, body);
+  }
+
+  /** Deletes a draft. */
+  remove(id: string): Observable<void> {
+    return this.http.delete<void>(`/api/datasets/${enc(id)}`);
+  }
+
+  /** Asks reviewers to review. */
+  requestReview(id: string, reviewerIds: string[]): Observable<DatasetDto> {
+    return this.http.post<DatasetDto>(`/api/datasets/${enc(id)}/review-requests`, { reviewerIds });
+  }
+
+  /** A comment on the dataset, or on row N. */
+  comment(id: string, body: string, N?: number): Observable<DatasetDto> {
+    return this.http.post<DatasetDto>(
+      `/api/datasets/${enc(id)}/comments`,
+      N === undefined ? { body } : { body, N },
+    );
+  }
+
+  /** A reviewer's verdict. */
+  review(id: string, verdict: 'approve' | 'changes', comment: string): Observable<DatasetDto> {
+    return this.http.post<DatasetDto>(`/api/datasets/${enc(id)}/reviews`, { verdict, comment });
+  }
+
+  /** A steward's written waiver of a red check row. */
+  waive(id: string, check: string, N: number | null, reason: string): Observable<DatasetDto> {
+    const body = N === null ? { check, reason } : { check, N, reason };
+    return this.http.post<DatasetDto>(`/api/datasets/${enc(id)}/waivers`, body);
+  }
+
+  /** Locks (steward); answers the hash. */
+  lock(id: string): Observable<{ hash: string }> {
+    return this.http.post<{ hash: string }>(`/api/datasets/${enc(id)}/lock`, {});
+  }
+
+  /** Withdraws (steward). */
+  withdraw(id: string): Observable<{ state: string }> {
+    return this.http.post<{ state: string }>(`/api/datasets/${enc(id)}/withdraw`, {});
+  }
+
+  /** Recomputes the stored spec and compares. */
+  verify(id: string): Observable<VerifyAnswer> {
+    return this.http.post<VerifyAnswer>(`/api/datasets/${enc(id)}/verify`, {});
+  }
+
+  /** The export file's text. */
+  exportText(id: string, format: ExportFormat): Observable<string> {
+    return this.http.get(`/api/datasets/${enc(id)}/export`, {
+      params: { format },
+      responseType: 'text',
+    });
+  }
+
+  /** The caller's review requests. */
+  inbox(): Observable<ReviewInboxEntryDto[]> {
+    return this.http.get<ReviewInboxEntryDto[]>('/api/review-requests');
+  }
+
+  /** Audit events (steward, admin). */
+  audit(query: {
+    targetType?: string;
+    targetId?: string;
+    limit?: number;
+  }): Observable<AuditEventDto[]> {
+    const params: Record<string, string> = {};
+    if (query.targetType) params['targetType'] = query.targetType;
+    if (query.targetId) params['targetId'] = query.targetId;
+    if (query.limit) params['limit'] = String(query.limit);
+    return this.http.get<AuditEventDto[]>('/api/audit', { params });
+  }
+
+  /** The local mail fake's messages (admin). */
+  mailbox(): Observable<MailboxMessage[]> {
+    return this.http.get<MailboxMessage[]>('/api/dev/mailbox');
+  }
+
+  /** The study a dataset belongs to (for choosing reviewers among its members). */
+  study(id: string): Observable<StudyDto> {
+    return this.http.get<StudyDto>(`/api/studies/${enc(id)}`);
+  }
+
+  /** A locked dataset by its hash, without sign-in. */
+  publicDataset(hash: string): Observable<PublicDataset> {
+    return this.http.get<PublicDataset>(`/api/public/datasets/${enc(hash)}`);
+  }
+}
+
+/** How each state is named on screen. */
+export const STATE_LABELS: Record<DatasetSummaryDto['state'], string> = {
+  draft: 'Draft',
+  in_review: 'In review',
+  locked: 'Locked',
+  withdrawn: 'Withdrawn',
+};
+
+/** Icons of the states (decoration beside the label). */
+export const STATE_ICONS: Record<DatasetSummaryDto['state'], string> = {
+  draft: 'edit_note',
+  in_review: 'rate_review',
+  locked: 'lock',
+  withdrawn: 'block',
+};

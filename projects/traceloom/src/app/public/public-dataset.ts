@@ -1,0 +1,60 @@
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { ApiError, messageOf } from '../core/api-error';
+import { DatasetsApi, PublicDataset } from '../datasets/datasets-api';
+import { valueText } from '../runs/value-format';
+import { LogoMark } from '../shell/logo-mark';
+
+/**
+ * The public, read-only page of a locked dataset (`/public/:hash`, no sign-in): what it is, its
+ * canonical table, checks and reviews, the citation line and the hashed JSON to check it with.
+ */
+@Component({
+  selector: 'tl-public-dataset',
+  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, LogoMark],
+  templateUrl: './public-dataset.html',
+  styleUrl: './public-dataset.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class PublicDatasetPage {
+  private readonly api = inject(DatasetsApi);
+
+  /** Route `public/:hash`. */
+  readonly hash = input.required<string>();
+
+  protected readonly data = signal<PublicDataset | null>(null);
+  protected readonly error = signal<string | null>(null);
+  protected readonly copied = signal(false);
+  protected readonly valueText = valueText;
+
+  constructor() {
+    effect(() => {
+      const hash = this.hash();
+      this.data.set(null);
+      this.error.set(null);
+      this.api.publicDataset(hash).subscribe({
+        next: (d) => this.data.set(d),
+        error: (err: unknown) =>
+          this.error.set(
+            err instanceof ApiError && err.status === 404
+              ? 'No locked dataset has this hash. Check that the address was copied whole.'
+              : messageOf(err),
+          ),
+      });
+    });
+  }
+
+  protected jsonPath(hash: string): string {
+    return `/api/public/datasets/${hash}/export?format=json`;
+  }
+
+  protected copy(text: string): void {
+    void navigator.clipboard?.writeText(text).then(
+      () => this.copied.set(true),
+      () => {},
+    );
+  }
+}
