@@ -18,6 +18,13 @@ function verdictDetail(v: VerdictLike): string {
     : 'does not agree';
 }
 
+/** Human names of the routes to Z(N). */
+const ROUTE_NAMES: Record<string, string> = {
+  recursion: 'Newton recursion',
+  classSum: 'class sum',
+  product: 'product form',
+};
+
 type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean };
 
 /**
@@ -32,7 +39,7 @@ function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
     if (c.routes.length < 2) continue;
     rows.push({
       check: 'routes',
-      label: `Z(N) by ${c.routes.join(', ')}`,
+      label: `Z(N) by ${c.routes.map((r) => ROUTE_NAMES[r] ?? r).join(', ')}`,
       N: c.N,
       agrees: c.agrees,
       detail: c.agrees ? 'the routes agree term by term' : 'the routes disagree',

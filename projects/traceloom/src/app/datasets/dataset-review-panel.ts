@@ -51,7 +51,8 @@ export class DatasetReviewPanel {
   protected readonly verdict = signal<'approve' | 'changes'>('approve');
   protected readonly verdictComment = signal('');
   protected readonly commentBody = signal('');
-  protected readonly commentRow = signal<number | null>(null);
+  /** Row N commented on; -1 for the whole dataset. */
+  protected readonly commentRow = signal(-1);
 
   /** Study members who may review: reviewers and stewards, not the author, not yet asked. */
   protected readonly candidates = computed(() => {
@@ -111,11 +112,15 @@ export class DatasetReviewPanel {
     const body = this.commentBody().trim();
     if (!body) return;
     this.send(
-      this.api.comment(this.dataset().id, body, this.commentRow() ?? undefined),
+      this.api.comment(
+        this.dataset().id,
+        body,
+        this.commentRow() < 0 ? undefined : this.commentRow(),
+      ),
       'Comment added.',
       () => {
         this.commentBody.set('');
-        this.commentRow.set(null);
+        this.commentRow.set(-1);
       },
     );
   }

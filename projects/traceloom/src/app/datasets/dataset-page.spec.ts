@@ -1,0 +1,153 @@
+import { HttpTestingController } from '@angular/common/http/testing';
+import { ComponentFixture, TestBed } from '@angular/core/testing';
+import type { DatasetDto, Role } from '@traceloom/shared/api';
+import { signInAs, testProviders } from '../core/session-testing';
+import { DatasetPage } from './dataset-page';
+
+const ID = '7a000000-0000-4000-8000-000000000001';
+const STUDY = '7a000000-0000-4000-8000-0000000000aa';
+
+function dataset(over: Partial<DatasetDto> = {}): DatasetDto {
+  return {
+    id: ID,
+    studyId: STUDY,
+    runId: '7a000000-0000-4000-8000-0000000000bb',
+    title: 'Ring kernel, low N',
+    version: 1,
+    state: 'in_review',
+    hash: null,
+    lockedAt: null,
+    supersedes: null,
+    supersededBy: null,
+    createdBy: { id: 'a1', displayName: 'Ines Okafor' },
+    createdAt: '2026-03-01T10:00:00.000Z',
+    updatedAt: '2026-03-01T10:00:00.000Z',
+    description: '',
+    snapshot: {
+      gas: { id: 'g1', title: 'ring kernel', version: 2 },
+      run: { id: 'r1', finishedAt: null, durationMs: 12 },
+      statistics: 'fermion',
+      variable: 'q',
+      order: '6',
+      nMax: 1,
+      canonical: [
+        { N: 0, value: { order: null, terms: [['0', '1']] } },
+        {
+          N: 1,
+          value: {
+            order: '6',
+            terms: [
+              ['1', '2'],
+              ['2', '-1/2'],
+            ],
+          },
+        },
+      ],
+    },
+    checks: [
+      {
+        check: 'reference',
+        label: 'reference',
+        N: 1,
+        status: 'red',
+        detail: 'differs at exponent 2',
+        waiver: null,
+      },
+    ],
+    reviewRequests: [],
+    reviews: [],
+    comments: [],
+    citation: null,
+    can: {
+      edit: false,
+      requestReview: false,
+      review: false,
+      waive: true,
+      lock: false,
+      withdraw: true,
+    },
+    lockBlockers: ['1 check row(s) are red and not waived'],
+    ...over,
+  };
+}
+
+describe('DatasetPage', () => {
+  let fixture: ComponentFixture<DatasetPage>;
+  let http: HttpTestingController;
+  let el: HTMLElement;
+
+  async function render(role: Role, d: DatasetDto): Promise<void> {
+    sessionStorage.clear();
+    TestBed.configureTestingModule({ imports: [DatasetPage], providers: testProviders() });
+    http = TestBed.inject(HttpTestingController);
+    signInAs(role);
+    fixture = TestBed.createComponent(DatasetPage);
+    fixture.componentRef.setInput('datasetId', ID);
+    el = fixture.nativeElement;
+    TestBed.tick();
+    http.expectOne(`/api/datasets/${ID}`).flush(d);
+    await fixture.whenStable();
+    http
+      .match(`/api/studies/${STUDY}`)
+      .forEach((r) => r.flush({ id: STUDY, members: [], owner: { id: 'a1' } }));
+    await fixture.whenStable();
+  }
+
+  const testId = (id: string) => el.querySelector(`[data-testid="${id}"]`);
+
+  it('shows the state, the Z(N) rows as text and why it cannot be locked yet', async () => {
+    await render('steward', dataset());
+    expect(testId('dataset-state')?.textContent).toContain('In review');
+    expect(testId('dataset-canonical')?.textContent).toContain('2*q - 1/2*q^2 + O(q^6)');
+    expect(testId('dataset-lock-blockers')?.textContent).toContain('red and not waived');
+    expect((testId('dataset-lock') as HTMLButtonElement).disabled).toBe(true);
+    expect(testId('dataset-citation')).toBeNull();
+    expect(testId('dataset-export-json')).toBeNull();
+  });
+
+  it('sends a waiver with the written reason, and refuses one without', async () => {
+    await render('steward', dataset());
+    (testId('waiver-submit') as HTMLButtonElement).click();
+    http.expectNone(`/api/datasets/${ID}/waivers`);
+    const input = testId('waiver-reason') as HTMLInputElement;
+    input.value = 'Misprint in the preprint.';
+    input.dispatchEvent(new Event('input'));
+    (testId('waiver-submit') as HTMLButtonElement).click();
+    const req = http.expectOne(`/api/datasets/${ID}/waivers`);
+    expect(req.request.body).toEqual({
+      check: 'reference',
+      N: 1,
+      reason: 'Misprint in the preprint.',
+    });
+    req.flush(dataset({ checks: [{ ...dataset().checks[0]!, status: 'waived' }] }));
+    await fixture.whenStable();
+    expect(el.querySelector('tr.is-waived')).not.toBeNull();
+  });
+
+  it('shows the citation and the hashed JSON export once locked', async () => {
+    const hash = 'ab'.repeat(32);
+    await render(
+      'reviewer',
+      dataset({
+        state: 'locked',
+        hash,
+        lockedAt: '2026-03-02T09:00:00.000Z',
+        citation: `Ring kernel, low N, version 1, Traceloom dataset locked 2026-03-02, SHA-256 ${hash}.`,
+        checks: [],
+        lockBlockers: [],
+        can: {
+          edit: false,
+          requestReview: false,
+          review: false,
+          waive: false,
+          lock: false,
+          withdraw: false,
+        },
+      }),
+    );
+    expect(testId('dataset-citation')?.textContent).toContain(hash);
+    expect(testId('dataset-export-json')).not.toBeNull();
+    expect(testId('dataset-public-link')?.getAttribute('href')).toBe(`/public/${hash}`);
+    expect(testId('dataset-lock')).toBeNull();
+  });
+});
