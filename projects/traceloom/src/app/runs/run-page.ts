@@ -16,6 +16,7 @@ import { RouterLink } from '@angular/router';
 import { RunChecks } from '../checks/run-checks';
 import { ApiError, messageOf } from '../core/api-error';
 import { Session } from '../core/session';
+import { CreateDataset } from '../datasets/create-dataset';
 import { canWriteGases } from '../gases/gas-roles';
 import { CanonicalTable } from './canonical-table';
 import { ClassTable } from './class-table';
@@ -39,6 +40,7 @@ import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
     RunChecks,
     RunPlots,
     RunProgressPanel,
+    CreateDataset,
   ],
   templateUrl: './run-page.html',
   styleUrl: './run-page.scss',
