@@ -67,7 +67,7 @@ async function signIn(page: Page, email: string): Promise<void> {
 
 describe('datasets in the browser', () => {
   it('review, lock and the public page with a checkable hash', async () => {
-    // Set-up through the API: a finished run of the trap in the demo study, and a draft of it.
+    // Set-up through the API: a finished run of the trap in the demo study.
     const author = await tokenOf('author@demo.test');
     const [study] = (await call(author, 'GET', '/studies')).json;
     const gas = await call(author, 'POST', `/studies/${study.id}/gases`, { spec: TRAP });
@@ -79,20 +79,20 @@ describe('datasets in the browser', () => {
         timeout: 30_000,
       })
       .toBe('done');
-    const draft = await call(author, 'POST', `/runs/${run.json.id}/datasets`, {
-      title: 'Trap table for the group',
-    });
-    expect(draft.status).toBe(201);
-    const datasetId = draft.json.id as string;
-
-    // The author asks the demo reviewer.
+    // The author makes the dataset from the run page, then asks the demo reviewer.
     const a = await browser.newPage();
     await signIn(a.page, 'author@demo.test');
-    await a.page.goto(`/datasets/${datasetId}`);
+    await a.page.goto(`/runs/${run.json.id}`);
+    await a.page.getByTestId('dataset-create-open').click();
+    await a.page.getByTestId('dataset-create-title').fill('Trap table for the group');
+    await browser.screenshot(a.page, 'datasets-run-page-create');
+    await a.page.getByTestId('dataset-create-submit').click();
     await a.page
       .getByTestId('dataset-heading')
       .filter({ hasText: 'Trap table for the group' })
       .waitFor();
+    const datasetId = /\/datasets\/([0-9a-f-]{36})/.exec(a.page.url())?.[1];
+    expect(datasetId).toBeDefined();
     await a.page.getByTestId('review-request-select').click();
     await a.page
       .getByRole('option', { name: /reviewer/i })
