@@ -123,13 +123,10 @@ for (const task of tasks) {
   for (let i = 0; i < runs; i++) {
     t.ours.push(timed('npm', ['run', '-s', 'cli', '--', 'compute', spec], outFile));
     if (withGp) t.gp.push(timed('gp', ['-q', '-s', '2000000000', gpFile], gpOut, '/dev/null'));
-    t.node.push(
-      timed(
-        process.execPath,
-        [path.join(root, 'dist/server/cli/main.js'), 'compute', spec],
-        outFile,
-      ),
-    );
+    if (flag('--direct')) {
+      const cli = path.join(root, 'dist/server/cli/main.js');
+      t.node.push(timed(process.execPath, [cli, 'compute', spec], outFile));
+    }
   }
   let agree = 'no gp';
   if (withGp) {
