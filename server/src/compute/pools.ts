@@ -43,7 +43,7 @@ export function createWorkerPools(limits: RunLimits): WorkerPools {
   const quick = new Piscina({
     ...base,
     minThreads: 1,
-    maxThreads: 1,
+    maxThreads: 2,
     idleTimeout: 60_000,
     resourceLimits: { maxOldGenerationSizeMb: 256 },
   });

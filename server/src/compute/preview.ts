@@ -3,6 +3,7 @@ import Fraction from 'fraction.js';
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
 import type { WorkerRefusal } from '../runs/worker.js';
+import { runWithin, specRefusal } from './refusal.js';
 import { computeServices } from './services.js';
 
 /** The preview's caps, tighter than a run's. */
@@ -45,24 +46,18 @@ export async function previewCompute(ctx: AppContext, spec: GasSpec): Promise<Co
   assertPreviewSize(spec);
   const { pools } = computeServices(ctx);
   const limitMs = ctx.config.runs.previewMs;
-  const signal = AbortSignal.timeout(limitMs);
-  let output: { ok: true; result: ComputeResult } | WorkerRefusal;
-  try {
-    output = (await pools.quick.run({ kind: 'preview', spec }, { signal })) as typeof output;
-  } catch (err) {
-    if (signal.aborted) {
-      throw new AppError(
+  const output = (await runWithin(
+    pools.quick,
+    { kind: 'preview', spec },
+    limitMs,
+    () =>
+      new AppError(
         422,
         'too_heavy',
-        `This spec takes longer than the preview's ${limitMs / 1000} s; start a run instead.`,
+        `spec: this takes longer than the preview's ${limitMs / 1000} s; start a run instead.`,
         'spec',
-      );
-    }
-    throw err;
-  }
-  if (!output.ok) {
-    const field = output.field ? `spec.${output.field}` : 'spec';
-    throw new AppError(400, 'invalid_spec', `${field}: ${output.message}.`, field);
-  }
+      ),
+  )) as { ok: true; result: ComputeResult } | WorkerRefusal;
+  if (!output.ok) throw specRefusal(output);
   return output.result;
 }

@@ -1,4 +1,4 @@
-import { EngineError, parseExpression, parseGasSpec, type GasSpec } from '@traceloom/shared/engine';
+import { EngineError, parseGasSpec, type GasSpec } from '@traceloom/shared/engine';
 import { z } from 'zod';
 import { AppError } from '../http/app-error.js';
 import { parseInput } from '../http/validate.js';
@@ -8,6 +8,43 @@ export const MAX_LIST_ENTRIES = 1000;
 
 /** Body of `POST /studies/:id/gases`, `PUT /gases/:id` and `POST /compute`. */
 export const gasBodySchema = z.strictObject({ spec: z.unknown() });
+
+function refuse(message: string, field: string): never {
+  throw new AppError(400, 'invalid_spec', `${field}: ${message}.`, field);
+}
+
+/** Keys refused anywhere in a spec: they could reach an object's prototype. */
+const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
+
+/** Refuses prototype keys at any depth, naming their path. */
+function assertPlainKeys(value: unknown, path: string, depth = 0): void {
+  if (!value || typeof value !== 'object') return;
+  if (depth > 20) refuse('is nested too deeply', path);
+  for (const key of Object.keys(value)) {
+    const at = `${path}.${key}`;
+    if (FORBIDDEN_KEYS.has(key)) refuse(`"${key}" is not allowed as a key`, at);
+    assertPlainKeys((value as Record<string, unknown>)[key], at, depth + 1);
+  }
+}
+
+const RATIONAL = /^\s*-?\d+(\s*\/\s*\d+)?\s*$/;
+
+/**
+ * `step` and `order` must be rationals with a non-zero denominator before the shared schema sees
+ * them: its cross-field check reads them as fractions even when their own pattern failed.
+ */
+function assertRationals(raw: unknown): void {
+  if (!raw || typeof raw !== 'object') return;
+  for (const key of ['step', 'order'] as const) {
+    const text = (raw as Record<string, unknown>)[key];
+    if (typeof text !== 'string') continue;
+    if (!RATIONAL.test(text)) refuse('must be a rational number such as "3" or "1/2"', `spec.${key}`);
+    if (/\/\s*0+\s*$/.test(text)) refuse('has a zero denominator', `spec.${key}`);
+  }
+}
+
+/** Deepest bracket nesting and most powers an expression may have (parsing cost grows with both). */
+export const EXPRESSION_SHAPE_LIMITS = { depth: 100, powers: 400 } as const;
 
 /** Every expression of a spec with the dotted field it sits in. */
 export function specExpressions(spec: GasSpec): Array<[field: string, text: string]> {
@@ -25,18 +62,31 @@ export function specExpressions(spec: GasSpec): Array<[field: string, text: stri
   return out;
 }
 
-function refuse(message: string, field: string): never {
-  throw new AppError(400, 'invalid_spec', `${field}: ${message}.`, field);
+/** A character scan (no parsing): refuses nesting deeper than 100 or more than 400 powers. */
+export function assertExpressionShape(text: string, field: string): void {
+  let depth = 0;
+  let deepest = 0;
+  let powers = 0;
+  for (const c of text) {
+    if (c === '(' || c === '[' || c === '{') deepest = Math.max(deepest, ++depth);
+    else if (c === ')' || c === ']' || c === '}') depth -= 1;
+    else if (c === '^') powers += 1;
+  }
+  const { depth: maxDepth, powers: maxPowers } = EXPRESSION_SHAPE_LIMITS;
+  if (deepest > maxDepth) refuse(`nests brackets ${deepest} deep; the limit is ${maxDepth}`, field);
+  if (powers > maxPowers) refuse(`has ${powers} powers (^); the limit is ${maxPowers}`, field);
 }
 
 /**
- * Validates a request body `{spec}` with the shared schema, then reads (parses, does not
- * evaluate) every expression in it, so a syntax error is refused at the boundary. 400
+ * Validates a request body `{spec}` with the shared schema (no prototype keys, list caps). 400
  * `invalid_spec` with `field` = `spec.<path>` naming the first problem and the limit it breaks.
+ * Expressions are read and evaluated in a worker (the preview, the probe, the run), never here.
  */
 export function parseGasBody(body: unknown): GasSpec {
   const { spec: raw } = parseInput(gasBodySchema, body);
   if (raw === undefined) refuse('is required', 'spec');
+  assertPlainKeys(raw, 'spec');
+  assertRationals(raw);
   let spec: GasSpec;
   try {
     spec = parseGasSpec(raw);
@@ -53,13 +103,9 @@ export function parseGasBody(body: unknown): GasSpec {
       refuse(`has ${list.length} entries; the limit is ${MAX_LIST_ENTRIES}`, field);
     }
   }
-  for (const [field, text] of specExpressions(spec)) {
-    try {
-      parseExpression(text, field);
-    } catch (e) {
-      if (e instanceof EngineError) refuse(e.message, `spec.${field}`);
-      throw e;
-    }
-  }
+  for (const [field, text] of specExpressions(spec)) assertExpressionShape(text, `spec.${field}`);
+  spec.reference?.rows.forEach((row, i) => {
+    if (row.N > spec.nMax) refuse(`is ${row.N}, beyond nMax = ${spec.nMax}`, `spec.reference.rows.${i}.N`);
+  });
   return spec;
 }

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { EngineError, MAX_EXPRESSION_LENGTH, parseExpression } from '@traceloom/shared/engine';
+import { MAX_EXPRESSION_LENGTH } from '@traceloom/shared/engine';
 import type { Request, Response } from 'express';
 import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
@@ -11,8 +11,10 @@ import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { canSee, loadVisibleStudy, STUDY_RELATIONS } from '../studies/study-access.js';
-import { parseReferenceFile, type RowError } from './reference-parse.js';
-import { receiveUpload } from './receive-upload.js';
+import type { ParsedReference, RowError } from './reference-parse.js';
+import { computeServices } from '../compute/services.js';
+import type { WorkerAppError } from '../runs/worker.js';
+import { receiveUpload, type Upload } from './receive-upload.js';
 
 /** A reference table in a list. */
 export interface ReferenceSummary {
@@ -72,6 +74,33 @@ function toDto(table: ReferenceTable): ReferenceDto {
   return { ...summary, rows: JSON.parse(table.rows) as ReferenceRow[] };
 }
 
+/** Longest the worker may take to read one upload. */
+const READ_LIMIT_MS = 10_000;
+
+/** Reads the upload in a worker (the main thread never evaluates user text). */
+async function parseInWorker(
+  ctx: AppContext,
+  file: Upload['file'],
+  normalization: string | undefined,
+): Promise<ParsedReference> {
+  const signal = AbortSignal.timeout(READ_LIMIT_MS);
+  let output: { ok: true; parsed: ParsedReference } | WorkerAppError;
+  try {
+    output = (await computeServices(ctx).pools.quick.run(
+      { kind: 'reference', ...file, ...(normalization === undefined ? {} : { normalization }) },
+      { signal },
+    )) as typeof output;
+  } catch (err) {
+    if (!signal.aborted) throw err;
+    throw new AppError(400, 'invalid_upload', `file: reading it took longer than ${READ_LIMIT_MS / 1000} s.`, 'file');
+  }
+  if (!output.ok) {
+    const { status, code, message, field } = output.appError;
+    throw new AppError(status, code, message, field);
+  }
+  return output.parsed;
+}
+
 function firstError(errors: RowError[]): never {
   const { line, message } = errors[0]!;
   const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
@@ -93,21 +122,13 @@ export async function uploadReference(
   await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
   const { file, fields } = await receiveUpload(req, res, ctx.config.uploadLimitBytes);
   const input = parseInput(uploadFieldsSchema, fields);
-  const parsed = parseReferenceFile(file.bytes, file.filename, file.contentType);
+  const parsed = await parseInWorker(ctx, file, input.normalization);
   if (req.query.dryRun === '1' || req.query.dryRun === 'true') {
     res.status(200);
     return { rows: parsed.rows, errors: parsed.errors };
   }
   if (parsed.errors.length) firstError(parsed.errors);
-  const normalization = input.normalization ?? parsed.normalization?.trim() ?? '1';
-  try {
-    parseExpression(normalization, 'normalization');
-  } catch (e) {
-    if (e instanceof EngineError) {
-      throw new AppError(400, 'invalid_input', `normalization: ${e.message}.`, 'normalization');
-    }
-    throw e;
-  }
+  const normalization = parsed.normalization ?? '1';
   const title = (input.title ?? parsed.title?.trim() ?? file.filename.replace(/\.[^.]*$/, '')).slice(0, 200) || 'reference table';
   return ctx.dataSource.transaction(async (manager) => {
     const repo = manager.getRepository(ReferenceTable);

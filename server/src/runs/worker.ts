@@ -1,19 +1,32 @@
 import { gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
-import { compute, EngineError, type Progress } from '@traceloom/shared/engine';
+import { compute, EngineError, parseExpression, type Progress } from '@traceloom/shared/engine';
 import { compareReferenceRows, type CompareTask } from '../comparisons/compare-rows.js';
+import { AppError } from '../http/app-error.js';
+import { parseReferenceFile } from '../references/reference-parse.js';
 
 /** A task for the worker pool. */
 export type WorkerTask =
   | { kind: 'run'; spec: unknown; port: MessagePort }
   | { kind: 'preview'; spec: unknown }
-  | ({ kind: 'compare' } & CompareTask);
+  | ({ kind: 'compare' } & CompareTask)
+  | { kind: 'reference'; bytes: Uint8Array; filename: string; contentType: string; normalization?: string };
 
-/** The engine refused the input: a message for a person and the field it names. */
+/** An API error raised in the worker, carried back as plain data. */
+export interface WorkerAppError {
+  ok: false;
+  appError: { status: number; code: string; message: string; field: string | undefined };
+}
+
+/**
+ * The engine refused the input: a message for a person and the field it names. `internal` marks
+ * an engine failure that is not a refusal (a bug met on this input), reported without its stack.
+ */
 export interface WorkerRefusal {
   ok: false;
   message: string;
   field: string | undefined;
+  internal?: boolean;
 }
 
 /** A finished run: the gzip of the result JSON and the class rows per N. */
@@ -25,7 +38,8 @@ export interface RunOutput {
 
 function refusal(e: unknown): WorkerRefusal {
   if (e instanceof EngineError) return { ok: false, message: e.message, field: e.field };
-  throw e;
+  const what = e instanceof Error ? `${e.name}: ${e.message}` : String(e);
+  return { ok: false, message: `the engine failed on this input (${what.slice(0, 200)})`, field: undefined, internal: true };
 }
 
 function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
@@ -49,7 +63,8 @@ function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
 /**
  * The pool's entry point; runs in a worker thread, never on the server's main thread. `run`
  * computes a gas spec with progress sent through `port`; `preview` answers the result itself;
- * `compare` gives reference-row verdicts for a finished run.
+ * `compare` gives reference-row verdicts for a finished run; `reference` reads an uploaded
+ * table (content checks, rows, expression syntax).
  */
 export default function work(task: WorkerTask): unknown {
   switch (task.kind) {
@@ -66,6 +81,23 @@ export default function work(task: WorkerTask): unknown {
         return { ok: true, rows: compareReferenceRows(task) };
       } catch (e) {
         return refusal(e);
+      }
+    case 'reference':
+      try {
+        const bytes = Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength);
+        const parsed = parseReferenceFile(bytes, task.filename, task.contentType);
+        parsed.normalization = (task.normalization ?? parsed.normalization ?? '1').trim() || '1';
+        try {
+          parseExpression(parsed.normalization);
+        } catch (e) {
+          if (!(e instanceof EngineError)) throw e;
+          throw new AppError(400, 'invalid_input', `normalization: ${e.message}.`, 'normalization');
+        }
+        return { ok: true, parsed };
+      } catch (e) {
+        if (!(e instanceof AppError)) throw e;
+        const { status, code, message, field } = e;
+        return { ok: false, appError: { status, code, message, field } } satisfies WorkerAppError;
       }
   }
 }
