@@ -3,6 +3,7 @@ import type { DataSource } from 'typeorm';
 import { hashPassword } from '../auth/password.js';
 import type { ScryptParams } from '../config.js';
 import { AuditEvent, Study, StudyMember, User } from './entities/index.js';
+import { seedDemoGases } from './seed-demo-gases.js';
 
 /** The shared demo password, printed at start in demo mode. */
 export const DEMO_PASSWORD = 'traceloom-demo';
@@ -53,8 +54,12 @@ export async function seedDemo(dataSource: DataSource, scrypt: ScryptParams): Pr
   }
   const author = byRole.get('author')!;
   const studies = dataSource.getRepository(Study);
-  if (await studies.existsBy({ title: DEMO_STUDY.title, owner: { id: author.id } })) return;
-  await dataSource.transaction(async (manager) => {
+  const existing = await studies.findOneBy({ title: DEMO_STUDY.title, owner: { id: author.id } });
+  if (existing) {
+    await seedDemoGases(dataSource, existing.id, author, byRole.get('reviewer')!);
+    return;
+  }
+  const studyId = await dataSource.transaction(async (manager) => {
     const now = new Date().toISOString();
     const study = await manager
       .getRepository(Study)
@@ -72,5 +77,7 @@ export async function seedDemo(dataSource: DataSource, scrypt: ScryptParams): Pr
       detail: JSON.stringify({ title: DEMO_STUDY.title, seeded: true }),
       createdAt: now,
     });
+    return study.id;
   });
+  await seedDemoGases(dataSource, studyId, author, byRole.get('reviewer')!);
 }
