@@ -152,18 +152,16 @@ describe('GasEditor', () => {
     await render();
     await fillHarmonicTrap();
     await vi.advanceTimersByTimeAsync(PREVIEW_DEBOUNCE_MS + 10);
-    http
-      .expectOne('/api/compute')
-      .flush(
-        {
-          error: {
-            code: 'invalid_spec',
-            message: 'unknown function sinq',
-            field: 'spec.weights.expression',
-          },
+    http.expectOne('/api/compute').flush(
+      {
+        error: {
+          code: 'invalid_spec',
+          message: 'unknown function sinq',
+          field: 'spec.weights.expression',
         },
-        { status: 400, statusText: 'Bad Request' },
-      );
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
     await settle();
     expect(errorUnder('gas-formula')).toBe('The formula unknown function sinq.');
     expect(el.querySelector('[data-testid="preview-error"]')?.textContent).toContain(

@@ -1,17 +1,6 @@
-import { CdkVirtualScrollViewport, ScrollingModule } from '@angular/cdk/scrolling';
+import { ScrollingModule } from '@angular/cdk/scrolling';
 import { ClipboardModule } from '@angular/cdk/clipboard';
-import {
-  AfterViewInit,
-  ChangeDetectionStrategy,
-  Component,
-  DestroyRef,
-  computed,
-  inject,
-  input,
-  signal,
-  viewChild,
-} from '@angular/core';
-import { toObservable } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
@@ -34,9 +23,9 @@ const ROW_PX = 52;
 const VISIBLE_ROWS = 12;
 
 /**
- * The canonical table, one row per N, in a Material table. Long tables scroll virtually: the
- * viewport decides which rows are rendered and the table shows only that slice. A row expands to
- * the full series, typeset and as copyable plain text.
+ * The canonical table, one row per N, in a Material table inside a CDK virtual-scroll viewport
+ * (the CDK table renders only the rows in view). A row expands to the full series, typeset and as
+ * copyable plain text.
  */
 @Component({
   selector: 'tl-canonical-table',
@@ -53,8 +42,7 @@ const VISIBLE_ROWS = 12;
   styleUrl: './canonical-table.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class CanonicalTable implements AfterViewInit {
-  private readonly destroyRef = inject(DestroyRef);
+export class CanonicalTable {
   private readonly snackBar = inject(MatSnackBar);
 
   readonly rows = input.required<readonly CanonicalRowJson[]>();
@@ -64,8 +52,6 @@ export class CanonicalTable implements AfterViewInit {
   readonly result = input<unknown>(null);
 
   protected readonly lines = computed(() => canonicalLines(this.rows(), this.variable()));
-  protected readonly visible = signal<CanonicalLine[]>([]);
-  protected readonly offset = signal(0);
   protected readonly expanded = signal<number | null>(null);
   protected readonly viewportHeight = computed(
     () => Math.min(this.lines().length, VISIBLE_ROWS) * ROW_PX + ROW_PX + 4,
@@ -77,23 +63,6 @@ export class CanonicalTable implements AfterViewInit {
   protected readonly agreementText = agreementText;
   protected readonly valueTex = valueTex;
   protected readonly trackN = (_: number, line: CanonicalLine) => line.N;
-
-  private readonly viewport = viewChild.required(CdkVirtualScrollViewport);
-  private readonly lines$ = toObservable(this.lines);
-
-  ngAfterViewInit(): void {
-    const viewport = this.viewport();
-    // The viewport needs a data source to size its scroll area; the table renders the slice.
-    viewport.attach({ dataStream: this.lines$, measureRangeSize: () => 0 });
-    const sub = viewport.renderedRangeStream.subscribe((range) => {
-      this.visible.set(this.lines().slice(range.start, range.end));
-      this.offset.set(range.start * ROW_PX);
-    });
-    this.destroyRef.onDestroy(() => {
-      sub.unsubscribe();
-      viewport.detach();
-    });
-  }
 
   protected toggle(line: CanonicalLine): void {
     this.expanded.set(this.expanded() === line.N ? null : line.N);

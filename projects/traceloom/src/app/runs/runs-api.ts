@@ -41,6 +41,8 @@ export interface RunDto extends RunSummary {
   studyId: string;
   spec: GasSpecInput;
   result: RunResult | null;
+  /** Cycle types per N of the class table (given when `?classes` is not asked for). */
+  classCounts?: Record<string, number>;
 }
 
 /** One server-sent event of a run: progress while it works, then the end. */

@@ -36,6 +36,14 @@ describe('StudyPage', () => {
     el = fixture.nativeElement;
     TestBed.tick();
     answer('/api/studies/study-7');
+    if (loads) {
+      // The study's gases and reference tables (tl-study-gases) load once the study is shown.
+      await vi.waitFor(() => {
+        TestBed.tick();
+        httpTesting.expectOne('/api/studies/study-7/gases').flush([]);
+      });
+      httpTesting.expectOne('/api/studies/study-7/references').flush([]);
+    }
     if (role === 'author' && loads) {
       // The owner's page also asks for the directory (member picker) once the study is shown;
       // whenStable() would wait for that request forever, so answer it first.
