@@ -182,6 +182,37 @@ describe('datasets in the browser', () => {
     await context.close();
   });
 
+  it('an invited person sets a first password from the mail and signs in', async () => {
+    const admin = await tokenOf('admin@demo.test');
+    const email = `invited-${Date.now()}@example.test`;
+    const invite = await call(admin, 'POST', '/users', {
+      email,
+      displayName: 'Aiko Brandt',
+      role: 'reviewer',
+    });
+    expect(invite.status).toBe(201);
+    const box = (await call(admin, 'GET', '/dev/mailbox')).json as Array<{
+      envelope: { to: string[] };
+      text: string;
+    }>;
+    const text = box.find((m) => m.envelope.to.includes(email))?.text ?? '';
+    const path = /\/welcome\/\S+/.exec(text)?.[0];
+    expect(path).toBeDefined();
+    const { page, context } = await browser.newPage();
+    await page.goto(path!);
+    await page.getByTestId('welcome-password').fill('a long first password');
+    await page.getByTestId('welcome-again').fill('a long first password');
+    await page.getByTestId('welcome-submit').click();
+    await page.getByTestId('welcome-done').waitFor();
+    await browser.screenshot(page, 'datasets-welcome');
+    await page.goto('/sign-in');
+    await page.getByTestId('sign-in-email').fill(email);
+    await page.getByTestId('sign-in-password').fill('a long first password');
+    await page.getByTestId('sign-in-submit').click();
+    await page.getByTestId('current-user').filter({ hasText: 'Aiko Brandt' }).waitFor();
+    await context.close();
+  });
+
   it('no request went to another host', () => {
     expect(browser.foreignRequests()).toEqual([]);
   });

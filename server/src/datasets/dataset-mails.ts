@@ -57,6 +57,6 @@ export function invitationMail(
 ): OutgoingMail {
   return {
     subject: 'You are invited to Traceloom',
-    text: `Hello ${name},\n\n${inviter} invited you to Traceloom, the team workbench for partition functions of one-dimensional gases, with the role ${role}.\nYour sign-in e-mail is this address: ${link}\n\n-- \nTraceloom\n`,
+    text: `Hello ${name},\n\n${inviter} invited you to Traceloom, the team workbench for partition functions of one-dimensional gases, with the role ${role}.\nChoose your password here (the link works once, for 7 days):\n${link}\nThen sign in with this e-mail address.\n\n-- \nTraceloom\n`,
   };
 }

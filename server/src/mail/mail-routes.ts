@@ -1,12 +1,24 @@
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
+import { invitationAcceptSchema } from '@traceloom/shared/api';
 import type { RouteSpec } from '../http/route-table.js';
+import { parseInput } from '../http/validate.js';
+import { acceptInvitation } from './invitation-keys.js';
 import { mailServices } from './mailer.js';
 
-/** `GET /dev/mailbox` (admin): what the local mail fake received, newest first. */
+/**
+ * `GET /dev/mailbox` (admin): what the local mail fake received, newest first; and
+ * `POST /invitations/accept` (no sign-in): the invitation mail's key sets a first password.
+ */
 export function mailRoutes(ctx: AppContext): RouteSpec[] {
   const services = mailServices(ctx);
   return [
+    {
+      method: 'post',
+      path: '/invitations/accept',
+      access: 'public',
+      handler: ({ body }) => acceptInvitation(ctx, parseInput(invitationAcceptSchema, body)),
+    },
     {
       method: 'get',
       path: '/dev/mailbox',

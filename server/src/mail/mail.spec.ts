@@ -22,7 +22,11 @@ describe('parseMessage', () => {
       'Content-Transfer-Encoding: quoted-printable\r\n\r\nZ(2) =3D q + =\r\nq^2\r\n';
     const m = parseMessage(raw);
     expect(m.subject).toBe('Grüße aus Graz');
-    expect(m.headers.map(([name]) => name)).toEqual(['from', 'subject', 'content-transfer-encoding']);
+    expect(m.headers.map(([name]) => name)).toEqual([
+      'from',
+      'subject',
+      'content-transfer-encoding',
+    ]);
     expect(m.text).toBe('Z(2) = q + q^2\n');
   });
 

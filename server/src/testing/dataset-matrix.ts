@@ -10,6 +10,7 @@ import {
   RED_SPEC,
 } from './dataset-fixtures.js';
 import { TRAP_SPEC } from './gas-fixtures.js';
+import { invitationKey } from './invitation-fixtures.js';
 import type { MatrixCall } from './matrix-fixtures.js';
 import { insertStudy, insertUser, tokenFor, type TestApp } from './test-app.js';
 
@@ -42,6 +43,7 @@ export function datasetAccess(
     'GET /public/datasets/:hash/export': 'public',
     'GET /audit': ['steward', 'admin'],
     'GET /dev/mailbox': ['admin'],
+    'POST /invitations/accept': 'public',
   };
 }
 
@@ -168,5 +170,13 @@ export function datasetMatrix(
     }),
     'GET /audit': async () => ({ path: '/audit?targetType=dataset&limit=50', status: 200 }),
     'GET /dev/mailbox': async () => ({ path: '/dev/mailbox', status: 200 }),
+    'POST /invitations/accept': async () => {
+      const email = `welcome-${Date.now()}-${Math.random().toString(36).slice(2)}@example.test`;
+      return {
+        path: '/invitations/accept',
+        body: { key: await invitationKey(app(), admin(), email), password: 'a good long password' },
+        status: 204,
+      };
+    },
   };
 }

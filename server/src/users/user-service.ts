@@ -13,6 +13,7 @@ import { Invitation, User } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { invitationMail } from '../datasets/dataset-mails.js';
+import { invitationKey } from '../mail/invitation-keys.js';
 import { mailServices, mailUsers } from '../mail/mailer.js';
 import { toDirectoryEntry, toUserDto } from './user-dto.js';
 
@@ -83,7 +84,7 @@ export async function inviteUser(
     .catch((err: unknown) => {
       throw isUniqueViolation(err) ? emailTaken() : err;
     });
-  const link = `${mailServices(ctx).baseUrl}/sign-in`;
+  const link = `${mailServices(ctx).baseUrl}/welcome/${invitationKey(ctx, answer.invitation.id)}`;
   await mailUsers(
     ctx,
     [answer.user.id],

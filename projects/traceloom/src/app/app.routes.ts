@@ -14,6 +14,11 @@ export const routes: Routes = [
     loadComponent: () => import('./public/public-dataset').then((m) => m.PublicDatasetPage),
   },
   {
+    path: 'welcome/:key',
+    title: 'Welcome · Traceloom',
+    loadComponent: () => import('./public/welcome').then((m) => m.Welcome),
+  },
+  {
     path: '',
     canActivate: [signedInGuard],
     loadComponent: () => import('./shell/shell').then((m) => m.Shell),
