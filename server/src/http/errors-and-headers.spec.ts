@@ -177,7 +177,7 @@ describe('headers', () => {
   it('serves health without a token', async () => {
     const res = await request(t.app).get('/api/health');
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ status: 'ok', version: '0.1.0', database: 'ok' });
+    expect(res.body).toEqual({ status: 'ok', version: '0.1.0', database: 'ok', mode: 'test' });
   });
 });
 

@@ -16,7 +16,12 @@ export function healthRoutes(ctx: AppContext): RouteSpec[] {
           () => 'error' as const,
         );
         if (database !== 'ok') res.status(503);
-        return { status: database === 'ok' ? 'ok' : 'degraded', version: VERSION, database };
+        return {
+          status: database === 'ok' ? 'ok' : 'degraded',
+          version: VERSION,
+          database,
+          mode: ctx.config.mode,
+        };
       },
     },
   ];

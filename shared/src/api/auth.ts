@@ -27,6 +27,8 @@ export interface HealthDto {
   status: 'ok' | 'degraded';
   version: string;
   database: 'ok' | 'error';
+  /** `demo` when the demo accounts are seeded (the sign-in page then shows them). */
+  mode: 'demo' | 'production' | 'test';
 }
 
 /** The body of every failed API request. */
