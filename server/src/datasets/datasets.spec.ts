@@ -4,6 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
 import {
+  warmWorkers,
   api,
   approve,
   draftOf,
@@ -35,6 +36,7 @@ beforeAll(async () => {
   steward = await insertUser(t, 'steward', { displayName: 'Mei Lindqvist' });
   admin = await insertUser(t, 'admin');
   studyId = await insertStudy(t, author, [reviewer, steward]);
+  await warmWorkers(t, author);
 });
 afterAll(() => t.close());
 

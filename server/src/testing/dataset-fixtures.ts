@@ -107,3 +107,26 @@ export async function lockedDataset(
   const { hash } = await api(t, people.steward, 'post', `/datasets/${id}/lock`, undefined, 200);
   return { id, hash, runId };
 }
+
+/**
+ * Waits until the app's quick worker answers a small compute (at most `timeoutMs`). Gas creation
+ * tries the spec within a 1 s budget, which a cold worker under tsx on a loaded machine can
+ * miss; tests of later features warm it first so they test their own feature.
+ */
+export async function warmWorkers(
+  t: TestApp,
+  user: Pick<User, 'id'>,
+  timeoutMs = 60_000,
+): Promise<void> {
+  const token = await tokenFor(t, user);
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const res = await request(t.app)
+      .post('/api/compute')
+      .set('Authorization', bearer(token))
+      .send({ spec: TRAP_SPEC });
+    if (res.status === 200) return;
+    if (Date.now() > until) throw new Error(`the compute preview still answers ${res.status}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
