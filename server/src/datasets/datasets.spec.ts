@@ -256,6 +256,20 @@ describe('a locked dataset', () => {
     await db.query(`UPDATE "dataset" SET "title" = 'renamed' WHERE "id" = ?`, [draft]);
   });
 
+  it('keeps its study: deleting the study is refused with 409, not a server error', async () => {
+    for (const who of [author, admin]) {
+      const res = await request(t.app)
+        .delete(`/api/studies/${studyId}`)
+        .set('Authorization', bearer(await tokenFor(t, who)));
+      expect(res.status).toBe(409);
+      expect(res.body.error.code).toBe('study_has_locked_datasets');
+    }
+    const [row] = await t.dataSource.query(`SELECT COUNT(*) AS n FROM "study" WHERE "id" = ?`, [
+      studyId,
+    ]);
+    expect(row.n).toBe(1);
+  });
+
   it('answers 409 dataset_locked to every write, for every role, admin included', async () => {
     const users: Record<Role, User> = { author, reviewer, steward, admin };
     const writes = (t.app.locals.routeTable as Array<{ method: string; path: string }>).filter(

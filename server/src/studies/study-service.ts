@@ -7,7 +7,7 @@ import type {
 import { In, type EntityManager } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
-import { Study, StudyMember, User } from '../db/entities/index.js';
+import { Dataset, Study, StudyMember, User } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import {
@@ -91,6 +91,17 @@ export async function deleteStudy(ctx: AppContext, actor: Actor, studyId: string
   await ctx.dataSource.transaction(async (manager) => {
     const study = await loadVisibleStudy(manager, actor, studyId);
     assertCanManage(actor, study);
+    // Locked datasets are permanent (database triggers refuse their deletion), so their study stays.
+    const locked = await manager
+      .getRepository(Dataset)
+      .count({ where: { study: { id: studyId }, state: 'locked' } });
+    if (locked > 0) {
+      throw new AppError(
+        409,
+        'study_has_locked_datasets',
+        `This study holds ${locked} locked dataset${locked === 1 ? '' : 's'}; locked datasets are permanent, so the study cannot be deleted.`,
+      );
+    }
     await manager.getRepository(Study).delete({ id: studyId });
     await recordAudit(manager, {
       actorId: actor.id,
