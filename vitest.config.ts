@@ -8,6 +8,9 @@ const alias = [
   { find: /^@traceloom\/shared\/(api|engine)$/, replacement: `${sharedSrc}$1/index.ts` },
 ];
 
+/** Server specs whose figures are wall-clock measurements. */
+const TIMING_SPECS = ['server/src/runs/runs.spec.ts'];
+
 /**
  * Node-side test projects. The Angular client's unit tests run through `ng test`
  * (the @angular/build unit-test builder), not from here.
@@ -25,8 +28,22 @@ export default defineConfig({
           name: 'server',
           environment: 'node',
           include: ['server/src/**/*.spec.ts'],
+          exclude: TIMING_SPECS,
           testTimeout: 30_000,
           hookTimeout: 60_000,
+        },
+      },
+      {
+        // Tests that measure latency and kill times run alone, after the rest of the server suite,
+        // so that parallel test files do not eat the margins they measure.
+        resolve: { alias },
+        test: {
+          name: 'server-timing',
+          environment: 'node',
+          include: TIMING_SPECS,
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+          fileParallelism: false,
         },
       },
       {

@@ -29,6 +29,7 @@ ensureChromium();
 times.build = timed(() => buildAll());
 times.engine = timed(() => run('npx', ['vitest', 'run', '--project', 'shared']));
 times.server = timed(() => run('npx', ['vitest', 'run', '--project', 'server']));
+times.timing = timed(() => run('npx', ['vitest', 'run', '--project', 'server-timing']));
 times.client = timed(() =>
   run('npx', ['ng', 'test', 'traceloom', '--watch=false'], {
     env: { ...process.env, NG_CLI_ANALYTICS: 'false', CI: '1' },
