@@ -189,6 +189,10 @@ describe('gas spec validation names the field', () => {
     [{ weights: { kind: 'values', values: ['1', 'q +', '1', '1'] } }, 'weights.values.1'],
     [{ reference: { rows: [{ N: 9, value: '1' }] } }, 'reference.rows.0.N'],
     [{ grand: { kind: 'expression', expression: 'log(kappa)' } }, 'grand.expression'],
+    [{ step: '~x' }, 'step'],
+    [{ step: '1/0' }, 'step'],
+    [{ order: '1/0' }, 'order'],
+    [{ order: '~x' }, 'order'],
   ])('%j -> %s', (over, field) => {
     try {
       compute(gas({ weights: { kind: 'formula', expression: 'q^L' }, ...over }));

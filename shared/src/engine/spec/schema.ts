@@ -8,11 +8,17 @@ const expression = z
   .min(1, { error: 'must not be empty' })
   .max(MAX_EXPRESSION_LENGTH, { error: `is longer than ${MAX_EXPRESSION_LENGTH} characters` });
 
+const RATIONAL_TEXT = /^\s*-?\d+(\s*\/\s*\d+)?\s*$/;
 const rationalText = z
   .string({ error: 'must be a rational number written as a string, e.g. "1/2"' })
-  .regex(/^\s*-?\d+(\s*\/\s*\d+)?\s*$/, {
-    error: 'must be a rational number such as "3" or "1/2"',
-  });
+  .regex(RATIONAL_TEXT, { error: 'must be a rational number such as "3" or "1/2"' })
+  .refine((v) => !/\/\s*0+\s*$/.test(v), { error: 'must not divide by zero' });
+
+/** The rational a text field holds, or null when the text is not one (its own issue says why). */
+function rationalOrNull(text: string): Fraction | null {
+  if (!RATIONAL_TEXT.test(text) || /\/\s*0+\s*$/.test(text)) return null;
+  return new Fraction(text.replace(/\s+/g, ''));
+}
 
 const bound = z.union([rationalText, z.null()], { error: 'must be a rational string or null' });
 
@@ -88,11 +94,12 @@ export const gasSpecSchema = z
     reference: referenceSchema.optional(),
   })
   .superRefine((spec, ctx) => {
-    const step = new Fraction(spec.step);
-    if (step.compare(0) <= 0)
+    const step = rationalOrNull(spec.step);
+    const order = spec.order === null ? null : rationalOrNull(spec.order);
+    if (step !== null && step.compare(0) <= 0)
       ctx.addIssue({ code: 'custom', path: ['step'], message: 'must be positive' });
-    if (spec.order !== null && step.compare(0) > 0) {
-      const idx = new Fraction(spec.order).div(step);
+    if (step !== null && order !== null && step.compare(0) > 0) {
+      const idx = order.div(step);
       if (idx.d !== 1n)
         ctx.addIssue({ code: 'custom', path: ['order'], message: 'must be a multiple of step' });
       else if (idx.compare(MAX_ORDER) > 0) {
