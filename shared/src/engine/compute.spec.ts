@@ -259,3 +259,25 @@ describe('spec field clashes', () => {
     ).toThrow(expect.objectContaining({ field: 'variable' }));
   });
 });
+
+describe('weights known only below zero', () => {
+  // Precision rule of PRODUCT.md: with Z_1 = q^-2 + O(q^-1), Z(2) = (Z_1^2 - Z_2)/2 is known
+  // only to O(q^-3) and Z(1) = Z_1 to O(q^-1); nothing beyond is reported (common practice).
+  it('keeps the honest order instead of failing', () => {
+    const r = compute(
+      gas({
+        nMax: 2,
+        classTable: 2,
+        weights: { kind: 'values', values: ['q^(-2) + O(q^(-1))', '1'] },
+      }),
+    );
+    expect(r.canonical[1]!.value).toEqual({ order: '-1', terms: [['-2', '1']] });
+    expect(r.canonical[2]!.value).toEqual({ order: '-3', terms: [['-4', '1/2']] });
+  });
+
+  it('reports nothing determined for a weight that is all truncation', () => {
+    const r = compute(gas({ nMax: 2, weights: { kind: 'values', values: ['O(q^(-5))', '1'] } }));
+    expect(r.canonical[1]!.value).toEqual({ order: '-5', terms: [] });
+    expect(r.canonical[2]!.value.terms).toEqual([]);
+  });
+});

@@ -43,7 +43,7 @@ function pack(weights: readonly Series[], nMax: number, cap: Fraction | null): P
     length = Math.min(known, capIdx);
     order = length;
   }
-  if (!Number.isFinite(length) || length > 4 * MAX_ORDER) return null;
+  if (!Number.isFinite(length) || length <= 0 || length > 4 * MAX_ORDER) return null;
   const nums = ws.map((w) => {
     const f = den / w.den;
     const out = new Array<bigint>(Math.min(length, w.start + w.num.length)).fill(0n);
