@@ -11,10 +11,9 @@ import {
   describeError,
   EngineError,
   parseGasSpec,
-  type ClassRowJson,
   type ComputeResult,
 } from '@traceloom/shared';
-import { classRowText, renderCsv, renderLatex, renderTable } from './render.js';
+import { renderCsv, renderLatex, renderTable } from './render.js';
 
 const USAGE = 'usage: traceloom compute SPEC.json|- [--format json|table|csv|latex]';
 
@@ -67,12 +66,13 @@ function streamJson(input: unknown): void {
     opened = true;
   };
   let first = true;
-  const onClass = (row: ClassRowJson): void => {
+  const onClassText = (text: string): void => {
     if (!opened) open();
-    out.write((first ? '\n' : ',\n') + classRowText(row));
+    out.write(first ? '\n' : ',\n');
+    out.write(text);
     first = false;
   };
-  const result: ComputeResult = compute(input, { onClass, collectClasses: false });
+  const result: ComputeResult = compute(input, { onClassText, collectClasses: false });
   if (!opened) open();
   const { format: _f, spec: _s, classes: _c, ...rest } = result;
   out.write(

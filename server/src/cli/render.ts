@@ -1,3 +1,4 @@
+import { classRowJsonText } from '@traceloom/shared';
 import type { ClassRowJson, ComputeResult, ValueJson } from '@traceloom/shared';
 
 /** Text of a result value in the expression language, e.g. `1 + 2*q^(1/2) + O(q^5)`. */
@@ -152,14 +153,5 @@ export function renderLatex(r: ComputeResult): string {
   return out.join('\n') + '\n';
 }
 
-/**
- * JSON text of a class row, written by hand for speed (a class table of S_40 and below has
- * 215,307 rows). Every string in a row is a number or a rational, so nothing needs escaping.
- */
-export function classRowText(r: ClassRowJson): string {
-  const ct = r.cycleType.map(([L, m]) => `[${L},${m}]`).join(',');
-  const v = r.contribution;
-  const terms = v.terms.map(([e, c]) => `["${e}","${c}"]`).join(',');
-  const order = v.order === null ? 'null' : `"${v.order}"`;
-  return `{"N":${r.N},"cycleType":[${ct}],"size":"${r.size}","sign":${r.sign},"contribution":{"order":${order},"terms":[${terms}]}}`;
-}
+/** JSON text of a class row (the engine's direct writer; 215,307 rows for S_1..S_40). */
+export const classRowText: (r: ClassRowJson) => string = classRowJsonText;

@@ -1,4 +1,5 @@
 import Fraction from 'fraction.js';
+import { classRowJsonText } from './canonical/class-text.js';
 import { classSum } from './canonical/classes.js';
 import { spectrumProduct } from './canonical/product.js';
 import { newtonRecursion } from './canonical/recursion.js';
@@ -140,7 +141,9 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   }
   const t4 = now();
 
-  const keep = opts.collectClasses ?? !opts.onClass;
+  const keep = opts.collectClasses ?? !(opts.onClass || opts.onClassText);
+  const onText = opts.onClassText;
+  const lean = onText && !keep && !opts.onClass ? onText : undefined;
   if (spec.classTable > 0) {
     progress.phase('classes', spec.classTable);
     let all = true;
@@ -154,9 +157,10 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
           contribution: toValueJson(row.contribution),
         };
         opts.onClass?.(json);
+        onText?.(classRowJsonText(json));
         if (keep) result.classes.push(json);
       };
-      const sum: Series = classSum(N, w.weights, fermion, cap, emit, progress.tick);
+      const sum: Series = classSum(N, w.weights, fermion, cap, emit, progress.tick, lean);
       routes[N]!.push('classSum');
       const ok = compareSeries(Z[N]!, sum).agrees;
       agrees[N] = agrees[N]! && ok;

@@ -37,5 +37,6 @@ export { cycleWeights } from './weights.js';
 export { newtonRecursion } from './canonical/recursion.js';
 export { classSum } from './canonical/classes.js';
 export type { ClassRow } from './canonical/classes.js';
+export { classRowJsonText } from './canonical/class-text.js';
 export { spectrumProduct } from './canonical/product.js';
 export type { RowVerdict, WeightVerdict } from './checks/grand.js';

@@ -64,6 +64,11 @@ export interface ComputeOptions {
   shouldStop?: () => boolean;
   /** Receives each class-table row as it is produced (streaming). */
   onClass?: (row: ClassRowJson) => void;
-  /** Keep class rows in `result.classes` (default: true unless onClass is given). */
+  /**
+   * Receives each class-table row as its JSON text (parses to what onClass would get); with exact
+   * weights and neither onClass nor collectClasses, the rows are written straight from integers.
+   */
+  onClassText?: (text: string) => void;
+  /** Keep class rows in `result.classes` (default: true unless onClass or onClassText is given). */
   collectClasses?: boolean;
 }

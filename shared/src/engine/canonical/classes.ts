@@ -1,5 +1,6 @@
 import Fraction from 'fraction.js';
 import { classSumRational, exponentNotation, foldCycleTypes } from '../kernel/index.js';
+import { exactClassRowText } from './class-text.js';
 import { frac, numer } from '../rational.js';
 import { add, mul, scale } from '../series/arith.js';
 import { Series } from '../series/series.js';
@@ -27,7 +28,8 @@ function factorial(n: number): bigint {
  * Class sum Z(N) = sum_lambda eps_lambda prod_L Z_L^(m_L) / z_lambda for one N, streaming each
  * cycle type to `onRow` (rows are not kept). Exact rational weights take the kernel's integer
  * route; series weights carry the partial product along the walk (one multiplication per step,
- * cut at `cap`).
+ * cut at `cap`). With exact weights, `onExactText` (when given, it replaces `onRow`) receives each
+ * row as its result-format JSON text, written straight from the integers.
  */
 export function classSum(
   N: number,
@@ -36,6 +38,7 @@ export function classSum(
   cap: Fraction | null,
   onRow?: (row: ClassRow) => void,
   tick?: () => void,
+  onExactText?: (text: string) => void,
 ): Series {
   const w = weights.slice(0, N);
   let count = 0;
@@ -57,6 +60,13 @@ export function classSum(
             sign: fermion ? r.visit.sign : 1,
             contribution: Series.reducedConstant(r.contribution.num, r.contribution.den),
           });
+          counted();
+        },
+      }),
+      ...(onExactText && {
+        onRow: (r) => {
+          const c = r.contribution;
+          onExactText(exactClassRowText(r.visit, fermion ? r.visit.sign : 1, c.num, c.den));
           counted();
         },
       }),

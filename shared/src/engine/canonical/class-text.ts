@@ -1,0 +1,36 @@
+/**
+ * JSON text of class-table rows, written directly (a class table of S_1..S_40 has 215,307 rows).
+ * Every string in a row is a number or a rational, so nothing needs escaping. The text parses to
+ * the same ClassRowJson that compute's `onClass` receives.
+ */
+import type { CycleTypeVisit } from '../kernel/index.js';
+import type { ClassRowJson } from '../result.js';
+
+/** JSON text of one class row in the result format. */
+export function classRowJsonText(r: ClassRowJson): string {
+  const ct = r.cycleType.map(([L, m]) => `[${L},${m}]`).join(',');
+  const v = r.contribution;
+  const terms = v.terms.map(([e, c]) => `["${e}","${c}"]`).join(',');
+  const order = v.order === null ? 'null' : `"${v.order}"`;
+  return `{"N":${r.N},"cycleType":[${ct}],"size":"${r.size}","sign":${r.sign},"contribution":{"order":${order},"terms":[${terms}]}}`;
+}
+
+/**
+ * The same text for an exact rational contribution num/den (reduced, den > 0) straight from a
+ * walk's visit, without building the row object.
+ */
+export function exactClassRowText(
+  visit: CycleTypeVisit,
+  sign: 1 | -1,
+  num: bigint,
+  den: bigint,
+): string {
+  let ct = '';
+  const m = visit.m;
+  for (let L = 1; L <= visit.n; L++) {
+    const k = m[L]!;
+    if (k > 0) ct += ct === '' ? `[${L},${k}]` : `,[${L},${k}]`;
+  }
+  const terms = num === 0n ? '' : den === 1n ? `["0","${num}"]` : `["0","${num}/${den}"]`;
+  return `{"N":${visit.n},"cycleType":[${ct}],"size":"${visit.size}","sign":${sign},"contribution":{"order":null,"terms":[${terms}]}}`;
+}
