@@ -5,7 +5,8 @@ import { evaluateAt, EvalContext, makeContext, Truncation } from './expr/evaluat
 import { parseExpression } from './expr/sandbox.js';
 import { MAX_SPECTRUM_POINTS, STALL_TERMS } from './limits.js';
 import { frac } from './rational.js';
-import { add, mul, scale } from './series/arith.js';
+import { mul, scale } from './series/arith.js';
+import { sumSeries } from './series/sum.js';
 import { coarsen, cutAt, Series } from './series/series.js';
 import type { GasSpec } from './spec/schema.js';
 
@@ -72,8 +73,9 @@ export function cycleWeights(spec: GasSpec, ring: GasRing): CycleWeights {
     return { weights, truncations };
   }
   const { points, truncated } = latticeValues(spec, node, ring, truncations);
-  const zero = Series.constant(frac(0));
-  for (let L = 1; L <= ring.nMax; L++) weights.push(zero);
+  // the terms m c^L of each Z_L, summed in one pass at the end
+  const terms: Series[][] = [];
+  for (let L = 1; L <= ring.nMax; L++) terms.push([]);
   for (const [c, m] of withMultiplicity(points)) {
     const v = c.valExponent();
     const grows = v !== null && v.compare(0) > 0;
@@ -81,11 +83,12 @@ export function cycleWeights(spec: GasSpec, ring: GasRing): CycleWeights {
     for (let L = 1; L <= ring.nMax; L++) {
       const pv = pw.valExponent();
       if (grows && ring.cap !== null && (pv === null || pv.compare(ring.cap) >= 0)) break;
-      weights[L - 1] = add(weights[L - 1]!, m === 1 ? pw : scale(pw, frac(m)));
+      terms[L - 1]!.push(m === 1 ? pw : scale(pw, frac(m)));
       if (L < ring.nMax) pw = mul(pw, c, ring.cap);
     }
     ring.tick?.();
   }
+  for (const list of terms) weights.push(sumSeries(list));
   if (truncated) {
     for (let L = 0; L < weights.length; L++) weights[L] = cutAt(weights[L]!, ring.cap!);
   }

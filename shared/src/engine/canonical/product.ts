@@ -23,8 +23,8 @@ export function spectrumProduct(
   return X;
 }
 
-/** The product in series arithmetic (any exponents, exact or truncated). */
-function productBySeries(
+/** The product in series arithmetic (any exponents, exact or truncated); exported for tests. */
+export function productBySeries(
   points: readonly Series[],
   nMax: number,
   fermion: boolean,
@@ -52,7 +52,7 @@ function productBySeries(
 /**
  * The same product on integer arrays over one grid, accumulated in place: Y_j = D^j X_j with D
  * the common denominator of the c_p. Each c_p Y_(j-1) starts at the valuation of Y_(j-1), so the
- * work shrinks as the valuations grow. Null when some c_p has negative exponents.
+ * work shrinks as the valuations grow; the factors are taken in order of falling valuation. Null when some c_p has negative exponents.
  */
 function productOnArrays(
   points: readonly Series[],
@@ -100,8 +100,12 @@ function productOnArrays(
       val[j] = Math.min(val[j]!, k === M ? Infinity : k);
     }
   };
+  // highest valuation first: the partial products' valuations then stay high for as long as
+  // possible, and every term of Y_(j-1) c_p at or beyond the order is skipped (the product is
+  // commutative, so the order of the factors does not change the result)
+  const byValuation = [...cs].sort((a, b) => b.val - a.val);
   let seen = 0;
-  for (const c of cs) {
+  for (const c of byValuation) {
     seen++;
     if (c.num.length === 0 || c.start >= M) continue;
     const f = D / c.den;
