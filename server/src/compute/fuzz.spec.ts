@@ -86,7 +86,7 @@ const HAND_EXPRESSIONS = [
   'inf',
   'e^q',
   'i*q',
-  'O(q^(-5))',
+  'O(q^(1/0))',
   'O(O(q))',
   'sum(1, k, inf, 0)',
   'sum(q^k, k, 1, 10^9)',
