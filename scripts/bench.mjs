@@ -1,5 +1,5 @@
 // `npm run bench`: times the engine's whole process on the benchmark tasks, beside PARI/GP when
-// `gp` is on PATH, alternating the two commands; prints medians, ratios and whether the numbers
+// `gp` is on PATH (the exact tasks) or the numpy script (the numeric tasks), alternating the two commands; prints medians, ratios and whether the numbers
 // agree. Options: --quick (2 runs instead of 5), --runs N, --no-build, --direct (also time the
 // CLI without npm in front), and task names to filter.
 import { spawnSync } from 'node:child_process';
@@ -112,24 +112,96 @@ function ours(file, want) {
   return { value: term ? term[1] : '0', classes };
 }
 
+/** Published closed forms of the line kernel's Z(1..4) (see ../shared/SOURCES.md), to 45 digits. */
+function lineKernelClosedForms() {
+  const py =
+    'from mpmath import mp, pi\nmp.dps = 45\n' +
+    'for v in [mp.mpf(1)/4, 1/(16*pi), (pi-3)/(64*pi), (10-pi**2)/(1024*pi**2)]: print(mp.nstr(v, 40))';
+  const r = spawnSync('python3', ['-c', py], { encoding: 'utf8' });
+  return r.status === 0 ? r.stdout.trim().split('\n') : null;
+}
+
+/** A decimal text as {int, exp}: value = int * 10^exp, int a BigInt of its digits. */
+function decimal(text) {
+  const m = /^(-?)(\d*)\.?(\d*)(?:e([+-]?\d+))?$/i.exec(text.trim());
+  const digits = `${m[2]}${m[3]}`;
+  const int = BigInt(digits || '0') * (m[1] ? -1n : 1n);
+  return { int, exp: Number(m[4] ?? 0) - m[3].length, digits: digits.replace(/^0+/, '').length };
+}
+
+/** Is `real` (its shown digits) the correct rounding of the longer reference text? */
+function digitsAgree(real, reference, digits) {
+  const a = decimal(real);
+  const b = decimal(reference);
+  // drop a's digits beyond `digits`, then round b to a's last kept unit
+  let ai = a.int;
+  let aexp = a.exp;
+  for (let k = a.digits - digits; k > 0; k--) {
+    ai = (ai + (ai < 0n ? -5n : 5n)) / 10n;
+    aexp++;
+  }
+  const shift = aexp - b.exp;
+  if (shift <= 0) return ai * 10n ** BigInt(-shift) === b.int;
+  const unit = 10n ** BigInt(shift);
+  const half = unit / 2n;
+  const rounded = (b.int + (b.int < 0n ? -half : half)) / unit;
+  return rounded === ai;
+}
+
+/** The numeric tasks: digits shown against the yardstick's and the published closed forms. */
+function numericVerdict(outFile, pyOut) {
+  const result = JSON.parse(readFileSync(outFile, 'utf8'));
+  const closed = lineKernelClosedForms();
+  const problems = [];
+  let shown = Infinity;
+  for (const row of result.canonical) {
+    if (row.N === 0) continue;
+    const digits = row.value.real
+      .replace(/e.*$/, '')
+      .replace(/[-.]/g, '')
+      .replace(/^0+/, '').length;
+    shown = Math.min(shown, digits);
+    if (closed && row.N <= 4 && !digitsAgree(row.value.real, closed[row.N - 1], digits))
+      problems.push(`Z(${row.N}) ${row.value.real} vs ${closed[row.N - 1]}`);
+    if (pyOut) {
+      const m = new RegExp(`Z\\(${row.N}\\) = (\\S+)`).exec(pyOut);
+      if (m && !digitsAgree(row.value.real, m[1], Math.min(digits, 11)))
+        problems.push(`Z(${row.N}) ${row.value.real} vs yardstick ${m[1]}`);
+    }
+  }
+  const recognized = result.canonical.filter((r) => r.recognized).map((r) => r.N);
+  let text = problems.length
+    ? `WRONG ${problems.join('; ')}`
+    : `digits correct (>= ${shown} shown)`;
+  if (result.spec.recognize) text += `, recognized N = ${recognized.join(',') || 'none'}`;
+  return text;
+}
+
 const rows = [];
 for (const task of tasks) {
   const spec = path.join(benchDir, `${task}.json`);
   const gpFile = path.join(benchDir, `${task}.gp`);
   const withGp = hasGp && existsSync(gpFile);
+  const pyFile = path.join(benchDir, `${task}.py`);
+  const withPy = existsSync(pyFile);
+  const pyOut = path.join(work, `${task}.py.txt`);
   const outFile = path.join(work, `${task}.out.json`);
   const gpOut = path.join(work, `${task}.gp.txt`);
   const t = { ours: [], node: [], gp: [] };
   for (let i = 0; i < runs; i++) {
     t.ours.push(timed('npm', ['run', '-s', 'cli', '--', 'compute', spec], outFile));
     if (withGp) t.gp.push(timed('gp', ['-q', '-s', '2000000000', gpFile], gpOut, '/dev/null'));
+    if (withPy) t.gp.push(timed('python3', [pyFile], pyOut, '/dev/null'));
     if (flag('--direct')) {
       const cli = path.join(root, 'dist/server/cli/main.js');
       t.node.push(timed(process.execPath, [cli, 'compute', spec], outFile));
     }
   }
   let agree = 'no gp';
-  if (withGp) {
+  const spec0 = JSON.parse(readFileSync(spec, 'utf8'));
+  if (spec0.precision !== undefined) {
+    agree = numericVerdict(outFile, withPy ? readFileSync(pyOut, 'utf8') : null);
+  } else if (withGp) {
     const want = parseGp(readFileSync(gpOut, 'utf8'));
     if (!want) agree = 'gp output not understood';
     else {
@@ -141,7 +213,7 @@ for (const task of tasks) {
     }
   }
   const o = median(t.ours);
-  const g = withGp ? median(t.gp) : null;
+  const g = withGp || withPy ? median(t.gp) : null;
   rows.push({ task, o, n: t.node.length ? median(t.node) : null, g, agree });
   console.log(
     `  ${task}: ours ${t.ours.map((x) => x.toFixed(2)).join(' ')}  gp ${t.gp.map((x) => x.toFixed(2)).join(' ')}`,
@@ -154,7 +226,7 @@ console.log(
   `\nmedian of ${runs}, whole process, output to a file (node = the CLI without npm, with --direct)\n`,
 );
 console.log(
-  `${pad('task', 12)}| ${pad('ours s', 8)}| ${pad('node s', 8)}| ${pad('gp s', 8)}| ${pad('ratio', 6)}| numbers`,
+  `${pad('task', 12)}| ${pad('ours s', 8)}| ${pad('node s', 8)}| ${pad('yard s', 8)}| ${pad('ratio', 6)}| numbers`,
 );
 console.log(
   `${'-'.repeat(12)}|${'-'.repeat(9)}|${'-'.repeat(9)}|${'-'.repeat(9)}|${'-'.repeat(7)}|--------`,

@@ -11,7 +11,8 @@ import type { ClassRowJson, ComputeOptions, ComputeResult, Progress, Route } fro
 import { compareSeries } from './series/compare.js';
 import { toValueJson } from './series/format.js';
 import { Series } from './series/series.js';
-import { GasSpec, parseGasSpec } from './spec/schema.js';
+import { computeNumeric } from './numeric/compute-numeric.js';
+import { GasSpec, isNumericSpec, parseGasSpec } from './spec/schema.js';
 import { cycleWeights } from './weights.js';
 
 const clock = (globalThis as { performance?: { now(): number } }).performance;
@@ -68,7 +69,8 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   const t0 = now();
   const spec: GasSpec = parseGasSpec(input);
   const progress = progressReporter(opts);
-  const cap = spec.order === null ? null : new Fraction(spec.order);
+  if (isNumericSpec(spec)) return computeNumeric(spec, opts, progress, now);
+  const cap = spec.order == null ? null : new Fraction(spec.order);
   const fermion = spec.statistics === 'fermion';
   const nMax = spec.nMax;
   const truncations: ComputeResult['truncations'] = [];

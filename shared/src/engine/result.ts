@@ -1,9 +1,14 @@
 import type { RowVerdict, WeightVerdict } from './checks/grand.js';
 import type { ValueJson } from './series/format.js';
 import type { GasSpec } from './spec/schema.js';
+import type { NumericValueJson } from './numeric/estimate.js';
+import type { NumericRowVerdict, NumericWeightVerdict } from './numeric/checks.js';
+
+/** A value of the result: an exact or truncated series, or (numeric mode) a number with its error. */
+export type AnyValueJson = ValueJson | NumericValueJson;
 
 /** Names of the routes to the canonical table. */
-export type Route = 'recursion' | 'classSum' | 'product';
+export type Route = 'recursion' | 'classSum' | 'product' | 'fredholm';
 
 /** One row of the class table in the result format. */
 export interface ClassRowJson {
@@ -11,13 +16,40 @@ export interface ClassRowJson {
   cycleType: [number, number][];
   size: string;
   sign: 1 | -1;
-  contribution: ValueJson;
+  contribution: AnyValueJson;
+}
+
+/** A closed form found for a numeric Z(N) (an integer relation with the basis). */
+export interface RecognizedJson {
+  expression: string;
+  latex: string;
+  height: number;
+  digitsToSpare: number;
+}
+
+/** Numeric-mode additions to a canonical row. */
+export interface NumericCanonicalExtras {
+  /** Each route's own value and error. */
+  routeValues?: Partial<Record<Route, NumericValueJson>>;
+  /** The closed form, or null when recognition was asked for and found none. */
+  recognized?: RecognizedJson | null;
+  /** Why no closed form is shown ("no relation of height <= H at this precision"). */
+  recognizeNote?: string;
+}
+
+/** The Fermi-gas Airy fit of a numeric table: Z(N) ~ C^(-1/3) e^A Ai[C^(-1/3) (N - B)]. */
+export interface AiryFitJson {
+  C: { value: number; uncertainty: number };
+  B: { value: number; uncertainty: number };
+  A: { value: number; uncertainty: number };
+  residuals: { N: number; residual: number }[];
+  fittedOn: number[];
 }
 
 /** One canonical row: Z(N), the routes that ran for it and whether they agree term by term. */
-export interface CanonicalRowJson {
+export interface CanonicalRowJson extends NumericCanonicalExtras {
   N: number;
-  value: ValueJson;
+  value: AnyValueJson;
   routes: Route[];
   agrees: boolean;
 }
@@ -26,17 +58,29 @@ export interface CanonicalRowJson {
 export interface ComputeResult {
   format: 'traceloom.result/1';
   spec: GasSpec;
-  weights: { L: number; value: ValueJson }[];
+  weights: { L: number; value: AnyValueJson }[];
   canonical: CanonicalRowJson[];
   classes: ClassRowJson[];
   methods: {
     recursion: { nMax: number };
     classSum?: { nMax: number; agrees: boolean };
     product?: { nMax: number; agrees: boolean; points: number };
+    fredholm?: { nMax: number; agrees: boolean; points: number };
   };
-  grandCheck?: RowVerdict[];
-  impliedWeights?: WeightVerdict[];
-  referenceCheck?: RowVerdict[];
+  grandCheck?: RowVerdict[] | NumericRowVerdict[];
+  impliedWeights?: WeightVerdict[] | NumericWeightVerdict[];
+  referenceCheck?: RowVerdict[] | NumericRowVerdict[];
+  /** Numeric mode: the requested digits, the working precision and how errors were estimated. */
+  numeric?: {
+    precision: number;
+    workingBits: number;
+    errorEstimate: string;
+    rule: string;
+    points: number[];
+    parity: boolean;
+  };
+  /** Large-N structure: the Airy fit of a numeric table (series tables: see largen/). */
+  largeN?: { airy?: AiryFitJson; [key: string]: unknown };
   /** Infinite sums, products and lattices cut off at the order, with the terms they used. */
   truncations: { field: string; what: string; terms: number }[];
   timings: {

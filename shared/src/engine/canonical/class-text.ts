@@ -10,6 +10,7 @@ import type { ClassRowJson } from '../result.js';
 export function classRowJsonText(r: ClassRowJson): string {
   const ct = r.cycleType.map(([L, m]) => `[${L},${m}]`).join(',');
   const v = r.contribution;
+  if (!('terms' in v)) return JSON.stringify(r);
   const terms = v.terms.map(([e, c]) => `["${e}","${c}"]`).join(',');
   const order = v.order === null ? 'null' : `"${v.order}"`;
   return `{"N":${r.N},"cycleType":[${ct}],"size":"${r.size}","sign":${r.sign},"contribution":{"order":${order},"terms":[${terms}]}}`;

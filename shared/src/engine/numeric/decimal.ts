@@ -12,7 +12,8 @@ export function pow10(k: number, prec: number): Real {
 /** Read a decimal text such as "1.25e-3" rounded to prec bits; EngineError when it is not one. */
 export function parseDecimal(text: string, prec: number): Real {
   const m = DECIMAL.exec(text);
-  if (!m || (m[2] === '' && (m[3] ?? '') === '')) throw new EngineError(`cannot read the number ${text}`);
+  if (!m || (m[2] === '' && (m[3] ?? '') === ''))
+    throw new EngineError(`cannot read the number ${text}`);
   const frac = m[3] ?? '';
   const digits = BigInt((m[2] || '0') + frac);
   const exp = Number(m[4] ?? '0') - frac.length;
@@ -26,7 +27,7 @@ export function parseDecimal(text: string, prec: number): Real {
 /** floor(log10 |x|) for x != 0 (exact, by a float estimate corrected against powers of ten). */
 export function decimalExponent(x: Real): number {
   const mag = magnitude(x);
-  let k = Math.floor((mag - 1) * 0.30102999566398120);
+  let k = Math.floor((mag - 1) * 0.3010299956639812);
   const a = x.m < 0n ? -x.m : x.m;
   // compare |x| = a * 2^e with 10^k, exactly
   const ge = (j: number): boolean => {

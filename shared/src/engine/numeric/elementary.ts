@@ -43,7 +43,9 @@ function cached(compute: (W: number) => bigint): (prec: number) => Real {
 }
 
 /** pi to prec bits (Machin: 16 atan(1/5) - 4 atan(1/239)); cached. */
-export const pi = cached((W) => 16n * arctanInverse(5n, W, false) - 4n * arctanInverse(239n, W, false));
+export const pi = cached(
+  (W) => 16n * arctanInverse(5n, W, false) - 4n * arctanInverse(239n, W, false),
+);
 
 /** log 2 to prec bits (2 atanh(1/3)); cached. */
 export const ln2 = cached((W) => 2n * arctanInverse(3n, W, true));
@@ -76,6 +78,7 @@ export function exp(x: Real, prec: number): Real {
 /** Natural logarithm of x > 0 rounded to prec bits (Newton-Halley on exp); RangeError otherwise. */
 export function log(x: Real, prec: number): Real {
   if (sign(x) <= 0) throw new RangeError('logarithm of a non-positive number');
+  if (x.m === 1n << BigInt(-x.e) || (x.e === 0 && x.m === 1n)) return ZERO;
   // x = f * 2^j with f in [1/2, 1)
   const j = magnitude(x);
   const f = ldexp(x, -j);

@@ -136,7 +136,7 @@ export function div(a: Real, b: Real, prec: number): Real {
   const q = num / b.m;
   const r = num - q * b.m;
   // one sticky bit so the final rounding sees the remainder
-  const m = q * 2n + (r === 0n ? 0n : (r < 0n) !== (b.m < 0n) ? -1n : 1n);
+  const m = q * 2n + (r === 0n ? 0n : r < 0n !== b.m < 0n ? -1n : 1n);
   return round(new Real(m, a.e - b.e - k - 1), prec);
 }
 
@@ -179,7 +179,7 @@ export function cmp(a: Real, b: Real): -1 | 0 | 1 {
   if (sa === 0) return 0;
   const ma = magnitude(a);
   const mb = magnitude(b);
-  if (ma !== mb) return (ma < mb) === sa > 0 ? -1 : 1;
+  if (ma !== mb) return ma < mb === sa > 0 ? -1 : 1;
   const e = Math.min(a.e, b.e);
   const x = a.m << BigInt(a.e - e);
   const y = b.m << BigInt(b.e - e);
