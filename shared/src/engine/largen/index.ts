@@ -1,10 +1,12 @@
-import type { GasSpec } from '../spec/schema.js';
+import Fraction from 'fraction.js';
 import type { Series } from '../series/series.js';
+import type { GasSpec } from '../spec/schema.js';
 import { analyseClass } from './analyse.js';
-import { fittedClasses, givenClass, type NormalizedClass } from './normalize.js';
-import type { LargeNJson } from './types.js';
+import { fittedClasses, givenClass, parityClasses } from './normalize.js';
+import type { LargeNClassJson, LargeNJson } from './types.js';
 
 export type * from './types.js';
+export { productForm, productExponentList, moebius } from './product.js';
 
 /** Options of the large-N analysis. */
 export interface LargeNOptions {
@@ -12,12 +14,20 @@ export interface LargeNOptions {
   normalization?: Series[];
 }
 
+/** Exponent up to which a class's limit is known (Infinity: exact; -Infinity: none). */
+function limitReach(c: LargeNClassJson): number {
+  if (!c.limit) return -Infinity;
+  return c.limit.order === null ? Infinity : new Fraction(c.limit.order).valueOf();
+}
+
 /**
  * The large-N structure of a canonical q-series table Z(0..nMax): normalization (fitted exactly or
  * given), the coefficient-wise limit Z(inf) to the order it is determined, where each row stops
  * agreeing with it, the correction walls, and the product exponents of the limit. Every formula is
- * fitted on some rows and reported with the rows that verify it. Undefined when the table has too
- * few usable rows (fewer than 4 with N >= 1).
+ * fitted on some rows and reported with the rows that verify it. One class for all N, or one per
+ * parity of N when one quadratic does not fit the leading exponents or when even and odd rows
+ * determine their limits further apart than together. Undefined for fewer than 4 rows N >= 1
+ * (without a given normalization).
  */
 export function largeNAnalysis(
   Z: Series[],
@@ -26,12 +36,23 @@ export function largeNAnalysis(
 ): LargeNJson | undefined {
   const notes: string[] = [];
   const variable = spec.variable;
-  let classes: NormalizedClass[];
   if (opts.normalization && spec.largeN?.normalization !== undefined) {
-    classes = [givenClass(Z, opts.normalization, spec.largeN.normalization)];
-  } else {
-    if (Z.length < 5) return undefined;
-    classes = fittedClasses(Z, variable, notes);
+    const c = analyseClass(givenClass(Z, opts.normalization, spec.largeN.normalization));
+    return { variable, classes: [c], notes };
   }
-  return { variable, classes: classes.map((c) => analyseClass(c, variable, notes)), notes };
+  if (Z.length < 5) return undefined;
+  let classes = fittedClasses(Z, variable, notes).map(analyseClass);
+  if (classes.length === 1) {
+    const split = parityClasses(Z, variable, []).map(analyseClass);
+    const reach = limitReach(classes[0]!);
+    if (split.length === 2 && split.every((s) => limitReach(s) > reach)) {
+      notes.push(
+        'even and odd N analysed apart: each class determines its limit further than all rows together',
+      );
+      classes = split;
+    }
+  } else {
+    notes.push('even and odd N analysed apart: one quadratic does not fit every leading exponent');
+  }
+  return { variable, classes, notes };
 }

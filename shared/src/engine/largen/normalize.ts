@@ -27,7 +27,8 @@ function factorText(expo: readonly Fraction[], variable: string, lead: string | 
   const e = polyText(neg);
   const pw = e === '0' ? '' : /^[A-Za-z0-9]+$/.test(e) ? `${variable}^${e}` : `${variable}^(${e})`;
   if (lead === null) return pw === '' ? '1' : pw;
-  return pw === '' ? `1/(${lead})` : `${pw}/(${lead})`;
+  const l = /^[0-9]+$/.test(lead) ? lead : `(${lead})`;
+  return pw === '' ? `1/${l}` : `${pw}/${l}`;
 }
 
 /** Normalize one class: divide by the leading term, record the exponent fit. */
@@ -76,6 +77,16 @@ export function fittedClasses(
   const rows = usableRows(Z);
   const all = normalizeClass(Z, 'all', rows, variable);
   if (all) return [all];
+  return parityClasses(Z, variable, notes);
+}
+
+/** One normalized class per parity of N (a class whose exponents fit no quadratic is noted). */
+export function parityClasses(
+  Z: readonly Series[],
+  variable: string,
+  notes: string[],
+): NormalizedClass[] {
+  const rows = usableRows(Z);
   const out: NormalizedClass[] = [];
   for (const parity of ['even', 'odd'] as const) {
     const r = rows.filter((N) => N % 2 === (parity === 'even' ? 0 : 1));
