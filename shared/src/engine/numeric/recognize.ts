@@ -19,8 +19,12 @@ const LOG2_10 = 3.321928094887362;
  * search looked at every slot, and the coarser count is the one that refuses float64-grade input.
  * A relation is accepted when digitsToSpare = digitsAvailable - digitsNeeded >= margin (default
  * 10). PSLQ itself runs at the precision the error allows and no more, with the height bound that
- * the margin leaves (capped by opts.maxHeight), so "none" is the proven statement "no relation of
- * height <= H at this precision".
+ * the margin leaves, H = floor(10^((digitsAvailable - margin) / (n + 1))) (capped by
+ * opts.maxHeight), so "none" is normally the proven statement "no relation of height <= H at this
+ * precision" (PSLQ's norm bound passed H); when the search stopped otherwise the note says so.
+ * Example: Z(4) of the line kernel, 1024 Z = -1 + 10/pi^2 over the basis 1, 1/pi, 1/pi^2, 1/pi^3,
+ * needs 5 log10(1024) = 15.05 digits, so it is accepted from 40 digits (24 to spare) and refused
+ * from a float64 value (16 digits at best).
  *
  * The basis values must be accurate well beyond `error` (compute them at working precision).
  * `expression` is in the expression language with explicit `*`, a sum of reduced rational multiples
@@ -85,8 +89,12 @@ export function findRelation(
   const search = relationSearch(x, prec, H);
   const noneText = `no relation of height <= ${H} at this precision`;
   if (!search.relation) {
-    if (search.outcome === 'bound' || search.outcome === 'height') return { none: noneText };
-    return { none: `${noneText} was found (the search stopped: ${search.outcome} exhausted)` };
+    if (search.outcome === 'bound') return { none: noneText };
+    const why =
+      search.outcome === 'height'
+        ? 'the only one detected is higher'
+        : `the search stopped: ${search.outcome} exhausted`;
+    return { none: `${noneText} was found (${why})` };
   }
   const c = search.relation;
   const height = Number(c.reduce((h, v) => ((v < 0n ? -v : v) > h ? (v < 0n ? -v : v) : h), 0n));
