@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
 import type { MathNode } from 'mathjs';
 import { EngineError } from '../errors.js';
+import { plethysticExp, plethysticLog } from '../largen/plethystic.js';
 import { MAX_TERMS } from '../limits.js';
 import { factorialBig, frac } from '../rational.js';
 import { Series } from '../series/series.js';
@@ -195,6 +196,12 @@ export function callFunction(
     case 'log':
       arity(name, args, 1);
       return vLog(ev(0), ctx);
+    case 'pexp':
+      arity(name, args, 1);
+      return plethysticExp(ev(0), ctx);
+    case 'plog':
+      arity(name, args, 1);
+      return plethysticLog(ev(0), ctx);
     case 'O': {
       arity(name, args, 1);
       const m = evaluate(args[0]!, { ...ctx, cap: null }); // the bound itself is never truncated
