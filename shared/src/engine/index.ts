@@ -40,3 +40,6 @@ export type { ClassRow } from './canonical/classes.js';
 export { classRowJsonText } from './canonical/class-text.js';
 export { spectrumProduct } from './canonical/product.js';
 export type { RowVerdict, WeightVerdict } from './checks/grand.js';
+export { largeNAnalysis, productForm, productExponentList } from './largen/index.js';
+export type * from './largen/types.js';
+export type { LargeNOptions } from './largen/index.js';
