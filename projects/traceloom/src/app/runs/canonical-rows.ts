@@ -1,6 +1,18 @@
-import type { CanonicalRowJson, ValueJson } from '@traceloom/shared/engine';
+import type { CanonicalRowJson } from '@traceloom/shared/engine';
 import type { ExportTable } from '../exports/export-files';
 import {
+  NumericRoute,
+  NumericRowExtras,
+  NumericValueJson,
+  RecognizedJson,
+  isNumericValue,
+  numericDigits,
+  numericError,
+  numericTex,
+  errorTex,
+} from './numeric-value';
+import {
+  AnyValue,
   knownTo,
   leadingTerm,
   leadingTermTex,
@@ -9,10 +21,34 @@ import {
   valueText,
 } from './value-format';
 
+/** A canonical row as the client reads it: series or numeric value, numeric extras optional. */
+export type CanonicalRowView = Omit<CanonicalRowJson, 'value' | 'routes' | 'agrees'> & {
+  value: AnyValue;
+  routes?: readonly string[];
+  agrees?: boolean | null;
+} & NumericRowExtras;
+
+/** One route's own value of a numeric row. */
+export interface RouteValueLine {
+  route: string;
+  name: string;
+  value: NumericValueJson;
+  /** Determined digits, grouped in fives. */
+  digits: string;
+}
+
 /** One line of the canonical table as the screen shows it. */
 export interface CanonicalLine {
   N: number;
-  value: ValueJson;
+  value: AnyValue;
+  /** Numeric mode: the value is `{real, error}`. */
+  numeric: boolean;
+  /** Numeric mode: determined digits, grouped in fives, and the error. */
+  digits: string;
+  error: string;
+  routeValues: RouteValueLine[];
+  recognized: RecognizedJson | null;
+  recognizeNote: string | null;
   lead: string;
   leadTex: string;
   valuation: string | null;
@@ -28,22 +64,46 @@ export const ROUTE_NAMES: Record<string, string> = {
   recursion: 'Newton recursion',
   classSum: 'class sum',
   product: 'product form',
+  fredholm: 'Fredholm determinant',
 };
+
+const ROUTE_ORDER: NumericRoute[] = ['recursion', 'fredholm', 'product', 'classSum'];
+
+function routeValueLines(row: CanonicalRowView): RouteValueLine[] {
+  const values = row.routeValues ?? {};
+  return ROUTE_ORDER.flatMap((route) => {
+    const value = values[route];
+    return value
+      ? [{ route, name: ROUTE_NAMES[route] ?? route, value, digits: numericDigits(value, true) }]
+      : [];
+  });
+}
+
+/** True when the rows hold numeric values (a numeric run). */
+export function isNumericTable(rows: readonly CanonicalRowView[]): boolean {
+  return rows.some((r) => isNumericValue(r.value));
+}
 
 /** The canonical table's lines from the result's rows. */
 export function canonicalLines(
-  rows: readonly CanonicalRowJson[],
+  rows: readonly CanonicalRowView[],
   variable: string,
 ): CanonicalLine[] {
   return rows.map((row) => ({
     N: row.N,
     value: row.value,
+    numeric: isNumericValue(row.value),
+    digits: isNumericValue(row.value) ? numericDigits(row.value, true) : '',
+    error: isNumericValue(row.value) ? numericError(row.value) : '',
+    routeValues: routeValueLines(row),
+    recognized: row.recognized ?? null,
+    recognizeNote: row.recognizeNote ?? null,
     lead: leadingTerm(row.value, variable),
     leadTex: leadingTermTex(row.value, variable),
     valuation: valuation(row.value),
-    termCount: row.value.terms.length,
+    termCount: isNumericValue(row.value) ? 0 : row.value.terms.length,
     knownTo: knownTo(row.value, variable),
-    routes: row.routes ?? ['recursion'],
+    routes: [...(row.routes ?? ['recursion'])],
     agrees: row.agrees ?? true,
     text: valueText(row.value, variable),
   }));
@@ -59,6 +119,7 @@ export function agreementText(line: CanonicalLine): string {
 
 /** The canonical table for the CSV/JSON exports (plain values). */
 export function canonicalExport(lines: readonly CanonicalLine[]): ExportTable {
+  if (lines.some((l) => l.numeric)) return numericExport(lines);
   return {
     columns: ['N', 'Z(N)', 'valuation', 'terms', 'known to', 'routes agree'],
     rows: lines.map((l) => [
@@ -74,8 +135,51 @@ export function canonicalExport(lines: readonly CanonicalLine[]): ExportTable {
 
 /** The same table with Z(N) in LaTeX, for the booktabs export (column 1 is maths). */
 export function canonicalLatex(lines: readonly CanonicalLine[], variable: string): ExportTable {
+  if (lines.some((l) => l.numeric)) return numericLatex(lines);
   return {
     columns: ['N', 'Z(N)', 'known to'],
     rows: lines.map((l) => [String(l.N), valueTex(l.value, variable), l.knownTo]),
+  };
+}
+
+function agreeCell(l: CanonicalLine): string {
+  return l.routes.length < 2 ? 'single route' : l.agrees ? 'yes' : 'no';
+}
+
+/**
+ * A numeric table for CSV: only determined digits (ungrouped, so a spreadsheet reads them), the
+ * error in its own column, the closed form when one was recognized.
+ */
+function numericExport(lines: readonly CanonicalLine[]): ExportTable {
+  return {
+    columns: ['N', 'Z(N)', 'error', 'closed form', 'routes agree'],
+    rows: lines.map((l) => [
+      String(l.N),
+      isNumericValue(l.value) ? numericDigits(l.value) : l.text,
+      l.error,
+      l.recognized?.expression ?? '',
+      agreeCell(l),
+    ]),
+  };
+}
+
+/** Columns of the LaTeX export that hold maths, series or numeric. */
+export function canonicalMathColumns(lines: readonly CanonicalLine[]): number[] {
+  return lines.some((l) => l.numeric) ? [1, 2, 3] : [1];
+}
+
+/**
+ * The same for LaTeX: determined digits of Z(N) (thin spaces between groups of five), the error
+ * and the closed form, each as maths.
+ */
+function numericLatex(lines: readonly CanonicalLine[]): ExportTable {
+  return {
+    columns: ['N', 'Z(N)', 'error', 'closed form'],
+    rows: lines.map((l) => [
+      String(l.N),
+      isNumericValue(l.value) ? numericTex(l.value, Infinity, false) : valueTex(l.value),
+      l.error === '' || l.error === '0' ? '0' : errorTex(l.error),
+      l.recognized ? l.recognized.latex : '{}',
+    ]),
   };
 }

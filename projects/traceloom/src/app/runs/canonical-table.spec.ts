@@ -92,3 +92,84 @@ describe('CanonicalTable', () => {
     expect(shown).toBeLessThan(201);
   });
 });
+
+/**
+ * A numeric fixture in the result format: the line kernel rho(x,y) of the numeric-mode contract,
+ * Z(1) = 1/(16 pi) = 1.98943678864869169711104704e-2 (mpmath 1.3, independent), with two routes
+ * and a recognized closed form; Z(2) with nothing determined ("0 ± e"), a note instead of a form.
+ */
+const NUMERIC_ROWS = [
+  { N: 0, value: { real: '1', error: '0' }, routes: ['recursion'], agrees: true },
+  {
+    N: 1,
+    value: { real: '1.98943678864869169711104704e-2', error: '3e-30' },
+    routes: ['recursion', 'fredholm'],
+    agrees: true,
+    routeValues: {
+      recursion: { real: '1.98943678864869169711104704e-2', error: '3e-30' },
+      fredholm: { real: '1.9894367886486916971110470e-2', error: '8e-29' },
+    },
+    recognized: {
+      expression: '1/(16*pi)',
+      latex: '\\frac{1}{16\\pi}',
+      height: 16,
+      digitsToSpare: 24,
+    },
+  },
+  {
+    N: 2,
+    value: { real: '0', error: '2e-3' },
+    routes: ['recursion', 'fredholm'],
+    agrees: false,
+    recognized: null,
+    recognizeNote: 'no relation of height <= 1000000 at this precision',
+  },
+] as unknown as CanonicalRowJson[];
+
+describe('CanonicalTable in numeric mode', () => {
+  let fixture: ComponentFixture<CanonicalTable>;
+  let el: HTMLElement;
+
+  beforeEach(async () => {
+    TestBed.configureTestingModule({ imports: [CanonicalTable], providers: testProviders() });
+    fixture = TestBed.createComponent(CanonicalTable);
+    fixture.componentRef.setInput('rows', NUMERIC_ROWS);
+    el = fixture.nativeElement;
+    await fixture.whenStable();
+    await new Promise((r) => setTimeout(r, 50));
+    await fixture.whenStable();
+  });
+
+  const text = (id: string) => el.querySelector(`[data-testid="${id}"]`)?.textContent?.trim();
+
+  it('shows determined digits grouped in fives, the error, and never an undetermined digit', () => {
+    expect(text('canonical-digits-1')).toBe('0.01989 43678 86486 91697 11104 704');
+    expect(text('canonical-error-1')).toBe('± 3e-30');
+    expect(text('canonical-digits-2')).toBe('0');
+    expect(text('canonical-error-2')).toBe('± 2e-3');
+    expect(text('canonical-error-0')).toBe('exact');
+    // no series columns in numeric mode
+    expect(el.querySelector('[data-testid="canonical-lead-1"]')).toBeNull();
+  });
+
+  it('puts the closed form beside Z(N) with its height and margin, or the note', () => {
+    const rec = el.querySelector('[data-testid="canonical-recognized-1"]');
+    expect(rec?.querySelector('.katex')).not.toBeNull();
+    expect(rec?.textContent).toContain('height 16, 24 digits to spare');
+    expect(text('canonical-recognized-2')).toContain('no relation of height <= 1000000');
+    expect(text('canonical-agree-2')).toContain('DISAGREE');
+  });
+
+  it("expands a row to each route's value and error and their agreement", async () => {
+    (el.querySelector('[data-testid="canonical-expand-1"]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    const fredholm = el.querySelector('[data-testid="canonical-route-1-fredholm"]');
+    expect(fredholm?.textContent).toContain('Fredholm determinant');
+    expect(fredholm?.textContent).toContain('0.01989 43678 86486 91697 11104 70');
+    expect(fredholm?.textContent).toContain('8e-29');
+    expect(text('canonical-routes-verdict-1')).toContain('agree within their combined errors');
+    expect(el.querySelector('[data-testid="canonical-detail-1"] .plain code')?.textContent).toBe(
+      '0.0198943678864869169711104704 ± 3e-30',
+    );
+  });
+});

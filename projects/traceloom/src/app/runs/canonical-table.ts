@@ -5,15 +5,18 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
-import type { CanonicalRowJson } from '@traceloom/shared/engine';
 import { ExportButtons } from '../exports/export-buttons';
 import {
   CanonicalLine,
+  CanonicalRowView,
   agreementText,
   canonicalExport,
   canonicalLatex,
   canonicalLines,
+  canonicalMathColumns,
+  isNumericTable,
 } from './canonical-rows';
+import { NumericRowDetail } from './numeric-row-detail';
 import { Tex } from './tex';
 import { valueTex } from './value-format';
 
@@ -36,6 +39,7 @@ const VISIBLE_ROWS = 12;
     MatTableModule,
     ScrollingModule,
     ExportButtons,
+    NumericRowDetail,
     Tex,
   ],
   templateUrl: './canonical-table.html',
@@ -45,7 +49,7 @@ const VISIBLE_ROWS = 12;
 export class CanonicalTable {
   private readonly snackBar = inject(MatSnackBar);
 
-  readonly rows = input.required<readonly CanonicalRowJson[]>();
+  readonly rows = input.required<readonly CanonicalRowView[]>();
   readonly variable = input('q');
   readonly title = input('canonical table');
   /** The whole result, for the JSON export. */
@@ -58,7 +62,13 @@ export class CanonicalTable {
   );
   protected readonly exportTable = computed(() => canonicalExport(this.lines()));
   protected readonly latexTable = computed(() => canonicalLatex(this.lines(), this.variable()));
-  protected readonly columns = ['expand', 'N', 'lead', 'valuation', 'terms', 'known', 'agreement'];
+  protected readonly numeric = computed(() => isNumericTable(this.rows()));
+  protected readonly mathColumns = computed(() => canonicalMathColumns(this.lines()));
+  protected readonly columns = computed(() =>
+    this.numeric()
+      ? ['expand', 'N', 'digits', 'error', 'closed', 'agreement']
+      : ['expand', 'N', 'lead', 'valuation', 'terms', 'known', 'agreement'],
+  );
   protected readonly rowPx = ROW_PX;
   protected readonly agreementText = agreementText;
   protected readonly valueTex = valueTex;
@@ -69,7 +79,8 @@ export class CanonicalTable {
   }
 
   protected copied(ok: boolean): void {
-    this.snackBar.open(ok ? 'Copied the series as plain text.' : 'Copying failed.', undefined, {
+    const what = this.numeric() ? 'value' : 'series';
+    this.snackBar.open(ok ? `Copied the ${what} as plain text.` : 'Copying failed.', undefined, {
       duration: 2500,
     });
   }

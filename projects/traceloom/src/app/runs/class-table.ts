@@ -20,6 +20,7 @@ import type { ClassRowJson } from '@traceloom/shared/engine';
 import { messageOf } from '../core/api-error';
 import { ExportButtons } from '../exports/export-buttons';
 import { ExportTable } from '../exports/export-files';
+import { isNumericValue, numericNumber } from './numeric-value';
 import { RunsApi } from './runs-api';
 import { Tex } from './tex';
 import {
@@ -40,6 +41,7 @@ export interface ClassLine {
   sign: 1 | -1;
   contributionText: string;
   contributionTex: string;
+  /** Sort key of the contribution: its valuation (numeric mode: its absolute value). */
   valuation: number;
 }
 
@@ -53,7 +55,9 @@ export function classLines(rows: readonly ClassRowJson[], variable: string): Cla
     sign: r.sign,
     contributionText: valueText(r.contribution, variable),
     contributionTex: valueTex(r.contribution, variable, 4),
-    valuation: rationalNumber(valuation(r.contribution) ?? 'Infinity'),
+    valuation: isNumericValue(r.contribution)
+      ? Math.abs(numericNumber(r.contribution))
+      : rationalNumber(valuation(r.contribution) ?? 'Infinity'),
   }));
 }
 

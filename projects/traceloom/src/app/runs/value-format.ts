@@ -1,4 +1,8 @@
 import type { ValueJson } from '@traceloom/shared/engine';
+import { NumericValueJson, isNumericValue, numericTex, numericText } from './numeric-value';
+
+/** A value of the result: a series `{order, terms}` or (numeric mode) a number `{real, error}`. */
+export type AnyValue = ValueJson | NumericValueJson;
 
 /**
  * Presentation of result-format values (`{order, terms: [[exponent, coefficient]]}`) without the
@@ -49,10 +53,11 @@ function joinSigned(parts: string[]): string {
 }
 
 /**
- * Plain text in the expression language, e.g. `q^(1/2) - 3/4*q^2 + O(q^5)`, so it can be pasted
+ * Plain text in the expression language (numeric values: determined digits `± error`), e.g. `q^(1/2) - 3/4*q^2 + O(q^5)`, so it can be pasted
  * back into a gas or a reference table.
  */
-export function valueText(value: ValueJson, variable = 'q'): string {
+export function valueText(value: AnyValue, variable = 'q'): string {
+  if (isNumericValue(value)) return numericText(value);
   const parts = value.terms.map(([e, c]) => {
     const r = rational(c);
     const power = plainPower(variable, e);
@@ -64,8 +69,13 @@ export function valueText(value: ValueJson, variable = 'q'): string {
   return joinSigned(parts);
 }
 
-/** LaTeX for KaTeX, e.g. `q^{1/2} - \tfrac{3}{4}q^{2} + O(q^{5})`; `maxTerms` elides the middle. */
-export function valueTex(value: ValueJson, variable = 'q', maxTerms = Infinity): string {
+/**
+ * LaTeX for KaTeX, e.g. `q^{1/2} - \tfrac{3}{4}q^{2} + O(q^{5})`; `maxTerms` elides the middle
+ * (numeric values: at most 5 digits per term allowed, the rest elided).
+ */
+export function valueTex(value: AnyValue, variable = 'q', maxTerms = Infinity): string {
+  if (isNumericValue(value))
+    return numericTex(value, maxTerms === Infinity ? Infinity : 5 * maxTerms);
   const shown = value.terms.length > maxTerms ? value.terms.slice(0, maxTerms) : value.terms;
   const parts = shown.map(([e, c]) => {
     const r = rational(c);
@@ -79,19 +89,22 @@ export function valueTex(value: ValueJson, variable = 'q', maxTerms = Infinity):
 }
 
 /** The lowest-order term alone (`q^(9/2)`), or `0` when every known coefficient vanishes. */
-export function leadingTerm(value: ValueJson, variable = 'q'): string {
+export function leadingTerm(value: AnyValue, variable = 'q'): string {
+  if (isNumericValue(value)) return numericText(value);
   const first = value.terms[0];
   return first ? valueText({ order: null, terms: [first] }, variable) : '0';
 }
 
 /** LaTeX of the lowest-order term. */
-export function leadingTermTex(value: ValueJson, variable = 'q'): string {
+export function leadingTermTex(value: AnyValue, variable = 'q'): string {
+  if (isNumericValue(value)) return numericTex(value);
   const first = value.terms[0];
   return first ? valueTex({ order: null, terms: [first] }, variable) : '0';
 }
 
 /** Exponent of the lowest non-zero term, or null when none is known. */
-export function valuation(value: ValueJson): string | null {
+export function valuation(value: AnyValue): string | null {
+  if (isNumericValue(value)) return null;
   return value.terms[0]?.[0] ?? null;
 }
 
@@ -103,7 +116,8 @@ export function rationalNumber(text: string): number {
 }
 
 /** How far a value is known, in words: `exact` or `to O(q^40)`. */
-export function knownTo(value: ValueJson, variable = 'q'): string {
+export function knownTo(value: AnyValue, variable = 'q'): string {
+  if (isNumericValue(value)) return Number(value.error) === 0 ? 'exact' : `± ${value.error}`;
   return value.order === null ? 'exact' : `O(${plainPower(variable, value.order) || '1'})`;
 }
 
