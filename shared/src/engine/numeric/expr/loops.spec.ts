@@ -100,6 +100,11 @@ describe('infinite sums and products (stopped by the 2^-(prec+4) rule)', () => {
     expectDigits(at('sum(q^(k^2), k, -inf, 0)', ['q'], [TENTH]), decimalSeries(half, 80), 58);
   });
 
+  it('leading zero terms do not end a sum: sum(binom(k, 3) q^k, k, 0, inf) = q^3/(1-q)^4 (negative binomial series, by hand)', () => {
+    const want = formatDecimal(fromFraction(10n, 6561n, 400), 70); // (1/10)^3 / (9/10)^4 = 10/6561
+    expectDigits(at('sum(binom(k, 3) * q^k, k, 0, inf)', ['q'], [TENTH]), want, 58);
+  });
+
   it('a product stops at a zero factor', () => {
     expect(at('prod(1 - k/3, k, 0, inf)', [], [])).toEqual(fromInt(0));
   });

@@ -44,7 +44,8 @@ function recorder(c: Compiler, what: string): (terms: number) => void {
 /**
  * An unbounded sum or product of at(k) over the runs given ([start, direction]). It stops once
  * QUIET_RUN consecutive terms are each below 2^-(prec+4) of the running sum (for a product:
- * |factor - 1| below 2^-(prec+4)) and do not increase in size; a zero factor ends a product. A
+ * |factor - 1| below 2^-(prec+4)) and do not increase in size; a zero factor ends a product, and
+ * no term counts as small while the sum is still exactly 0. A
  * run that has not stopped after MAX_TERMS terms is a failure, never a hang. Returns the value
  * and the number of terms used; `release` unbinds the index before a failure is raised.
  */
@@ -80,7 +81,8 @@ function runInfinite(
       if (kind === 'sum') {
         acc = add(acc, t, P);
         size = abs(t);
-        small = t.m === 0n || (acc.m !== 0n && magnitude(t) <= magnitude(acc) - tol - 1);
+        // nothing is small against a sum that is still exactly 0 (leading zero terms)
+        small = acc.m !== 0n && (t.m === 0n || magnitude(t) <= magnitude(acc) - tol - 1);
       } else {
         if (t.m === 0n) return [ZERO, used];
         acc = mul(acc, t, P);
@@ -105,7 +107,12 @@ export function compileIndexed(
   arity(kind, args, 4);
   const [termNode, index, fromNode, toNode] = args as [MathNode, MathNode, MathNode, MathNode];
   const name = (index as unknown as { name?: string }).name;
-  if (index.type !== 'SymbolNode' || !name || ['inf', 'kappa', 'pi', 'e'].includes(name)) {
+  if (
+    index.type !== 'SymbolNode' ||
+    !name ||
+    scope.has(name) ||
+    ['inf', 'kappa', 'pi', 'e'].includes(name)
+  ) {
     throw new EngineError(`${kind}: the second argument must be a new index name`);
   }
   const lo = infinity(fromNode);
