@@ -7,7 +7,7 @@ import { abs, cmp, div, fromInt, mul, mulInt, ONE, Real, sign, sqrt, sub, ZERO }
 import { integerValue } from './arith.js';
 import { notDefined, overflow, pole } from './failure.js';
 import { compileIndexed, compileQpoch } from './loops.js';
-import { special } from './specials.js';
+import * as special from '../special/index.js';
 import { arity, Compiled, Compiler, readsOf, Scope } from './types.js';
 
 type Fn1 = (x: Real, W: number) => Real;
@@ -72,69 +72,55 @@ function binom(x: Real, kr: Real, W: number): Real {
 }
 
 /** gamma, refusing its poles at 0, -1, -2, ... */
-function gamma(): Fn1 {
-  const g = special('gamma', 'gamma');
-  return (x, W) => {
-    const n = integerValue(x);
-    if (n !== null && n <= 0) throw pole('gamma at a non-positive integer');
-    return g(x, W);
-  };
+function gammaFn(x: Real, W: number): Real {
+  const n = integerValue(x);
+  if (n !== null && n <= 0) throw pole('gamma at a non-positive integer');
+  return special.gamma(x, W);
 }
 
 /** zeta, refusing its pole at 1. */
-function zeta(): Fn1 {
-  const z = special('zeta', 'zeta');
-  return (x, W) => {
-    if (cmp(x, ONE) === 0) throw pole('zeta at 1');
-    return z(x, W);
-  };
+function zetaFn(x: Real, W: number): Real {
+  if (cmp(x, ONE) === 0) throw pole('zeta at 1');
+  return special.zeta(x, W);
 }
 
 /** K(k), refusing its logarithmic pole at k = 1. */
-function ellipticK(): Fn1 {
-  const K = special('ellipticK', 'ellk');
-  return (k, W) => {
-    if (cmp(k, ONE) === 0) throw pole('ellk at modulus 1');
-    return K(k, W);
-  };
+function ellipticK(k: Real, W: number): Real {
+  if (cmp(k, ONE) === 0) throw pole('ellk at modulus 1');
+  return special.ellipticK(k, W);
 }
 
-/**
- * Functions of one argument, each made when a call is compiled (the special functions then
- * answer "not available yet" while their module lacks them).
- */
-const UNARY: Record<string, () => Fn1> = {
-  sqrt: () => squareRoot,
-  exp: () => exponential,
-  log: () => logarithm,
-  sinh: () => viaExp(sinh),
-  cosh: () => viaExp(cosh),
-  tanh: () => tanh,
-  abs: () => (x) => abs(x),
-  factorial: () => factorial,
-  sin: () => special('sin', 'sin'),
-  cos: () => special('cos', 'cos'),
-  tan: () => special('tan', 'tan'),
-  atan: () => special('atan', 'atan'),
-  gamma,
-  zeta,
-  ai: () => special('airyAi', 'ai'),
+/** Functions of one argument. */
+const UNARY: Record<string, Fn1> = {
+  sqrt: squareRoot,
+  exp: exponential,
+  log: logarithm,
+  sinh: viaExp(sinh),
+  cosh: viaExp(cosh),
+  tanh,
+  abs: (x) => abs(x),
+  factorial,
+  sin: special.sin,
+  cos: special.cos,
+  tan: special.tan,
+  atan: special.atan,
+  gamma: gammaFn,
+  zeta: zetaFn,
+  ai: special.airyAi,
   ellk: ellipticK,
-  elle: () => special('ellipticE', 'elle'),
-  nome: () => special('nomeOfModulus', 'nome'),
-  modulus: () => special('modulusOfNome', 'modulus'),
+  elle: special.ellipticE,
+  nome: special.nomeOfModulus,
+  modulus: special.modulusOfNome,
 };
 
-function theta(which: 1 | 2 | 3 | 4): () => Fn2 {
-  return () => {
-    const t = special('theta', `theta${which}`);
-    return (z, q, W) => t(which, z, q, W);
-  };
-}
+const theta =
+  (which: 1 | 2 | 3 | 4): Fn2 =>
+  (z, q, W) =>
+    special.theta(which, z, q, W);
 
 /** Functions of two arguments. */
-const BINARY: Record<string, () => Fn2> = {
-  binom: () => binom,
+const BINARY: Record<string, Fn2> = {
+  binom,
   theta1: theta(1),
   theta2: theta(2),
   theta3: theta(3),
@@ -169,7 +155,7 @@ export function compileCall(
   const unary = UNARY[name];
   if (unary) {
     arity(name, args, 1);
-    const f = unary();
+    const f = unary;
     const a = c.compile(args[0]!, scope);
     const code = a.code;
     return { code: (env) => f(code(env), W), reads: a.reads };
@@ -177,7 +163,7 @@ export function compileCall(
   const binary = BINARY[name];
   if (binary) {
     arity(name, args, 2);
-    const f = binary();
+    const f = binary;
     const a = c.compile(args[0]!, scope);
     const b = c.compile(args[1]!, scope);
     const ca = a.code;
