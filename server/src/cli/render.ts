@@ -1,8 +1,38 @@
 import { classRowJsonText } from '@traceloom/shared';
 import type { ClassRowJson, ComputeResult, ValueJson } from '@traceloom/shared';
+import {
+  isNumericResult,
+  isNumericValue,
+  isNumericVerdict,
+  numericText,
+  type AnyRowVerdict,
+  type AnyValue,
+  type AnyWeightVerdict,
+} from '../compute/numeric-values.js';
+import {
+  airyRows,
+  airyTableLines,
+  airyTitle,
+  alignColumns,
+  closedFormText,
+  decimalLatex,
+  hasRecognition,
+  numericCaution,
+  numericCells,
+  numericHeading,
+  numericLatex,
+  numericVerdictLine,
+} from './render-numeric.js';
 
-/** Text of a result value in the expression language, e.g. `1 + 2*q^(1/2) + O(q^5)`. */
-export function valueText(v: ValueJson, variable: string): string {
+/**
+ * Text of a result value: a series in the expression language, e.g. `1 + 2*q^(1/2) + O(q^5)`;
+ * a numeric value as its determined digits and error, `0.0123 ± 3e-21`.
+ */
+export function valueText(v: AnyValue, variable: string): string {
+  return isNumericValue(v) ? numericText(v) : seriesText(v, variable);
+}
+
+function seriesText(v: ValueJson, variable: string): string {
   const pow = (e: string): string =>
     e === '1' ? variable : /^\d+$/.test(e) ? `${variable}^${e}` : `${variable}^(${e})`;
   const parts: string[] = [];
@@ -18,8 +48,12 @@ export function valueText(v: ValueJson, variable: string): string {
   return s.startsWith('+ ') ? s.slice(2) : `-${s.slice(2)}`;
 }
 
-/** LaTeX of a result value (fractions as \tfrac). */
-export function valueLatex(v: ValueJson, variable: string): string {
+/** LaTeX of a result value (fractions as \tfrac; a numeric value with \pm its error). */
+export function valueLatex(v: AnyValue, variable: string): string {
+  return isNumericValue(v) ? numericLatex(v) : seriesLatex(v, variable);
+}
+
+function seriesLatex(v: ValueJson, variable: string): string {
   const num = (c: string): string => {
     const [n, d] = c.split('/');
     return d === undefined ? n! : `\\tfrac{${n}}{${d}}`;
@@ -43,19 +77,12 @@ const cycleText = (ct: [number, number][]): string => ct.map(([L, m]) => `${L}^$
 /** A cell that a spreadsheet will not run as a formula (numbers stay numbers). */
 export function csvCell(s: string): string {
   let t = s;
-  if (/^[=+\-@\t\r]/.test(t) && !/^-?\d+(\/\d+)?$/.test(t)) t = `'${t}`;
+  if (/^[=+\-@\t\r]/.test(t) && !/^-?\d+(\/\d+|(\.\d+)?([eE][+-]?\d+)?)$/.test(t)) t = `'${t}`;
   return /[",\n\r]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
 }
 
-function verdictLine(
-  label: string,
-  k: number,
-  v: {
-    agrees: boolean;
-    agreesBelow: string | null;
-    firstMismatch: { exponent: string; expected: string; found: string } | null;
-  },
-): string {
+function verdictLine(label: string, k: number, v: AnyRowVerdict | AnyWeightVerdict): string {
+  if (isNumericVerdict(v)) return numericVerdictLine(label, k, v);
   const below = v.agreesBelow === null ? 'exactly' : `below exponent ${v.agreesBelow}`;
   if (v.agrees) return `${label} ${k}: agrees ${below}`;
   const m = v.firstMismatch!;
@@ -73,8 +100,9 @@ function checkLines(r: ComputeResult): string[] {
   return out;
 }
 
-/** Aligned plain-text tables: canonical table, class table, checks. */
+/** Aligned plain-text tables: canonical table, class table, checks (numeric: with errors). */
 export function renderTable(r: ComputeResult): string {
+  if (isNumericResult(r)) return numericTable(r);
   const x = r.spec.variable;
   const lines: string[] = [];
   lines.push(`${r.spec.title ?? 'gas'} — ${r.spec.statistics}s, order ${r.spec.order ?? 'exact'}`);
@@ -104,8 +132,12 @@ export function renderTable(r: ComputeResult): string {
   return lines.join('\n') + '\n';
 }
 
-/** CSV: the canonical table, then (after a blank line) the class table when there is one. */
+/**
+ * CSV: the canonical table, then (after a blank line) the class table when there is one. A
+ * numeric result has an error column beside each value, its closed forms and its Airy fit.
+ */
 export function renderCsv(r: ComputeResult): string {
+  if (isNumericResult(r)) return numericCsv(r);
   const x = r.spec.variable;
   const lines = ['N,Z(N),routes,agree'];
   for (const c of r.canonical) {
@@ -128,8 +160,9 @@ export function renderCsv(r: ComputeResult): string {
   return lines.join('\n') + '\n';
 }
 
-/** LaTeX (booktabs) tables of the canonical table and the class table. */
+/** LaTeX (booktabs) tables of the canonical table and the class table (numeric: with errors). */
 export function renderLatex(r: ComputeResult): string {
+  if (isNumericResult(r)) return numericLatexTables(r);
   const x = r.spec.variable;
   const out = ['\\begin{tabular}{rl}', '\\toprule', `$N$ & $Z(N)$ \\\\`, '\\midrule'];
   for (const c of r.canonical) out.push(`${c.N} & $${valueLatex(c.value, x)}$ \\\\`);
@@ -150,6 +183,121 @@ export function renderLatex(r: ComputeResult): string {
     }
     out.push('\\bottomrule', '\\end{tabular}');
   }
+  return out.join('\n') + '\n';
+}
+
+/** The numeric canonical table: determined digits, ± error, routes, closed form. */
+function numericTable(r: ComputeResult): string {
+  const lines = [numericHeading(r), ''];
+  const recognize = hasRecognition(r);
+  const head = ['N', 'routes', 'agree', 'Z(N)', '± error', ...(recognize ? ['closed form'] : [])];
+  const rows = r.canonical.map((c) => [
+    String(c.N),
+    c.routes.join('+'),
+    c.agrees ? 'yes' : 'NO',
+    ...numericCells(c.value),
+    ...(recognize ? [closedFormText(c)] : []),
+  ]);
+  lines.push(...alignColumns(head, rows));
+  if (r.classes.length > 0) {
+    lines.push('', 'class table');
+    const classRows = r.classes.map((c) => [
+      String(c.N),
+      cycleText(c.cycleType),
+      c.size,
+      c.sign > 0 ? '+' : '-',
+      ...numericCells(c.contribution),
+    ]);
+    lines.push(
+      ...alignColumns(['N', 'cycle type', 'size', 'sign', 'contribution', '± error'], classRows),
+    );
+  }
+  const airy = airyTableLines(r);
+  if (airy.length) lines.push('', ...airy);
+  const checks = checkLines(r);
+  if (checks.length) lines.push('', ...checks);
+  const caution = numericCaution(r);
+  if (caution) lines.push('', caution);
+  return lines.join('\n') + '\n';
+}
+
+function numericCsv(r: ComputeResult): string {
+  const recognize = hasRecognition(r);
+  const row = (cells: string[]): string => cells.map(csvCell).join(',');
+  const lines = [
+    row(['N', 'Z(N)', 'error', 'routes', 'agree', ...(recognize ? ['closed form'] : [])]),
+  ];
+  for (const c of r.canonical) {
+    const form = recognize ? [c.recognized?.expression ?? ''] : [];
+    lines.push(
+      row([String(c.N), ...numericCells(c.value), c.routes.join('+'), String(c.agrees), ...form]),
+    );
+  }
+  if (r.classes.length > 0) {
+    lines.push('', row(['N', 'cycle type', 'size', 'sign', 'contribution', 'error']));
+    for (const c of r.classes) {
+      lines.push(
+        row([
+          String(c.N),
+          cycleText(c.cycleType),
+          c.size,
+          String(c.sign),
+          ...numericCells(c.contribution),
+        ]),
+      );
+    }
+  }
+  const fit = r.largeN?.airy;
+  if (fit) {
+    const { params, residuals } = airyRows(fit);
+    lines.push('', row([airyTitle(fit)]), row(['parameter', 'value', 'uncertainty']));
+    for (const p of params) lines.push(row(p));
+    lines.push('', row(['N', 'residual']), ...residuals.map(row));
+  }
+  const caution = numericCaution(r);
+  if (caution) lines.push('', row([caution]));
+  return lines.join('\n') + '\n';
+}
+
+function numericLatexTables(r: ComputeResult): string {
+  const recognize = hasRecognition(r);
+  const out = [
+    `\\begin{tabular}{rll${recognize ? 'l' : ''}}`,
+    '\\toprule',
+    `$N$ & $Z(N)$ & error${recognize ? ' & closed form' : ''} \\\\`,
+    '\\midrule',
+  ];
+  for (const c of r.canonical) {
+    const [real, error] = numericCells(c.value);
+    const form = recognize ? ` & ${c.recognized ? `$${c.recognized.latex}$` : ''}` : '';
+    out.push(`${c.N} & $${decimalLatex(real)}$ & $${decimalLatex(error)}$${form} \\\\`);
+  }
+  out.push('\\bottomrule', '\\end{tabular}');
+  if (r.classes.length > 0) {
+    out.push('', '\\begin{tabular}{rlrrll}', '\\toprule');
+    out.push('$N$ & cycle type & size & sign & contribution & error \\\\', '\\midrule');
+    for (const c of r.classes) {
+      const ct = c.cycleType.map(([L, m]) => `${L}^{${m}}`).join('\\,');
+      const [real, error] = numericCells(c.contribution);
+      out.push(
+        `${c.N} & $${ct}$ & ${c.size} & $${c.sign > 0 ? '+' : '-'}$ & $${decimalLatex(real)}$ & $${decimalLatex(error)}$ \\\\`,
+      );
+    }
+    out.push('\\bottomrule', '\\end{tabular}');
+  }
+  const fit = r.largeN?.airy;
+  if (fit) {
+    const { params, residuals } = airyRows(fit);
+    out.push('', `% ${airyTitle(fit)}`, '\\begin{tabular}{lrr}', '\\toprule');
+    out.push('parameter & value & uncertainty \\\\', '\\midrule');
+    for (const [k, v, u] of params)
+      out.push(`$${k}$ & $${decimalLatex(v!)}$ & $${decimalLatex(u!)}$ \\\\`);
+    out.push('\\midrule', '$N$ & residual & \\\\');
+    for (const [n, res] of residuals) out.push(`${n} & $${decimalLatex(res!)}$ & \\\\`);
+    out.push('\\bottomrule', '\\end{tabular}');
+  }
+  const caution = numericCaution(r);
+  if (caution) out.push('', `% ${caution.replace(/[\r\n]+/g, ' ')}`);
   return out.join('\n') + '\n';
 }
 

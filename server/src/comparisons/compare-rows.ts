@@ -2,17 +2,27 @@ import Fraction from 'fraction.js';
 import {
   add,
   compareSeries,
+  compute,
+  EngineError,
   evaluateSeries,
   mul,
   Series,
+  type GasSpec,
   type ValueJson,
   type Verdict,
 } from '@traceloom/shared/engine';
+import type { NumericVerdict } from '../compute/numeric-values.js';
 
-/** A row verdict as the API gives it. */
-export interface RowVerdictDto extends Verdict {
+/** A series row verdict as the API gives it. */
+export interface SeriesRowVerdictDto extends Verdict {
   N: number;
 }
+
+/** A numeric row verdict: computed and supplied values compared within the combined tolerance. */
+export type NumericRowVerdictDto = NumericVerdict & { N: number };
+
+/** A row verdict as the API gives it (series, or numeric with its tolerance). */
+export type RowVerdictDto = SeriesRowVerdictDto | NumericRowVerdictDto;
 
 /** A reference row as stored: its file line, N, the value expression and a note. */
 export interface ReferenceRow {
@@ -66,4 +76,41 @@ export function compareReferenceRows(task: CompareTask): RowVerdictDto[] {
     const found = evaluateSeries(row.value, options(`line ${row.line}`, row.N));
     return { N: row.N, ...compareSeries(mul(factor, z, cap), found) };
   });
+}
+
+/** What the worker needs to compare a numeric run with a reference table. */
+export interface NumericCompareTask {
+  /** The run's numeric spec (precision and `at` as it was computed). */
+  spec: GasSpec;
+  normalization: string;
+  rows: ReferenceRow[];
+}
+
+/**
+ * Numeric verdicts: the run's spec is computed again up to the largest N of the table, with the
+ * table as its reference, so the engine's numeric reference check compares normalization(N) *
+ * Z(N) with each row within the combined error (a decimal row is known to half a unit of its
+ * last printed digit). Errors name the row's line or `normalization`.
+ */
+export function compareReferenceRowsNumeric(task: NumericCompareTask): NumericRowVerdictDto[] {
+  const nMax = Math.max(0, ...task.rows.map((r) => r.N));
+  const { grand: _g, recognize: _r, ...rest } = task.spec;
+  const spec = {
+    ...rest,
+    nMax,
+    classTable: 0,
+    reference: {
+      normalization: task.normalization,
+      rows: task.rows.map(({ N, value }) => ({ N, value })),
+    },
+  };
+  try {
+    return (compute(spec).referenceCheck ?? []) as NumericRowVerdictDto[];
+  } catch (e) {
+    if (!(e instanceof EngineError)) throw e;
+    const row = /^reference\.rows\.(\d+)/.exec(e.field ?? '');
+    if (row) throw new EngineError(e.message, `line ${task.rows[Number(row[1])]!.line}`);
+    if (e.field === 'reference.normalization') throw new EngineError(e.message, 'normalization');
+    throw e;
+  }
 }

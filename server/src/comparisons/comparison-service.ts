@@ -1,6 +1,8 @@
+import type { ValueJson } from '@traceloom/shared/engine';
 import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
+import { isNumericResult, isNumericVerdict } from '../compute/numeric-values.js';
 import { computeServices } from '../compute/services.js';
 import { Comparison } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
@@ -8,6 +10,7 @@ import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import type { WorkerRefusal } from '../runs/worker.js';
 import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import { isNumericTable } from '../references/reference-parse.js';
 import { loadVisibleReference } from '../references/reference-service.js';
 import type { ReferenceRow, RowVerdictDto } from './compare-rows.js';
 
@@ -26,10 +29,13 @@ export interface ComparisonDto {
   createdAt: string;
 }
 
-const comparisonBodySchema = z.union([
-  z.strictObject({ referenceId: z.uuid({ error: 'must be an identifier (UUID)' }) }),
-  z.strictObject({ grand: z.literal(true, { error: 'must be true' }) }),
-], { error: 'send {referenceId} or {grand: true}' });
+const comparisonBodySchema = z.union(
+  [
+    z.strictObject({ referenceId: z.uuid({ error: 'must be an identifier (UUID)' }) }),
+    z.strictObject({ grand: z.literal(true, { error: 'must be true' }) }),
+  ],
+  { error: 'send {referenceId} or {grand: true}' },
+);
 
 function toDto(c: Comparison, runId: string): ComparisonDto {
   const rows = JSON.parse(c.verdicts) as RowVerdictDto[];
@@ -66,13 +72,34 @@ export async function createComparison(
   let referenceId: string | null = null;
   if ('grand' in input) {
     if (!result.grandCheck) {
-      throw new AppError(409, 'no_grand_check', "This run's gas states no grand function to check.", 'grand');
+      throw new AppError(
+        409,
+        'no_grand_check',
+        "This run's gas states no grand function to check.",
+        'grand',
+      );
     }
-    rows = result.grandCheck.map(({ N, agrees, agreesBelow, firstMismatch }) => ({ N, agrees, agreesBelow, firstMismatch }));
+    rows = result.grandCheck.map((v) =>
+      isNumericVerdict(v)
+        ? {
+            N: v.N,
+            agrees: v.agrees,
+            tolerance: v.tolerance,
+            difference: v.difference,
+            computed: v.computed,
+            supplied: v.supplied,
+          }
+        : { N: v.N, agrees: v.agrees, agreesBelow: v.agreesBelow, firstMismatch: v.firstMismatch },
+    );
   } else {
     const table = await loadVisibleReference(ctx, actor, input.referenceId, 'referenceId');
     if (table.study.id !== run.gas.study.id) {
-      throw new AppError(400, 'invalid_input', 'referenceId: the table belongs to another study.', 'referenceId');
+      throw new AppError(
+        400,
+        'invalid_input',
+        'referenceId: the table belongs to another study.',
+        'referenceId',
+      );
     }
     referenceId = table.id;
     normalization = table.normalization;
@@ -80,25 +107,54 @@ export async function createComparison(
     const nMax = result.canonical.length - 1;
     const beyond = refRows.find((r) => r.N > nMax);
     if (beyond) {
-      throw new AppError(400, 'invalid_input', `referenceId: line ${beyond.line} has N = ${beyond.N}, beyond this run's nMax = ${nMax}.`, 'referenceId');
+      throw new AppError(
+        400,
+        'invalid_input',
+        `referenceId: line ${beyond.line} has N = ${beyond.N}, beyond this run's nMax = ${nMax}.`,
+        'referenceId',
+      );
     }
     if (table.variable !== result.spec.variable) {
-      throw new AppError(400, 'invalid_input', `referenceId: the table is in ${table.variable}, the run in ${result.spec.variable}.`, 'referenceId');
+      throw new AppError(
+        400,
+        'invalid_input',
+        `referenceId: the table is in ${table.variable}, the run in ${result.spec.variable}.`,
+        'referenceId',
+      );
     }
-    const output = (await computeServices(ctx).pools.quick.run(
-      {
-        kind: 'compare',
-        canonical: result.canonical.map((row) => row.value),
-        variable: result.spec.variable,
-        order: result.spec.order,
-        normalization,
-        rows: refRows,
-      },
-      { signal: AbortSignal.timeout(COMPARE_LIMIT_MS) },
+    const numeric = isNumericResult(result);
+    if (!numeric && isNumericTable(refRows)) {
+      throw new AppError(
+        400,
+        'invalid_input',
+        'referenceId: the table holds decimal numbers; compare it with a numeric run (a gas with precision, and at for a formula or spectrum).',
+        'referenceId',
+      );
+    }
+    const pools = computeServices(ctx).pools;
+    // A numeric comparison computes the run's spec again (up to the table's largest N) with the
+    // table as its reference: it gets a run's worker and wall-clock limit.
+    const output = (await (numeric ? pools.runs : pools.quick).run(
+      numeric
+        ? { kind: 'compareNumeric', spec: result.spec, normalization, rows: refRows }
+        : {
+            kind: 'compare',
+            canonical: result.canonical.map((row) => row.value as ValueJson),
+            variable: result.spec.variable,
+            order: result.spec.order ?? null,
+            normalization,
+            rows: refRows,
+          },
+      { signal: AbortSignal.timeout(numeric ? ctx.config.runs.wallClockMs : COMPARE_LIMIT_MS) },
     )) as { ok: true; rows: RowVerdictDto[] } | WorkerRefusal;
     if (!output.ok) {
       const field = output.field === 'normalization' ? 'normalization' : 'referenceId';
-      throw new AppError(400, 'invalid_input', `${output.field ?? 'reference'}: ${output.message}.`, field);
+      throw new AppError(
+        400,
+        'invalid_input',
+        `${output.field ?? 'reference'}: ${output.message}.`,
+        field,
+      );
     }
     rows = output.rows;
   }
@@ -120,14 +176,26 @@ export async function createComparison(
       action: 'comparison.create',
       targetType: 'comparison',
       targetId: saved.id,
-      detail: { runId, referenceId, agreeing: rows.filter((r) => r.agrees).length, total: rows.length },
+      detail: {
+        runId,
+        referenceId,
+        agreeing: rows.filter((r) => r.agrees).length,
+        total: rows.length,
+      },
     });
-    return toDto(await repo.findOneOrFail({ where: { id: saved.id }, relations: { reference: true } }), runId);
+    return toDto(
+      await repo.findOneOrFail({ where: { id: saved.id }, relations: { reference: true } }),
+      runId,
+    );
   });
 }
 
 /** The comparisons of a run, oldest first. */
-export async function listComparisons(ctx: AppContext, actor: Actor, runId: string): Promise<ComparisonDto[]> {
+export async function listComparisons(
+  ctx: AppContext,
+  actor: Actor,
+  runId: string,
+): Promise<ComparisonDto[]> {
   await loadVisibleRun(ctx, actor, runId);
   const list = await ctx.dataSource.getRepository(Comparison).find({
     where: { run: { id: runId } },

@@ -1,14 +1,21 @@
 import type { DatasetCheckDto } from '@traceloom/shared/api';
 import type { DatasetWaiver } from '../db/entities/index.js';
+import { isNumericVerdict, type NumericVerdict } from '../compute/numeric-values.js';
 import type { DatasetSnapshot } from './snapshot.js';
 
-interface VerdictLike {
+interface SeriesVerdictLike {
   agrees: boolean;
   agreesBelow: string | null;
   firstMismatch: { exponent: string; expected: string; found: string } | null;
 }
 
-function verdictDetail(v: VerdictLike): string {
+/** A verdict's detail: where a series agrees, or within which tolerance a number does. */
+function verdictDetail(v: SeriesVerdictLike | NumericVerdict): string {
+  if (isNumericVerdict(v)) {
+    return v.agrees
+      ? `agrees within ${v.tolerance} (difference ${v.difference})`
+      : `differs by ${v.difference}, beyond the tolerance ${v.tolerance}: computed ${v.computed.real} ± ${v.computed.error}, supplied ${v.supplied.real} ± ${v.supplied.error}`;
+  }
   if (v.agrees) {
     return v.agreesBelow === null ? 'agrees exactly' : `agrees below exponent ${v.agreesBelow}`;
   }
@@ -23,6 +30,7 @@ const ROUTE_NAMES: Record<string, string> = {
   recursion: 'Newton recursion',
   classSum: 'class sum',
   product: 'product form',
+  fredholm: 'Fredholm determinant',
 };
 
 type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean };
@@ -34,6 +42,7 @@ type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean }
  */
 function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
   const r = snapshot.result;
+  const numeric = r.numeric !== undefined;
   const rows: CheckRow[] = [];
   for (const c of r.canonical) {
     if (c.routes.length < 2) continue;
@@ -42,7 +51,13 @@ function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
       label: `Z(N) by ${c.routes.map((r) => ROUTE_NAMES[r] ?? r).join(', ')}`,
       N: c.N,
       agrees: c.agrees,
-      detail: c.agrees ? 'the routes agree term by term' : 'the routes disagree',
+      detail: numeric
+        ? c.agrees
+          ? 'the routes agree within their errors'
+          : 'the routes differ by more than their errors'
+        : c.agrees
+          ? 'the routes agree term by term'
+          : 'the routes disagree',
     });
   }
   for (const v of r.grandCheck ?? []) {

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import canonicalizeModule from 'canonicalize';
 import type { DatasetCheckDto, DatasetPersonDto } from '@traceloom/shared/api';
 import { csvCell, renderCsv, renderLatex } from '../cli/render.js';
+import { knownSentence } from '../compute/numeric-values.js';
 import type { Dataset } from '../db/entities/index.js';
 import { datasetChecks } from './dataset-checks.js';
 import { person, type DatasetChildren } from './dataset-dto.js';
@@ -101,7 +102,8 @@ export interface ExportHeading {
 }
 
 /**
- * CSV of a dataset: metadata rows (title, version, locked, hash), a blank line, then the
+ * CSV of a dataset: metadata rows (title, version, locked, hash, what is known of the values:
+ * exact, truncated or numeric with its error estimate), a blank line, then the
  * canonical and class tables. Every cell goes through `csvCell`: text starting with = + - @ TAB
  * CR gets a leading ' (OWASP CSV Injection cheat sheet), numbers stay numbers.
  */
@@ -111,6 +113,7 @@ export function datasetCsv(h: ExportHeading, result: DatasetSnapshot['result']):
     ['version', String(h.version)],
     ['locked', h.lockedAt ?? 'not locked'],
     ['sha256', h.hash ?? 'not locked'],
+    ['values', knownSentence(result)],
   ];
   const head = meta.map((row) => row.map(csvCell).join(',')).join('\n');
   return `${head}\n\n${renderCsv(result)}`;
@@ -121,6 +124,7 @@ export function datasetLatex(h: ExportHeading, result: DatasetSnapshot['result']
   return [
     `% ${latexEscape(h.title)}, version ${h.version}, ${h.lockedAt ? `locked ${h.lockedAt}` : 'not locked'}`,
     `% SHA-256 ${h.hash ?? '(not locked)'}`,
+    `% values: ${latexEscape(knownSentence(result))}`,
     '% needs \\usepackage{booktabs}',
     renderLatex(result),
   ].join('\n');

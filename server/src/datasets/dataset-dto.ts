@@ -10,7 +10,8 @@ import {
 } from '../db/entities/index.js';
 import type { Actor } from '../http/route-table.js';
 import { datasetChecks } from './dataset-checks.js';
-import { readSnapshot } from './snapshot.js';
+import { knownSentence } from '../compute/numeric-values.js';
+import { canonicalRows, readSnapshot, snapshotOrder } from './snapshot.js';
 
 /** A person as datasets name them (no e-mail: exports and the public page carry these). */
 export function person(user: Pick<User, 'id' | 'displayName'>): DatasetPersonDto {
@@ -117,9 +118,11 @@ export async function toDatasetDto(
       run: snapshot.run,
       statistics: snapshot.spec.statistics,
       variable: snapshot.spec.variable,
-      order: snapshot.result.canonical[0]?.value.order ?? null,
+      order: snapshotOrder(snapshot),
       nMax: snapshot.result.canonical.length - 1,
-      canonical: snapshot.result.canonical.map(({ N, value }) => ({ N, value })),
+      precision: snapshot.result.numeric?.precision ?? snapshot.spec.precision ?? null,
+      known: knownSentence(snapshot.result),
+      canonical: canonicalRows(snapshot),
     },
     checks: datasetChecks(snapshot, children.waivers),
     reviewRequests: children.requests.map((r) => ({

@@ -4,6 +4,8 @@ import type { ComputeResult } from '@traceloom/shared/engine';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { computeServices } from '../compute/services.js';
+import { numericMismatches } from './numeric-verify.js';
+import { isNumericResult } from '../compute/numeric-values.js';
 import { Dataset } from '../db/entities/index.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
@@ -114,7 +116,7 @@ export async function withdrawDataset(
 }
 
 /** Parts of a result that must come out the same when the spec is computed again. */
-const COMPARED = [
+export const COMPARED = [
   'spec',
   'weights',
   'canonical',
@@ -126,10 +128,11 @@ const COMPARED = [
   'truncations',
 ] as const;
 
-function keyed(section: string, value: unknown): Map<string, string> {
-  const out = new Map<string, string>();
+/** A section's rows by a readable key ("canonical N = 3"; a non-list section is one row). */
+export function rowsByKey(section: string, value: unknown): Map<string, unknown> {
+  const out = new Map<string, unknown>();
   if (!Array.isArray(value)) {
-    out.set(section, canonicalHash(value ?? null).canonical);
+    out.set(section, value ?? null);
     return out;
   }
   const counts = new Map<string, number>();
@@ -138,13 +141,20 @@ function keyed(section: string, value: unknown): Map<string, string> {
       'N' in row ? `${section} N = ${row.N}` : 'L' in row ? `${section} L = ${row.L}` : section;
     const k = (counts.get(base) ?? 0) + 1;
     counts.set(base, k);
-    out.set(k > 1 ? `${base} #${k}` : base, canonicalHash(row).canonical);
+    out.set(k > 1 ? `${base} #${k}` : base, row);
   }
+  return out;
+}
+
+function keyed(section: string, value: unknown): Map<string, string> {
+  const out = new Map<string, string>();
+  for (const [k, row] of rowsByKey(section, value)) out.set(k, canonicalHash(row).canonical);
   return out;
 }
 
 /** The places where two results differ (timings are not compared). */
 export function resultMismatches(stored: ComputeResult, fresh: ComputeResult): string[] {
+  if (isNumericResult(stored) || isNumericResult(fresh)) return numericMismatches(stored, fresh);
   const out: string[] = [];
   for (const section of COMPARED) {
     const a = keyed(section, stored[section]);
@@ -165,7 +175,8 @@ export function resultMismatches(stored: ComputeResult, fresh: ComputeResult): s
 
 /**
  * `POST /datasets/:id/verify`: computes the stored spec again with the engine (in the run worker
- * pool) and compares every part of the result but timings with the stored one; for a locked
+ * pool) and compares every part of the result but timings with the stored one (numeric values
+ * within their combined error, everything else exactly); for a locked
  * dataset also checks that the stored canonical text still hashes to the lock hash.
  */
 export async function verifyDataset(ctx: AppContext, actor: Actor, datasetId: string) {

@@ -1,4 +1,5 @@
-import type { ComputeResult, GasSpec, ValueJson } from '@traceloom/shared/engine';
+import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
+import { isNumericValue, type AnyValue } from '../compute/numeric-values.js';
 import type { ComparisonDto } from '../comparisons/comparison-service.js';
 
 /** What a dataset freezes of its run: stored as JSON text in `dataset.snapshot`. */
@@ -16,7 +17,13 @@ export function readSnapshot(text: string): DatasetSnapshot {
   return JSON.parse(text) as DatasetSnapshot;
 }
 
-/** Z(N) rows of a snapshot, as the dataset page shows them. */
-export function canonicalRows(snapshot: DatasetSnapshot): Array<{ N: number; value: ValueJson }> {
+/** Z(N) rows of a snapshot, as the dataset page shows them (series or numeric values). */
+export function canonicalRows(snapshot: DatasetSnapshot): Array<{ N: number; value: AnyValue }> {
   return snapshot.result.canonical.map(({ N, value }) => ({ N, value }));
+}
+
+/** The series order of a snapshot's table; null when exact or numeric (numeric has no order). */
+export function snapshotOrder(snapshot: DatasetSnapshot): string | null {
+  const first = snapshot.result.canonical[0]?.value;
+  return first && !isNumericValue(first) ? first.order : null;
 }

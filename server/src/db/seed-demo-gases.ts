@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { gzipSync } from 'node:zlib';
-import { compute, type GasSpecInput } from '@traceloom/shared/engine';
+import { compute, type GasSpecInput, type ValueJson } from '@traceloom/shared/engine';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/record-audit.js';
 import { compareReferenceRows } from '../comparisons/compare-rows.js';
@@ -138,9 +138,9 @@ export async function seedDemoGases(dataSource: DataSource, studyId: string, aut
       createdAt: now,
     });
     const rows = compareReferenceRows({
-      canonical: trap.result.canonical.map((row) => row.value),
+      canonical: trap.result.canonical.map((row) => row.value as ValueJson),
       variable: 'q',
-      order: trap.result.spec.order,
+      order: trap.result.spec.order ?? null,
       normalization,
       rows: parsed.rows,
     });

@@ -38,7 +38,8 @@ function assertRationals(raw: unknown): void {
   for (const key of ['step', 'order'] as const) {
     const text = (raw as Record<string, unknown>)[key];
     if (typeof text !== 'string') continue;
-    if (!RATIONAL.test(text)) refuse('must be a rational number such as "3" or "1/2"', `spec.${key}`);
+    if (!RATIONAL.test(text))
+      refuse('must be a rational number such as "3" or "1/2"', `spec.${key}`);
     if (/\/\s*0+\s*$/.test(text)) refuse('has a zero denominator', `spec.${key}`);
   }
 }
@@ -52,6 +53,12 @@ export function specExpressions(spec: GasSpec): Array<[field: string, text: stri
   const w = spec.weights;
   if (w.kind === 'values') w.values.forEach((v, i) => out.push([`weights.values.${i}`, v]));
   else out.push(['weights.expression', w.expression]);
+  if (w.kind === 'kernel') {
+    if (w.from !== null) out.push(['weights.from', w.from]);
+    if (w.to !== null) out.push(['weights.to', w.to]);
+  }
+  for (const [name, text] of Object.entries(spec.at ?? {})) out.push([`at.${name}`, text]);
+  spec.recognize?.basis.forEach((b, i) => out.push([`recognize.basis.${i}`, b]));
   if (spec.grand?.kind === 'coefficients') {
     spec.grand.values.forEach((v, i) => out.push([`grand.values.${i}`, v]));
   } else if (spec.grand) out.push(['grand.expression', spec.grand.expression]);
@@ -105,7 +112,8 @@ export function parseGasBody(body: unknown): GasSpec {
   }
   for (const [field, text] of specExpressions(spec)) assertExpressionShape(text, `spec.${field}`);
   spec.reference?.rows.forEach((row, i) => {
-    if (row.N > spec.nMax) refuse(`is ${row.N}, beyond nMax = ${spec.nMax}`, `spec.reference.rows.${i}.N`);
+    if (row.N > spec.nMax)
+      refuse(`is ${row.N}, beyond nMax = ${spec.nMax}`, `spec.reference.rows.${i}.N`);
   });
   return spec;
 }

@@ -11,19 +11,29 @@ const PROBE_STEPS = 8;
 /** Longest the probe may take; a spec it cannot finish in time is accepted unjudged. */
 const PROBE_MS = 1000;
 
-/** The same gas, cut down to a few N and grid steps. */
+/** Digits a numeric probe computes (the least the gas schema lets a numeric spec ask for). */
+const PROBE_DIGITS = 8;
+
+/** The same gas, cut down to a few N and grid steps (numeric: a few N at few digits). */
 export function probeOf(spec: GasSpec): GasSpec {
-  const step = new Fraction(spec.step);
-  const cap = step.mul(PROBE_STEPS);
-  const order = spec.order === null || new Fraction(spec.order).compare(cap) <= 0 ? spec.order : cap.toFraction();
   const probe: GasSpec = {
     ...spec,
     nMax: Math.min(spec.nMax, PROBE_N),
     classTable: Math.min(spec.classTable, PROBE_N),
-    order,
   };
+  if (spec.precision !== undefined) {
+    probe.precision = Math.min(spec.precision, PROBE_DIGITS);
+  } else {
+    const cap = new Fraction(spec.step).mul(PROBE_STEPS);
+    const order = spec.order ?? null;
+    probe.order =
+      order === null || new Fraction(order).compare(cap) <= 0 ? order : cap.toFraction();
+  }
   if (spec.reference) {
-    probe.reference = { ...spec.reference, rows: spec.reference.rows.filter((row) => row.N <= PROBE_N) };
+    probe.reference = {
+      ...spec.reference,
+      rows: spec.reference.rows.filter((row) => row.N <= PROBE_N),
+    };
   }
   return probe;
 }

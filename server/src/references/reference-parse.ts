@@ -13,9 +13,22 @@ export interface RowError {
   message: string;
 }
 
+/** A decimal number with a point or an exponent: "0.0123", "-1.5e-7" (not "3" or "1/2"). */
+const DECIMAL_NUMBER = /^[+-]?(\d+\.\d*|\.\d+|\d+(\.\d*)?[eE][+-]?\d+)$/;
+
+/**
+ * True when every row's value is a decimal number: a numeric reference, compared with a numeric
+ * run within tolerance, each value known to half a unit of its last printed digit.
+ */
+export function isNumericTable(rows: readonly Pick<ReferenceRow, 'value'>[]): boolean {
+  return rows.length > 0 && rows.every((r) => DECIMAL_NUMBER.test(r.value.trim()));
+}
+
 /** What an uploaded file holds. */
 export interface ParsedReference {
   kind: 'csv' | 'json';
+  /** Every value is a decimal number (see `isNumericTable`). */
+  numeric?: boolean;
   /** Title and normalization a JSON file may carry. */
   title?: string;
   normalization?: string;
@@ -29,6 +42,9 @@ function readRow(line: number, n: unknown, value: unknown, note: unknown): Refer
   if (!/^\d{1,4}$/.test(nText)) return `N must be a whole number from 0 to ${MAX_NMAX}, got "${String(n).slice(0, 40)}"`;
   const N = Number(nText);
   if (N > MAX_NMAX) return `N = ${N} is beyond the largest N of ${MAX_NMAX}`;
+  if (typeof value === 'number') {
+    return 'value must be text: write the number in quotes ("1.25e-3") so that no printed digit is lost';
+  }
   if (typeof value !== 'string' || value.trim() === '') return 'value is empty';
   if (value.length > MAX_EXPRESSION_LENGTH) {
     return `value is ${value.length} characters long; the limit is ${MAX_EXPRESSION_LENGTH}`;
@@ -136,5 +152,7 @@ function fromJson(text: string): ParsedReference {
 export function parseReferenceFile(bytes: Buffer, filename: string, contentType: string): ParsedReference {
   const kind = claimedKind(filename, contentType);
   const text = textContent(bytes, kind);
-  return kind === 'csv' ? fromCsv(text) : fromJson(text);
+  const parsed = kind === 'csv' ? fromCsv(text) : fromJson(text);
+  parsed.numeric = isNumericTable(parsed.rows);
+  return parsed;
 }

@@ -11,7 +11,7 @@ import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { canSee, loadVisibleStudy, STUDY_RELATIONS } from '../studies/study-access.js';
-import type { ParsedReference, RowError } from './reference-parse.js';
+import { isNumericTable, type ParsedReference, type RowError } from './reference-parse.js';
 import { computeServices } from '../compute/services.js';
 import type { WorkerAppError } from '../runs/worker.js';
 import { receiveUpload, type Upload } from './receive-upload.js';
@@ -27,6 +27,8 @@ export interface ReferenceSummary {
   normalization: string;
   variable: string;
   note: string;
+  /** Every value is a decimal number: compared with a numeric run within tolerance. */
+  numeric: boolean;
   rowCount: number;
   createdAt: string;
   createdBy: PersonRef;
@@ -63,6 +65,7 @@ function toSummary(table: ReferenceTable): ReferenceSummary {
     normalization: table.normalization,
     variable: table.variable,
     note: table.note,
+    numeric: isNumericTable(JSON.parse(table.rows) as ReferenceRow[]),
     rowCount: (JSON.parse(table.rows) as unknown[]).length,
     createdAt: table.createdAt,
     createdBy: personRef(table.createdBy),
@@ -118,14 +121,14 @@ export async function uploadReference(
   studyId: string,
   req: Request,
   res: Response,
-): Promise<ReferenceDto | { rows: ReferenceRow[]; errors: RowError[] }> {
+): Promise<ReferenceDto | { rows: ReferenceRow[]; errors: RowError[]; numeric: boolean }> {
   await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
   const { file, fields } = await receiveUpload(req, res, ctx.config.uploadLimitBytes);
   const input = parseInput(uploadFieldsSchema, fields);
   const parsed = await parseInWorker(ctx, file, input.normalization);
   if (req.query.dryRun === '1' || req.query.dryRun === 'true') {
     res.status(200);
-    return { rows: parsed.rows, errors: parsed.errors };
+    return { rows: parsed.rows, errors: parsed.errors, numeric: parsed.numeric ?? false };
   }
   if (parsed.errors.length) firstError(parsed.errors);
   const normalization = parsed.normalization ?? '1';

@@ -1,7 +1,12 @@
 import { gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
 import { compute, EngineError, parseExpression, type Progress } from '@traceloom/shared/engine';
-import { compareReferenceRows, type CompareTask } from '../comparisons/compare-rows.js';
+import {
+  compareReferenceRows,
+  compareReferenceRowsNumeric,
+  type CompareTask,
+  type NumericCompareTask,
+} from '../comparisons/compare-rows.js';
 import { AppError } from '../http/app-error.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
 
@@ -10,7 +15,14 @@ export type WorkerTask =
   | { kind: 'run'; spec: unknown; port: MessagePort }
   | { kind: 'preview'; spec: unknown }
   | ({ kind: 'compare' } & CompareTask)
-  | { kind: 'reference'; bytes: Uint8Array; filename: string; contentType: string; normalization?: string };
+  | ({ kind: 'compareNumeric' } & NumericCompareTask)
+  | {
+      kind: 'reference';
+      bytes: Uint8Array;
+      filename: string;
+      contentType: string;
+      normalization?: string;
+    };
 
 /** An API error raised in the worker, carried back as plain data. */
 export interface WorkerAppError {
@@ -39,7 +51,12 @@ export interface RunOutput {
 function refusal(e: unknown): WorkerRefusal {
   if (e instanceof EngineError) return { ok: false, message: e.message, field: e.field };
   const what = e instanceof Error ? `${e.name}: ${e.message}` : String(e);
-  return { ok: false, message: `the engine failed on this input (${what.slice(0, 200)})`, field: undefined, internal: true };
+  return {
+    ok: false,
+    message: `the engine failed on this input (${what.slice(0, 200)})`,
+    field: undefined,
+    internal: true,
+  };
 }
 
 function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
@@ -63,7 +80,8 @@ function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
 /**
  * The pool's entry point; runs in a worker thread, never on the server's main thread. `run`
  * computes a gas spec with progress sent through `port`; `preview` answers the result itself;
- * `compare` gives reference-row verdicts for a finished run; `reference` reads an uploaded
+ * `compare` gives reference-row verdicts for a finished run (`compareNumeric`: a numeric run,
+ * within tolerance); `reference` reads an uploaded
  * table (content checks, rows, expression syntax).
  */
 export default function work(task: WorkerTask): unknown {
@@ -79,6 +97,12 @@ export default function work(task: WorkerTask): unknown {
     case 'compare':
       try {
         return { ok: true, rows: compareReferenceRows(task) };
+      } catch (e) {
+        return refusal(e);
+      }
+    case 'compareNumeric':
+      try {
+        return { ok: true, rows: compareReferenceRowsNumeric(task) };
       } catch (e) {
         return refusal(e);
       }

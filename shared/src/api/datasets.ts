@@ -129,10 +129,21 @@ export interface DatasetDto extends DatasetSummaryDto {
     run: { id: string; finishedAt: string | null; durationMs: number | null };
     statistics: string;
     variable: string;
+    /** The series order, or null (exact, or a numeric table: see `precision`). */
     order: string | null;
     nMax: number;
-    /** Z(N) rows as the result format gives them. */
-    canonical: Array<{ N: number; value: { order: string | null; terms: [string, string][] } }>;
+    /** Numeric mode: the digits requested (null for a series table). */
+    precision: number | null;
+    /**
+     * What is known of the values, one sentence: "exact (...)", "truncated at O(q^k)" or
+     * "numeric, D digits requested, errors estimated by ...".
+     */
+    known: string;
+    /** Z(N) rows as the result format gives them (a series, or a number with its error). */
+    canonical: Array<{
+      N: number;
+      value: { order: string | null; terms: [string, string][] } | { real: string; error: string };
+    }>;
   };
   checks: DatasetCheckDto[];
   reviewRequests: Array<{ reviewer: DatasetPersonDto; requestedBy: DatasetPersonDto; at: string }>;
