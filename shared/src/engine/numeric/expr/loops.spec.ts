@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { EngineCancelled } from '../../errors.js';
 import type { Truncation } from '../../expr/evaluate.js';
 import { formatDecimal } from '../decimal.js';
 import { bitsFor, fromFraction, fromInt, Real } from '../real.js';
@@ -128,5 +129,19 @@ describe('infinite sums and products (stopped by the 2^-(prec+4) rule)', () => {
     expect(() => at('sum(1/(k - x), k, 0, 3)', ['x'], [fromInt(2)])).toThrow(
       'has a pole at x = 2, k = 2: division by zero',
     );
+  });
+
+  it('calls tick inside long loops and lets a cancellation through unchanged', () => {
+    let ticks = 0;
+    const f = compileNumeric('sum(x/k^2, k, 1, inf)', {
+      names: ['x'],
+      prec: PREC,
+      field,
+      tick: () => {
+        if (++ticks === 50) throw new EngineCancelled();
+      },
+    });
+    expect(() => f([fromInt(1)])).toThrow(EngineCancelled);
+    expect(ticks).toBe(50);
   });
 });
