@@ -19,12 +19,13 @@ export const NO_MPMATH = 'python3 with mpmath is not available: the mpmath cross
 
 /**
  * Evaluate mpmath expressions (Python syntax, `from mpmath import *` in scope) at `dps` digits and
- * return each as a decimal string with `dps` significant digits (mpmath works at 2 dps + 20).
+ * return each as a decimal string with `dps` significant digits (mpmath works at workDps,
+ * 2 dps + 20 unless told).
  */
-export function mpmath(exprs: string[], dps = 50): string[] {
+export function mpmath(exprs: string[], dps = 50, workDps = 2 * dps + 20): string[] {
   const script = [
     'from mpmath import *',
-    `mp.dps = ${2 * dps + 20}`, // doubled: some mpmath routines (jtheta near q = 1) cancel
+    `mp.dps = ${workDps}`, // some mpmath routines (jtheta near q = 1) cancel
     'import sys, json',
     'exprs = json.loads(sys.stdin.read())',
     `print(json.dumps([nstr(eval(e), ${dps}, min_fixed=1, max_fixed=0) for e in exprs]))`,

@@ -83,6 +83,36 @@ describe.skipIf(!hasMpmath)('theta: cross-check against mpmath at 40 digits', ()
     }
   });
 
+  it('matches next to q = 1, where theta decays like e^(-z^2/(pi t)) (mpmath at 900 digits)', () => {
+    // [z, q, indices]: theta_4(0, 0.9999) ~ 2e-10713 is beyond mpmath's jtheta at this precision
+    const cases: [string, string, ThetaIndex[]][] = [
+      ['0.875', '0.99', [1, 2, 3, 4]],
+      ['0.875', '0.999', [1, 2, 3, 4]],
+      ['-2.2', '0.9995', [1, 2, 3, 4]],
+      ['0', '0.9999', [2, 3]],
+      ['1.5', '0.75', [1, 2, 3, 4]],
+    ];
+    const exprs = cases.flatMap(([z, q, js]) =>
+      js.map((j) => `jtheta(${j}, ${py(r(z))}, ${py(r(q))})`),
+    );
+    const want = mpmath(exprs, 45, 900);
+    let i = 0;
+    for (const [z, q, js] of cases) {
+      for (const j of js) expectDigits(theta(j, r(z), r(q), P), want[i++]!, 40);
+    }
+  }, 30_000);
+
+  it('theta_4(0, q) next to q = 1 against its transformed sum evaluated by mpmath', () => {
+    // DLMF 20.7.33 at z = 0: theta_4(0, q) = t^(-1/2) sum_m exp(-pi (m + 1/2)^2 / t), t = -log(q)/pi
+    const q = r('0.9999');
+    const [w] = mpmath(
+      [`(lambda t: nsum(lambda m: exp(-pi*(m+0.5)**2/t), [-inf, inf])/sqrt(t))(-log(${py(q)})/pi)`],
+      45,
+      200,
+    );
+    expectDigits(theta(4, ZERO, q, P), w!, 40);
+  });
+
   it('theta_3(0, e^-pi) closed form', () => {
     const [w] = mpmath(['pi**0.25/gamma(0.75)'], 45);
     const k = sqrt(new Real(1n, -1), P + 20);

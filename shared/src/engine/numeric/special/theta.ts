@@ -17,7 +17,10 @@ import {
   toFixed,
   ZERO,
 } from '../real.js';
+import { thetaNearOne } from './theta-transform.js';
 import { cos, sin } from './trig.js';
+
+const HALF = new Real(1n, -1);
 
 export type ThetaIndex = 1 | 2 | 3 | 4;
 
@@ -95,7 +98,8 @@ function series(
 
 /**
  * Jacobi theta function theta_which(z, q) (DLMF 20.2.1-20.2.4) for real z and 0 <= q < 1, rounded
- * to prec bits relative to the value; next to a zero of theta_1, theta_2 (z = k pi, pi/2 + k pi)
+ * to prec bits relative to the value. For q >= 1/2 the imaginary transformation is used instead
+ * (theta-transform.ts), which keeps relative accuracy as theta decays towards q = 1. Next to a zero of theta_1, theta_2 (z = k pi, pi/2 + k pi)
  * the working precision grows with the cancellation up to about 4 prec extra bits, then the
  * accuracy is absolute. Sums stop by the rule of `series` above: the tail bound (twice the next
  * term, once the term ratio is at most 1/2) below 2^-(prec+8) times the running sum.
@@ -110,6 +114,7 @@ export function theta(which: ThetaIndex, z: Real, q: Real, prec: number): Real {
   }
   if (q.m === 0n) return which <= 2 ? ZERO : ONE;
   if (which === 1 && z.m === 0n) return ZERO;
+  if (cmp(q, HALF) >= 0) return thetaNearOne(which, z, q, prec);
   let w = prec + 24;
   const cap = w + 4 * prec + 64;
   let hint: bigint | null = null;
