@@ -232,6 +232,53 @@ describe('GasEditor', () => {
     );
   });
 
+  it('offers a numeric kernel gas: precision instead of step and order, preview at 10 digits', async () => {
+    vi.useFakeTimers();
+    await render();
+    await type('gas-title', 'line kernel');
+    (el.querySelector('[data-testid="gas-numeric"] button') as HTMLButtonElement).click();
+    await settle();
+    expect(input('gas-step')).toBeNull();
+    expect(input('gas-order')).toBeNull();
+    // formula gases are evaluated at a number in numeric mode
+    expect(input('gas-at').value).toBe('1/10');
+    (el.querySelector('[data-testid="gas-kind-kernel"] input') as HTMLInputElement).click();
+    await settle();
+    expect(input('gas-at')).toBeNull();
+    await type('gas-kernel', '1/(2*pi*cosh((x-y)/2))');
+    await type('gas-recognize-basis', '1\n1/pi');
+    await vi.advanceTimersByTimeAsync(PREVIEW_DEBOUNCE_MS + 10);
+    const preview = http.expectOne('/api/compute');
+    expect(preview.request.body.spec).toMatchObject({
+      precision: 10,
+      nMax: 3,
+      weights: { kind: 'kernel', expression: '1/(2*pi*cosh((x-y)/2))', from: null, to: null },
+    });
+    expect(preview.request.body.spec.recognize).toBeUndefined();
+    preview.flush({
+      weights: [{ L: 1, value: { real: '1.989436789e-2', error: '4e-12' } }],
+      canonical: [
+        { N: 0, value: { real: '1', error: '0' }, routes: ['recursion'], agrees: true },
+        {
+          N: 1,
+          value: { real: '1.989436789e-2', error: '4e-12' },
+          routes: ['recursion'],
+          agrees: true,
+        },
+      ],
+    });
+    await settle();
+    expect(el.querySelector('[data-testid="preview-z-1"] .katex')?.textContent).toContain('±');
+    // a periodic kernel needs both ends: the message lands under the empty end
+    (el.querySelector('[data-testid="gas-kernel-periodic"] button') as HTMLButtonElement).click();
+    await settle();
+    input('gas-kernel-from').dispatchEvent(new Event('blur'));
+    await settle();
+    expect(errorUnder('gas-kernel-from')).toBe(
+      'The lower end a periodic kernel needs both ends of its circle.',
+    );
+  });
+
   it('is read-only for a reviewer', async () => {
     await render('reviewer');
     expect(el.querySelector('[data-testid="gas-read-only"]')).not.toBeNull();

@@ -25,6 +25,7 @@ import { canWriteGases } from './gas-roles';
 import { GasRuns } from '../runs/gas-runs';
 import { errorText } from './field-error';
 import { applyFieldErrors, controlPathFor, fillGasForm, gasForm, specFromForm } from './gas-form';
+import { GasNumericFields } from './gas-numeric-fields';
 import { GasPreview } from './gas-preview';
 import { specProblems } from './gas-validation';
 import { GasVersions } from './gas-versions';
@@ -46,6 +47,7 @@ import { GasWeights } from './gas-weights';
     MatProgressBarModule,
     MatSelectModule,
     RouterLink,
+    GasNumericFields,
     GasPreview,
     GasRuns,
     GasVersions,
@@ -213,6 +215,8 @@ export class GasEditor {
   private hasRequiredGaps(): boolean {
     const check = (c: { hasError(k: string): boolean }) => c.hasError('required');
     const f = this.form.controls;
-    return [f.title, f.variable, f.step, f.nMax].some(check);
+    // Numeric mode has no step; a missing precision is the shared schema's finding.
+    const mode = f.numeric.value ? [] : [f.step];
+    return [f.title, f.variable, f.nMax, ...mode].some(check);
   }
 }

@@ -1,8 +1,9 @@
 import { AbstractControl, FormArray, FormControl, FormGroup, Validators } from '@angular/forms';
 import type { GasSpecInput } from '@traceloom/shared/engine';
+import { numericFormPart, numericSpecPart, kernelWeights } from './gas-numeric';
 
-/** The weight sources a gas may use. */
-export type WeightsKind = 'values' | 'formula' | 'spectrum';
+/** The weight sources a gas may use (a kernel only in numeric mode). */
+export type WeightsKind = 'values' | 'formula' | 'spectrum' | 'kernel';
 /** Whether a grand function is supplied, and how. */
 export type GrandKind = 'none' | 'coefficients' | 'expression';
 
@@ -28,6 +29,17 @@ export function gasForm() {
       from: text(''),
       to: text(''),
     }),
+    kernel: new FormGroup({
+      expression: text(''),
+      from: text(''),
+      to: text(''),
+      periodic: new FormControl(false, { nonNullable: true }),
+    }),
+    numeric: new FormControl(false, { nonNullable: true }),
+    precision: new FormControl<number | null>(30),
+    at: text('1/10'),
+    recognizeBasis: text(''),
+    recognizeMaxHeight: new FormControl<number | null>(null),
     grandKind: new FormControl<GrandKind>('none', { nonNullable: true }),
     grandValues: text(''),
     grandExpression: text(''),
@@ -52,24 +64,25 @@ export function splitLines(textValue: string): string[] {
 /** The `traceloom.gas/1` spec the form describes (not yet validated). */
 export function specFromForm(v: GasFormValue): GasSpecInput {
   const weights =
-    v.weightsKind === 'values'
-      ? { kind: 'values' as const, values: v.values.map((s) => s.trim()) }
-      : v.weightsKind === 'formula'
-        ? { kind: 'formula' as const, expression: v.formula.trim() }
-        : {
-            kind: 'spectrum' as const,
-            expression: v.spectrum.expression.trim(),
-            offset: v.spectrum.offset.trim() || '0',
-            from: orNull(v.spectrum.from),
-            to: orNull(v.spectrum.to),
-          };
+    v.weightsKind === 'kernel'
+      ? kernelWeights(v)
+      : v.weightsKind === 'values'
+        ? { kind: 'values' as const, values: v.values.map((s) => s.trim()) }
+        : v.weightsKind === 'formula'
+          ? { kind: 'formula' as const, expression: v.formula.trim() }
+          : {
+              kind: 'spectrum' as const,
+              expression: v.spectrum.expression.trim(),
+              offset: v.spectrum.offset.trim() || '0',
+              from: orNull(v.spectrum.from),
+              to: orNull(v.spectrum.to),
+            };
   const spec: GasSpecInput = {
     format: 'traceloom.gas/1',
     title: v.title.trim(),
     statistics: v.statistics,
     variable: v.variable.trim(),
-    step: v.step.trim(),
-    order: orNull(v.order),
+    ...(v.numeric ? numericSpecPart(v) : { step: v.step.trim(), order: orNull(v.order) }),
     nMax: v.nMax as number,
     classTable: v.classTable ?? 0,
     weights,
@@ -107,6 +120,7 @@ export function fillGasForm(form: GasForm, spec: GasSpecInput): void {
       from: w.kind === 'spectrum' ? (w.from ?? '') : '',
       to: w.kind === 'spectrum' ? (w.to ?? '') : '',
     },
+    ...numericFormPart(spec),
     grandKind: grand ? grand.kind : 'none',
     grandValues: grand?.kind === 'coefficients' ? grand.values.join('\n') : '',
     grandExpression: grand?.kind === 'expression' ? grand.expression : '',
@@ -120,6 +134,13 @@ export function fillGasForm(form: GasForm, spec: GasSpecInput): void {
 export function controlPathFor(field: string, kind: WeightsKind): string | null {
   const path = field.replace(/^(body\.)?(spec\.)?/, '');
   const [head, second, third] = path.split('.');
+  if (head === 'weights' && kind === 'kernel') {
+    const part = ['expression', 'from', 'to', 'periodic'].includes(second ?? '') ? second : null;
+    return `kernel.${part ?? 'expression'}`;
+  }
+  if (head === 'precision') return 'precision';
+  if (head === 'at') return 'at';
+  if (head === 'recognize') return second === 'maxHeight' ? 'recognizeMaxHeight' : 'recognizeBasis';
   if (head === 'weights') {
     if (second === 'values') return third !== undefined ? `values.${third}` : 'values.0';
     if (second === 'expression') return kind === 'spectrum' ? 'spectrum.expression' : 'formula';

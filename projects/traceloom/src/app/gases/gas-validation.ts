@@ -1,5 +1,6 @@
 import { gasSpecSchema, type GasSpecInput } from '@traceloom/shared/engine';
 import { WeightsKind, controlPathFor } from './gas-form';
+import { numericPreviewSpec } from './gas-numeric';
 
 /** Problems of a spec as the shared schema (the server's own) finds them, by form control. */
 export interface SpecProblems {
@@ -35,6 +36,7 @@ const PREVIEW_STEPS = 200;
  * checks, and an order cut at 200 grid steps so the server's preview caps are never hit.
  */
 export function previewSpec(spec: GasSpecInput): GasSpecInput {
+  if (spec.precision !== undefined) return numericPreviewSpec(spec);
   const { grand: _grand, reference: _reference, ...rest } = spec;
   const step = parseRational(spec.step ?? '1');
   let order = spec.order ?? null;

@@ -5,10 +5,12 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { errorText } from './field-error';
 import { GasForm } from './gas-form';
+import { LINE_KERNEL_EXAMPLE } from './gas-numeric';
 
-/** The weight source (values list, formula in L, spectrum) and the optional grand function. */
+/** The weight source (values list, formula in L, spectrum, kernel) and the optional grand function. */
 @Component({
   selector: 'tl-gas-weights',
   imports: [
@@ -18,6 +20,7 @@ import { GasForm } from './gas-form';
     MatIconModule,
     MatInputModule,
     MatRadioModule,
+    MatSlideToggleModule,
   ],
   templateUrl: './gas-weights.html',
   styleUrl: './gas-weights.scss',
@@ -28,6 +31,7 @@ export class GasWeights {
   readonly readOnly = input(false);
 
   protected readonly errorText = errorText;
+  protected readonly lineKernel = LINE_KERNEL_EXAMPLE;
 
   protected addValue(): void {
     const rows = this.form().controls.values;
