@@ -74,11 +74,72 @@ describe('traceloom compute', () => {
   });
 });
 
+/** The trap at q = 1/10 in numeric mode: Z(2) = q^2/((1-q)(1-q^2)) = 10/891 (Andrews 1976). */
+const numericTrap = JSON.stringify({
+  format: 'traceloom.gas/1',
+  statistics: 'fermion',
+  variable: 'q',
+  precision: 20,
+  at: { q: '1/10' },
+  nMax: 4,
+  recognize: { basis: ['1'] },
+  weights: { kind: 'formula', expression: 'q^(L/2)/(1-q^L)' },
+});
+
+describe('traceloom compute, numeric mode', () => {
+  // 10/891 = 0.011223344556677890011223... (exact); 20 digits, correctly rounded
+  it.each([
+    ['table', /^2\s+recursion\s+yes\s+1\.1223344556677890011e-2\s+\S+\s+10\/891 \(height 891/m],
+    [
+      'csv',
+      /^N,Z\(N\),error,routes,agree,closed form\n[\s\S]*^2,1\.1223344556677890011e-2,[\d.e-]+,recursion,true,10\/891$/m,
+    ],
+    [
+      'latex',
+      /^2 & \$1\.1223344556677890011\\times 10\^\{-2\}\$ & \$[^$]+\$ & \$\\frac\{10\}\{891\}\$ \\\\$/m,
+    ],
+  ])(
+    '--format %s shows the determined digits, the error and the closed form',
+    (format, pattern) => {
+      const r = run(['compute', '-', '--format', format], numericTrap);
+      expect(r.err).toBe('');
+      expect(r.code).toBe(0);
+      expect(r.out).toMatch(pattern);
+      expect(r.out).toContain('caution: Each error is an estimate, not a bound');
+    },
+  );
+
+  it('streams the JSON result with {real, error} values', () => {
+    const r = run(['compute', '-'], numericTrap);
+    expect(r.code).toBe(0);
+    const result = JSON.parse(r.out);
+    expect(result.canonical[2].value.real).toBe('1.1223344556677890011e-2');
+    expect(result.numeric.precision).toBe(20);
+  });
+
+  it.each([
+    [
+      numericTrap.replace('"precision":20', '"precision":200'),
+      /^precision: must be at most 100 digits/,
+    ],
+    [
+      numericTrap.replace('"at":{"q":"1/10"}', '"at":{"x":"1/10"}'),
+      /^at\.x: fixes x, but the variable is q/,
+    ],
+  ])('bad numeric input: exit 2 naming the field', (input, message) => {
+    const r = run(['compute', '-'], input);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(message);
+  });
+});
+
 describe('csv cells (OWASP CSV injection)', () => {
   it.each([
     ['=1+1', "'=1+1"],
     ['-q + 1', "'-q + 1"],
     ['-3/4', '-3/4'],
+    ['-5.0505050505050505051e-2', '-5.0505050505050505051e-2'],
+    ['-1e5+1', "'-1e5+1"],
     ['1 + q, 2', '"1 + q, 2"'],
   ])('%s -> %s', (cell, expected) => {
     expect(csvCell(cell)).toBe(expected);

@@ -90,6 +90,15 @@ export function shownDigits(v: NumericValue): number {
 }
 
 /**
+ * The order a series table is truncated at: the spec's order when any row is truncated, null when
+ * every row is exact (or the table is numeric).
+ */
+export function seriesOrder(r: Pick<ComputeResult, 'spec' | 'canonical'>): string | null {
+  const truncated = r.canonical.some((c) => !isNumericValue(c.value) && c.value.order !== null);
+  return truncated ? (r.spec.order ?? null) : null;
+}
+
+/**
  * One sentence of what is known about a result's values, for dataset headers and exports:
  * exact, truncated at O(x^k), or numeric with the requested digits and how errors were estimated.
  */
@@ -106,10 +115,8 @@ export function knownSentence(r: Pick<ComputeResult, 'spec' | 'numeric' | 'canon
         : 'evaluating at two working precisions and the rounding of every operation';
     return `numeric${at ? ` at ${at}` : ''}, ${digits} digits requested, errors estimated by ${how} (an estimate, not a bound)`;
   }
-  const order = r.spec.order ?? null;
-  const first = r.canonical[0]?.value;
-  const cut = first && !isNumericValue(first) ? first.order : order;
-  if (cut === null || cut === undefined) return 'exact (every coefficient determined)';
+  const cut = seriesOrder(r);
+  if (cut === null) return 'exact (every coefficient determined)';
   const x = r.spec.variable;
   return `truncated at O(${x}^${/^\d+$/.test(cut) ? cut : `(${cut})`})`;
 }

@@ -1,5 +1,5 @@
 import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
-import { isNumericValue, type AnyValue } from '../compute/numeric-values.js';
+import { seriesOrder, type AnyValue } from '../compute/numeric-values.js';
 import type { ComparisonDto } from '../comparisons/comparison-service.js';
 
 /** What a dataset freezes of its run: stored as JSON text in `dataset.snapshot`. */
@@ -24,6 +24,5 @@ export function canonicalRows(snapshot: DatasetSnapshot): Array<{ N: number; val
 
 /** The series order of a snapshot's table; null when exact or numeric (numeric has no order). */
 export function snapshotOrder(snapshot: DatasetSnapshot): string | null {
-  const first = snapshot.result.canonical[0]?.value;
-  return first && !isNumericValue(first) ? first.order : null;
+  return seriesOrder(snapshot.result);
 }
