@@ -29,7 +29,7 @@ import {
 import { ellipticK } from './elliptic.js';
 import { cos, sin } from './trig.js';
 
-let constants: { bits: number; c1: Real; c2: Real; g13: Real } | null = null;
+let constants: { bits: number; c1: Real; c2: Real } | null = null;
 
 /**
  * Gamma(1/3) = (2^(7/3) pi K(k_3) / 3^(1/4))^(1/3) with the singular modulus
@@ -56,7 +56,7 @@ function airyConstants(prec: number): { c1: Real; c2: Real } {
     const three = fromInt(3);
     const c1 = div(mul(powReal(three, fromFraction(-1n, 6n, W), W), g, W), ldexp(pi(W), 1), W);
     const c2 = div(powReal(three, fromFraction(-1n, 3n, W), W), g, W);
-    constants = { bits, c1, c2, g13: g };
+    constants = { bits, c1, c2 };
   }
   return { c1: round(constants.c1, prec), c2: round(constants.c2, prec) };
 }
