@@ -23,8 +23,9 @@ import { plainPower, valueTex } from '../runs/value-format';
 import { ChecksApi, ComparisonDto, ReferenceDto, ReferenceSummary } from './checks-api';
 import { comparisonExport } from './comparison-export';
 import { ReferenceUpload } from './reference-upload';
+import { NumericVerdictRow, NumericVerdicts } from './numeric-verdicts';
 import { VerdictMatrix } from './verdict-matrix';
-import { verdictText } from './verdict-cells';
+import { VerdictLike, isNumericVerdict, verdictText } from './verdict-cells';
 
 /**
  * Everything checked about a run: the grand check matrix with the implied weights, the spec's own
@@ -43,6 +44,7 @@ import { verdictText } from './verdict-cells';
     ExportButtons,
     ReferenceUpload,
     Tex,
+    NumericVerdicts,
     VerdictMatrix,
   ],
   templateUrl: './run-checks.html',
@@ -72,11 +74,32 @@ export class RunChecks {
   /** Roles that may upload references and compare (API contract: all four). */
   protected readonly canCheck = computed(() => this.session.role() !== null);
   protected readonly verdictText = verdictText;
+  /** Numeric run: checks compare within a tolerance instead of coefficient by coefficient. */
+  protected readonly numeric = computed(() => {
+    const r = this.result();
+    const rows: unknown[] = [...(r?.grandCheck ?? []), ...(r?.referenceCheck ?? [])];
+    return this.run().spec.precision !== undefined || rows.some(isNumericVerdict);
+  });
   protected readonly valueTex = valueTex;
   protected readonly comparisonExport = comparisonExport;
 
   constructor() {
     effect(() => this.load(this.run()));
+  }
+
+  /** An implied-weight verdict in words (numeric ones state their tolerance). */
+  protected weightText(w: unknown): string {
+    if (isNumericVerdict(w)) return verdictText(w);
+    const v = w as Omit<VerdictLike, 'N'> & { L: number };
+    return verdictText({ ...v, N: v.L }, this.variable());
+  }
+
+  protected asNumeric(rows: readonly unknown[]): NumericVerdictRow[] {
+    return rows.filter(isNumericVerdict) as NumericVerdictRow[];
+  }
+
+  protected asSeries(rows: readonly unknown[]): VerdictLike[] {
+    return rows.filter((row) => !isNumericVerdict(row)) as VerdictLike[];
   }
 
   protected power(exponent: string): string {

@@ -37,4 +37,20 @@ describe('check matrix cells', () => {
     expect(verdictText(differing)).toBe('differs at q^(3/2): expected 8, found 4');
     expect(verdictText(agreeing)).toBe('agrees to O(q^4)');
   });
+
+  it('states the tolerance of a numeric verdict', () => {
+    // Shapes of the numeric-mode contract: values compared within their combined error.
+    const table: [{ agrees: boolean; tolerance: string; difference?: string }, string][] = [
+      [
+        { agrees: true, tolerance: '3e-28', difference: '1e-30' },
+        'agrees within 3e-28 (difference 1e-30)',
+      ],
+      [{ agrees: true, tolerance: '3e-28' }, 'agrees within 3e-28'],
+      [
+        { agrees: false, tolerance: '3e-28', difference: '2e-5' },
+        'DIFFERS: difference 2e-5 exceeds the tolerance 3e-28',
+      ],
+    ];
+    for (const [row, want] of table) expect(verdictText(row)).toBe(want);
+  });
 });

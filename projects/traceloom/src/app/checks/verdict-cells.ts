@@ -63,8 +63,29 @@ function gcd(a: number, b: number): number {
   return b === 0 ? Math.abs(a) || 1 : gcd(b, a % b);
 }
 
+/** A numeric verdict (numeric mode): computed and supplied values compared within a tolerance. */
+export interface NumericVerdictLike {
+  agrees: boolean;
+  tolerance: string;
+  difference?: string;
+}
+
+/** True for a numeric verdict, which carries the tolerance it was compared within. */
+export function isNumericVerdict(row: unknown): row is NumericVerdictLike {
+  return typeof (row as { tolerance?: unknown } | null)?.tolerance === 'string';
+}
+
+/** A numeric verdict in words, stating the tolerance: `agrees within 3e-28 (difference 1e-30)`. */
+export function numericVerdictText(row: NumericVerdictLike): string {
+  const diff = row.difference ? `difference ${row.difference}` : '';
+  return row.agrees
+    ? `agrees within ${row.tolerance}${diff ? ` (${diff})` : ''}`
+    : `DIFFERS: ${diff || 'difference'} exceeds the tolerance ${row.tolerance}`;
+}
+
 /** A row's verdict in words: `agrees to O(q^40)`, `exact agreement`, `differs at q^3: 8 vs 4`. */
-export function verdictText(row: VerdictLike, variable = 'q'): string {
+export function verdictText(row: VerdictLike | NumericVerdictLike, variable = 'q'): string {
+  if (isNumericVerdict(row)) return numericVerdictText(row);
   if (row.firstMismatch) {
     const m = row.firstMismatch;
     return `differs at ${plainPower(variable, m.exponent) || '1'}: expected ${m.expected}, found ${m.found}`;

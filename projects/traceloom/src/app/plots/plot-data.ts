@@ -1,4 +1,5 @@
 import type { CanonicalRowJson } from '@traceloom/shared/engine';
+import { isNumericValue } from '../runs/numeric-value';
 import { rationalNumber } from '../runs/value-format';
 
 /** A point of a plot. */
@@ -13,14 +14,17 @@ export interface Point {
  * integers do not overflow to Infinity.
  */
 export function coefficientPoints(row: CanonicalRowJson): Point[] {
+  if (isNumericValue(row.value)) return [];
   return row.value.terms.map(([e, c]) => ({ x: rationalNumber(e), y: log10Abs(c) }));
 }
 
 /** Valuation (lowest exponent with a non-zero coefficient) of Z(N) against N. */
 export function valuationPoints(rows: readonly CanonicalRowJson[]): Point[] {
-  return rows
-    .filter((r) => r.value.terms.length > 0)
-    .map((r) => ({ x: r.N, y: rationalNumber(r.value.terms[0]![0]) }));
+  return rows.flatMap((r) =>
+    !isNumericValue(r.value) && r.value.terms.length > 0
+      ? [{ x: r.N, y: rationalNumber(r.value.terms[0]![0]) }]
+      : [],
+  );
 }
 
 /** log10 of |p/q| for a rational string of any size. */

@@ -5,6 +5,9 @@ import { MatSelectModule } from '@angular/material/select';
 import type { CanonicalRowJson } from '@traceloom/shared/engine';
 import type { ChartConfiguration } from 'chart.js';
 import { BaseChartDirective, provideCharts, withDefaultRegisterables } from 'ng2-charts';
+import { isNumericTable } from '../runs/canonical-rows';
+import { airyFitOf } from './airy-data';
+import { AiryPlots } from './airy-plots';
 import { coefficientPoints, valuationPoints } from './plot-data';
 
 // Distinguishable by marker shape as well as colour.
@@ -15,10 +18,13 @@ const SERIES_STYLE = [
   { color: '#7b3f86', point: 'crossRot' },
 ] as const;
 
-/** The plots of a run: coefficient growth for chosen N, and valuation against N. */
+/**
+ * The plots of a run: coefficient growth for chosen N and valuation against N (series runs), or
+ * the large-N Airy fit with its residuals (numeric runs).
+ */
 @Component({
   selector: 'tl-run-plots',
-  imports: [FormsModule, MatFormFieldModule, MatSelectModule, BaseChartDirective],
+  imports: [FormsModule, MatFormFieldModule, MatSelectModule, BaseChartDirective, AiryPlots],
   providers: [provideCharts(withDefaultRegisterables())],
   templateUrl: './run-plots.html',
   styleUrl: './run-plots.scss',
@@ -27,6 +33,11 @@ const SERIES_STYLE = [
 export class RunPlots {
   readonly rows = input.required<readonly CanonicalRowJson[]>();
   readonly variable = input('q');
+  /** The whole result, for its large-N Airy fit (numeric runs). */
+  readonly result = input<unknown>(null);
+
+  protected readonly numeric = computed(() => isNumericTable(this.rows()));
+  protected readonly airy = computed(() => airyFitOf(this.result()));
 
   protected readonly choices = computed(() =>
     this.rows()

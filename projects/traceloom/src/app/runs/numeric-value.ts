@@ -33,7 +33,7 @@ export interface NumericInfoJson {
   workingBits?: number;
   errorEstimate?: string;
   rule?: string;
-  points?: number;
+  points?: number | number[];
   parity?: boolean | string;
 }
 

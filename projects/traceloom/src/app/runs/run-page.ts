@@ -21,6 +21,7 @@ import { canWriteGases } from '../gases/gas-roles';
 import { CanonicalTable } from './canonical-table';
 import { ClassTable } from './class-table';
 import { RunPlots } from '../plots/run-plots';
+import { NumericCaution } from './numeric-caution';
 import { RunProgressPanel } from './run-progress';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
 import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
@@ -41,6 +42,7 @@ import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
     RunPlots,
     RunProgressPanel,
     CreateDataset,
+    NumericCaution,
   ],
   templateUrl: './run-page.html',
   styleUrl: './run-page.scss',
