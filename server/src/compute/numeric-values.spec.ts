@@ -37,9 +37,12 @@ describe('agreeWithinError (|a - b| <= error(a) + error(b), exact on the texts)'
       { real: '3.5136418446315325911e-1', error: '1e-20' },
       false,
     ],
-    // exactly at the tolerance: 0.3 vs 0.5 with errors 0.1 + 0.1
-    [{ real: '0.3', error: '0.1' }, { real: '0.5', error: '0.1' }, true],
-    [{ real: '0.3', error: '0.1' }, { real: '0.51', error: '0.1' }, false],
+    // at the tolerance: 0.3 vs 0.5 with errors 0.1 + 0.1 and half units 0.05 + 0.05
+    [{ real: '0.3', error: '0.1' }, { real: '0.6', error: '0.1' }, true],
+    [{ real: '0.3', error: '0.1' }, { real: '0.61', error: '0.1' }, false],
+    // the printed digits are rounded: 0.35 shown for 0.351364..., error 0, is within half a unit
+    [{ real: '0.35', error: '0' }, { real: '0.3513641844631532591', error: '0' }, true],
+    [{ real: '0.35', error: '0' }, { real: '0.3561', error: '0' }, false],
     [{ real: '0', error: '3e-30' }, { real: '-1e-31', error: '0' }, true],
   ])('%j vs %j: %s', (a, b, agrees) => {
     expect(agreeWithinError(a, b)).toBe(agrees);

@@ -61,21 +61,32 @@ function aligned(a: ScaledDecimal, b: ScaledDecimal): [bigint, bigint] {
 
 const abs = (x: bigint): bigint => (x < 0n ? -x : x);
 
+/** Half a unit of the last printed digit of a decimal: its rounding to the digits shown. */
+function halfUnit(d: ScaledDecimal): ScaledDecimal {
+  return { mantissa: 5n, exponent: d.exponent - 1 };
+}
+
+/** a + b exactly. */
+function plus(a: ScaledDecimal, b: ScaledDecimal): ScaledDecimal {
+  const [x, y] = aligned(a, b);
+  return { mantissa: x + y, exponent: Math.min(a.exponent, b.exponent) };
+}
+
 /**
- * True when two numeric values agree within their combined error: |a - b| <= error(a) +
- * error(b), computed exactly on the decimal texts (a relative slack of 1e-9 on the tolerance
- * allows for the rounding of the error estimates to one or two digits).
+ * True when two numeric values agree within their combined error. A value's `real` is its
+ * digits rounded to the last one shown, so each side is known to its error plus half a unit of
+ * its last printed digit; |a - b| is computed exactly on the decimal texts (a relative slack of
+ * 1e-9 allows for the rounding of the error estimates to one or two digits).
  */
 export function agreeWithinError(a: NumericValue, b: NumericValue): boolean {
   const [ra, rb, ea, eb] = [a.real, b.real, a.error, b.error].map(parseDecimal);
   if (!ra || !rb || !ea || !eb) return a.real === b.real && a.error === b.error;
   const [x, y] = aligned(ra, rb);
-  const [s, t] = aligned(ea, eb);
   const diff: ScaledDecimal = {
     mantissa: abs(x - y),
     exponent: Math.min(ra.exponent, rb.exponent),
   };
-  const tol: ScaledDecimal = { mantissa: s + t, exponent: Math.min(ea.exponent, eb.exponent) };
+  const tol = plus(plus(ea, eb), plus(halfUnit(ra), halfUnit(rb)));
   const [d, tl] = aligned(diff, tol);
   return d * 1_000_000_000n <= tl * 1_000_000_001n;
 }
