@@ -95,8 +95,14 @@ function checkLines(r: ComputeResult): string[] {
   for (const v of r.grandCheck ?? []) out.push(verdictLine('grand check N =', v.N, v));
   for (const v of r.impliedWeights ?? []) out.push(verdictLine('implied weight L =', v.L, v));
   for (const v of r.referenceCheck ?? []) out.push(verdictLine('reference N =', v.N, v));
-  for (const t of r.truncations)
-    out.push(`${t.field}: ${t.what} cut off at the order after ${t.terms} terms`);
+  const numeric = isNumericResult(r);
+  for (const t of r.truncations) {
+    out.push(
+      numeric
+        ? `${t.field}: ${t.what} stopped by the tolerance rule after ${t.terms} terms`
+        : `${t.field}: ${t.what} cut off at the order after ${t.terms} terms`,
+    );
+  }
   return out;
 }
 
