@@ -1,0 +1,67 @@
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { LargeNClassJson, LargeNJson } from '@traceloom/shared/engine';
+import { ExportButtons } from '../exports/export-buttons';
+import { Tex } from '../runs/tex';
+import { valueTex } from '../runs/value-format';
+import { classRows, formulaTex, largeNExportTable, productTex } from './large-n-format';
+import { LargeNPlots } from './large-n-plots';
+
+/** Exponents a_n listed on screen (the JSON export has them all). */
+const EXPONENTS_SHOWN = 24;
+
+/**
+ * The "Large N" tab: per class of N the normalization found, Z(inf) with its product exponents,
+ * the fitted walls with the rows that verify them, the table N x (agrees below, first correction),
+ * the plots, and the exports of the block.
+ */
+@Component({
+  selector: 'tl-large-n-panel',
+  imports: [ExportButtons, LargeNPlots, Tex],
+  templateUrl: './large-n-panel.html',
+  styleUrl: './large-n-panel.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class LargeNPanel {
+  /** The run's result; its `largeN` block is shown when there is one. */
+  readonly result = input.required<{ largeN?: LargeNJson | undefined }>();
+  readonly variable = input('q');
+  readonly title = input('run');
+
+  protected readonly block = computed(() => this.result().largeN ?? null);
+  protected readonly csvTable = computed(() => {
+    const b = this.block();
+    return b ? largeNExportTable(b) : { columns: [], rows: [] };
+  });
+
+  protected readonly latexTable = computed(() => {
+    const b = this.block();
+    return b ? largeNExportTable(b, true) : { columns: [], rows: [] };
+  });
+
+  protected readonly formulaTex = formulaTex;
+
+  protected classLabel(c: LargeNClassJson): string {
+    return c.parity === 'all' ? 'All N' : c.parity === 'even' ? 'Even N' : 'Odd N';
+  }
+  protected normalizationTex(c: LargeNClassJson): string {
+    return `\\tilde Z(N) = ${formulaTex(c.normalization)}\\; Z(N)`;
+  }
+  protected limitTex(c: LargeNClassJson): string {
+    return c.limit ? `Z(\\infty) = ${valueTex(c.limit, this.variable(), 16)}` : '';
+  }
+  protected productFormTex(c: LargeNClassJson): string {
+    return c.product ? `Z(\\infty) = ${productTex(this.variable(), c.product.step)}` : '';
+  }
+  protected exponents(c: LargeNClassJson) {
+    return c.productExponents.slice(0, EXPONENTS_SHOWN);
+  }
+  protected rows(c: LargeNClassJson) {
+    return classRows(c, this.variable());
+  }
+  protected wallTex(k: LargeNClassJson['corrections'][number]): string {
+    return `${formulaTex(k.coefficient ?? '')}\\; ${this.variable()}^{${formulaTex(k.exponent ?? '')}}`;
+  }
+  protected list(ns: readonly number[]): string {
+    return ns.length ? ns.join(', ') : 'none';
+  }
+}
