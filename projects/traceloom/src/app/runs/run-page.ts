@@ -21,6 +21,7 @@ import { canWriteGases } from '../gases/gas-roles';
 import { CanonicalTable } from './canonical-table';
 import { ClassTable } from './class-table';
 import { RunPlots } from '../plots/run-plots';
+import { LargeNPanel } from '../largen/large-n-panel';
 import { NumericCaution } from './numeric-caution';
 import { RunProgressPanel } from './run-progress';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
@@ -40,6 +41,7 @@ import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
     ClassTable,
     RunChecks,
     RunPlots,
+    LargeNPanel,
     RunProgressPanel,
     CreateDataset,
     NumericCaution,
