@@ -9,7 +9,7 @@ describe('LargeNPanel', () => {
   let fixture: ComponentFixture<LargeNPanel>;
   let el: HTMLElement;
 
-  async function render(largeN: LargeNJson | undefined): Promise<void> {
+  async function render(largeN: Partial<LargeNJson> | undefined): Promise<void> {
     TestBed.configureTestingModule({ imports: [LargeNPanel], providers: testProviders() });
     fixture = TestBed.createComponent(LargeNPanel);
     fixture.componentRef.setInput('result', { largeN });
@@ -36,8 +36,11 @@ describe('LargeNPanel', () => {
     expect(el.querySelector('[data-testid="largen-plot-stab-all"] canvas')).not.toBeNull();
   });
 
-  it('says so when the run has no large-N block', async () => {
-    await render(undefined);
+  it.each([
+    ['no block', undefined],
+    ['a block without the series analysis (numeric mode)', {}],
+  ])('says so when the run has %s', async (_what, block) => {
+    await render(block);
     expect(text('largen-empty')).toContain('no large-N analysis');
   });
 });

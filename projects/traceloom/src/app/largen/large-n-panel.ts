@@ -22,12 +22,16 @@ const EXPONENTS_SHOWN = 24;
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class LargeNPanel {
-  /** The run's result; its `largeN` block is shown when there is one. */
-  readonly result = input.required<{ largeN?: LargeNJson | undefined }>();
+  /** The run's result; its `largeN` block is shown when it holds the series analysis. */
+  readonly result = input.required<{ largeN?: Partial<LargeNJson> | undefined }>();
   readonly variable = input('q');
   readonly title = input('run');
 
-  protected readonly block = computed(() => this.result().largeN ?? null);
+  protected readonly block = computed((): LargeNJson | null => {
+    const b = this.result().largeN;
+    if (!b?.classes) return null;
+    return { variable: b.variable ?? this.variable(), classes: b.classes, notes: b.notes ?? [] };
+  });
   protected readonly csvTable = computed(() => {
     const b = this.block();
     return b ? largeNExportTable(b) : { columns: [], rows: [] };
