@@ -46,11 +46,12 @@ export function rowCorrections(
       const cap = Math.min(end, d.start + w);
       const c = mul(d, inv, limit.step.mul(cap));
       const terms: { index: number; c: Fraction }[] = [];
-      for (let k = 0; k < c.num.length && terms.length < TERMS_KEPT; k++) {
+      for (let k = 0; k < c.num.length && terms.length <= TERMS_KEPT; k++) {
         if (c.num[k] !== 0n) terms.push({ index: c.start + k, c: frac(c.num[k]!, c.den) });
       }
-      if (terms.length >= TERMS_KEPT || cap >= end) {
-        const stop = terms.length >= TERMS_KEPT ? terms[TERMS_KEPT - 1]!.index + 1 : cap;
+      if (terms.length > TERMS_KEPT || cap >= end) {
+        // known up to the next non-zero term (or the end of the window): nothing hidden below it
+        const stop = terms.length > TERMS_KEPT ? terms.pop()!.index : cap;
         out.push({ N: N[i]!, terms, end: stop, series: cutIndex(c, stop) });
         return;
       }

@@ -28,6 +28,14 @@ export function describePattern(
       note: `polynomial in ${name}, holds ${where}`,
     };
   }
+  let last = known - 1;
+  while (last >= 0 && a[last]!.equals(0)) last--;
+  if (last >= 0 && 2 * (last + 1) <= known) {
+    return {
+      pattern: `a_${name} = 0 for ${name} > ${last + 1}`,
+      note: `a finite product on the known range: holds ${where}`,
+    };
+  }
   for (let p = 1; 2 * p <= known; p++) {
     let ok = true;
     for (let i = p; i < known && ok; i++) ok = a[i]!.equals(a[i - p]!);
