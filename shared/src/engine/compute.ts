@@ -13,7 +13,9 @@ import { toValueJson } from './series/format.js';
 import { Series } from './series/series.js';
 import { computeNumeric } from './numeric/compute-numeric.js';
 import { GasSpec, isNumericSpec, parseGasSpec } from './spec/schema.js';
-import { cycleWeights } from './weights.js';
+import { parseExpression } from './expr/sandbox.js';
+import { largeNAnalysis } from './largen/index.js';
+import { cycleWeights, seriesAt } from './weights.js';
 
 const clock = (globalThis as { performance?: { now(): number } }).performance;
 const now = (): number => (clock ? clock.now() : Date.now());
@@ -180,6 +182,19 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
     routes: routes[N]!,
     agrees: agrees[N]!,
   }));
+  if (spec.largeN !== undefined || nMax >= 4) {
+    let normalization: Series[] | undefined;
+    const text = spec.largeN?.normalization;
+    if (text !== undefined) {
+      const field = 'largeN.normalization';
+      const node = parseExpression(text, field);
+      const list: Truncation[] = [];
+      normalization = Z.map((_, N) => seriesAt(node, ring, field, list, { N }));
+      truncations.push(...tagged('largeN', list));
+    }
+    const analysis = largeNAnalysis(Z, spec, normalization ? { normalization } : {});
+    if (analysis) result.largeN = analysis;
+  }
   result.timings.checksMs = t4 - t3;
   result.timings.classesMs = t5 - t4;
   result.timings.totalMs = now() - t0;

@@ -1,6 +1,7 @@
 import type { RowVerdict, WeightVerdict } from './checks/grand.js';
 import type { ValueJson } from './series/format.js';
 import type { GasSpec } from './spec/schema.js';
+import type { LargeNJson } from './largen/types.js';
 import type { NumericValueJson } from './numeric/estimate.js';
 import type { NumericRowVerdict, NumericWeightVerdict } from './numeric/checks.js';
 
@@ -80,7 +81,7 @@ export interface ComputeResult {
     parity: boolean;
   };
   /** Large-N structure: the Airy fit of a numeric table (series tables: see largen/). */
-  largeN?: { airy?: AiryFitJson; [key: string]: unknown };
+  largeN?: Partial<LargeNJson> & { airy?: AiryFitJson };
   /** Infinite sums, products and lattices cut off at the order, with the terms they used. */
   truncations: { field: string; what: string; terms: number }[];
   timings: {

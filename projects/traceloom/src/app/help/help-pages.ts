@@ -14,6 +14,7 @@ export const HELP_PAGES: readonly HelpPage[] = [
   { slug: 'gas-spec', title: 'The gas spec' },
   { slug: 'expressions', title: 'Expressions' },
   { slug: 'methods', title: 'Methods and cautions' },
+  { slug: 'numeric', title: 'Numeric mode' },
   { slug: 'large-n', title: 'Large N' },
   { slug: 'conventions', title: 'Conventions' },
   { slug: 'checks', title: 'Checks and reference tables' },
