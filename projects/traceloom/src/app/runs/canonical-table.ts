@@ -1,4 +1,5 @@
 import { ScrollingModule } from '@angular/cdk/scrolling';
+import type { LargeNJson } from '@traceloom/shared/engine';
 import { ClipboardModule } from '@angular/cdk/clipboard';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
@@ -6,6 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { ExportButtons } from '../exports/export-buttons';
+import { normalizedCanonicalRows } from '../largen/normalized-rows';
 import {
   CanonicalLine,
   CanonicalRowView,
@@ -54,8 +56,19 @@ export class CanonicalTable {
   readonly title = input('canonical table');
   /** The whole result, for the JSON export. */
   readonly result = input<unknown>(null);
+  /** The rows as the large-N analysis normalized them (null: no fitted normalization). */
+  protected readonly normalizedRows = computed(() =>
+    normalizedCanonicalRows(
+      this.rows(),
+      (this.result() as { largeN?: Partial<LargeNJson> } | null)?.largeN,
+    ),
+  );
+  /** Show (and export) the normalized rows instead of Z(N). */
+  protected readonly normalized = signal(false);
 
-  protected readonly lines = computed(() => canonicalLines(this.rows(), this.variable()));
+  protected readonly lines = computed(() =>
+    canonicalLines((this.normalized() && this.normalizedRows()) || this.rows(), this.variable()),
+  );
   protected readonly expanded = signal<number | null>(null);
   protected readonly viewportHeight = computed(
     () => Math.min(this.lines().length, VISIBLE_ROWS) * ROW_PX + ROW_PX + 4,
