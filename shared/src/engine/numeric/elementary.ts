@@ -64,14 +64,15 @@ export function exp(x: Real, prec: number): Real {
   const r = k === 0 ? x : sub(x, mul(fromInt(k), ln2(W + 32), W + 32), W + 32);
   if (magnitude(r) < -W) return round(ldexp(ONE, k), prec);
   const one = 1n << BigInt(W);
+  const bw = BigInt(W);
   const t = toFixed(r, W) >> BigInt(s);
   let term = one;
   let sum = one;
   for (let i = 1n; term !== 0n; i++) {
-    term = (term * t) / (one * i);
+    term = ((term * t) >> bw) / i;
     sum += term;
   }
-  for (let i = 0; i < s; i++) sum = (sum * sum) >> BigInt(W);
+  for (let i = 0; i < s; i++) sum = (sum * sum) >> bw;
   return round(ldexp(fromFixed(sum, W), k), prec);
 }
 
