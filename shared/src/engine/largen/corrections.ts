@@ -33,7 +33,16 @@ export function rowCorrections(
   K: number,
 ): RowCorrection[] {
   const kEnd = Math.min(K, knownEnd(limit));
-  const inv = inverse(limit, limit.step.mul(kEnd === Infinity ? 1 : kEnd));
+  // 1/Z(inf) only as far as the windows need it (a long limit would cost its length squared)
+  let inv: Series | null = null;
+  let invTo = 0;
+  const inverseTo = (w: number): Series => {
+    if (inv === null || w > invTo) {
+      invTo = Math.max(w, 2 * invTo);
+      inv = inverse(limit, limit.step.mul(invTo));
+    }
+    return inv;
+  };
   const out: RowCorrection[] = [];
   Y.forEach((y, i) => {
     const end = Math.min(knownEnd(y), kEnd);
@@ -44,7 +53,7 @@ export function rowCorrections(
     }
     for (let w = 32; ; w *= 2) {
       const cap = Math.min(end, d.start + w);
-      const c = mul(d, inv, limit.step.mul(cap));
+      const c = mul(d, inverseTo(cap - d.start), limit.step.mul(cap));
       const terms: { index: number; c: Fraction }[] = [];
       for (let k = 0; k < c.num.length && terms.length <= TERMS_KEPT; k++) {
         if (c.num[k] !== 0n) terms.push({ index: c.start + k, c: frac(c.num[k]!, c.den) });

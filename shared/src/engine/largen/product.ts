@@ -74,16 +74,27 @@ export function productExponentList(f: Series, limit = Infinity): { a: Fraction[
   return { a, M };
 }
 
+/** Exponents computed at most (the work grows as their number squared). */
+export const MAX_COMPUTED = 2000;
+
 /**
  * The product form of a series with constant term 1 in the result format: exact exponents a_n
  * for every n below the order, the grid of n, and a pattern when one holds on every known n.
  */
-export function productForm(f: Series, maxShown = Infinity): ProductFormJson {
-  const { a, M } = productExponentList(f);
+export function productForm(
+  f: Series,
+  maxShown = Infinity,
+  maxComputed = MAX_COMPUTED,
+): ProductFormJson {
+  const { a, M } = productExponentList(f, maxComputed);
   const exponents = a
     .slice(0, Math.min(a.length, maxShown))
     .map((x, i) => ({ n: f.step.mul(i + 1).toFraction(), a: x.toFraction() }));
-  const { pattern, note } = describePattern(a, f.step);
+  const { pattern, note: patternNote } = describePattern(a, f.step);
+  const cut = f.order === null || M < f.order;
+  const note = cut
+    ? `${patternNote} (the first ${M - 1} exponents computed; more are determined)`
+    : patternNote;
   return {
     exponents,
     step: f.step.toFraction(),
