@@ -66,6 +66,34 @@ function fold(c: Compiled): Compiled {
   }
 }
 
+/** Most values one memoised part keeps (a Nystrom grid has far fewer distinct points). */
+const MEMO_LIMIT = 8192;
+
+/**
+ * A part that reads exactly one of the caller's values, in an expression of two or more (a
+ * kernel rho(x, y)): its values are kept per bound Real object, so a Nystrom matrix, which meets
+ * every grid point many times, evaluates sqrt(2*cosh(x/2)) once per point, not once per entry.
+ */
+function memo(c: Compiled, callerSlots: number): Compiled {
+  if (callerSlots < 2 || c.reads.size !== 1) return c;
+  const slot = c.reads.values().next().value as number;
+  if (slot >= callerSlots) return c;
+  const inner = c.code;
+  const cache = new Map<Real, Real>();
+  return {
+    code: (env) => {
+      const key = env[slot]!;
+      const hit = cache.get(key);
+      if (hit !== undefined) return hit;
+      const v = inner(env);
+      if (cache.size >= MEMO_LIMIT) cache.clear();
+      cache.set(key, v);
+      return v;
+    },
+    reads: c.reads,
+  };
+}
+
 function constant(v: Real): Compiled {
   return { code: () => v, reads: NO_READS };
 }
@@ -159,14 +187,14 @@ function makeCompiler(opts: NumericOptions): Compiler {
         case 'SymbolNode':
           return symbol((node as unknown as { name: string }).name, scope, c.W);
         case 'OperatorNode':
-          return fold(operator(node, scope, c));
+          return memo(fold(operator(node, scope, c)), opts.names.length);
         case 'FunctionNode': {
           const fn = node as FunctionNode;
           if (fn.fn.type !== 'SymbolNode') {
             throw new EngineError('only named functions can be called');
           }
           const name = (fn.fn as unknown as { name: string }).name;
-          return fold(compileCall(name, fn.args, scope, c));
+          return memo(fold(compileCall(name, fn.args, scope, c)), opts.names.length);
         }
         default:
           throw new EngineError(
