@@ -12,6 +12,8 @@ export const CORRECTION_ORDERS = 3;
 export const MAX_COEFF_DEGREE = 3;
 /** Terms of Z(N)/Z(inf) - 1 kept per row. */
 const TERMS_KEPT = 6;
+/** Widest window looked at past the first difference (grid steps). */
+const MAX_WINDOW = 1 << 16;
 
 /** The leading terms of one row's correction, as grid indices and exact coefficients. */
 export interface RowCorrection {
@@ -58,7 +60,8 @@ export function rowCorrections(
       for (let k = 0; k < c.num.length && terms.length <= TERMS_KEPT; k++) {
         if (c.num[k] !== 0n) terms.push({ index: c.start + k, c: frac(c.num[k]!, c.den) });
       }
-      if (terms.length > TERMS_KEPT || cap >= end) {
+      // an exact difference over an exact limit can end: stop widening after MAX_WINDOW steps
+      if (terms.length > TERMS_KEPT || cap >= end || w >= MAX_WINDOW) {
         // known up to the next non-zero term (or the end of the window): nothing hidden below it
         const stop = terms.length > TERMS_KEPT ? terms.pop()!.index : cap;
         out.push({ N: N[i]!, terms, end: stop, series: cutIndex(c, stop) });
@@ -88,6 +91,7 @@ export function correctionFits(
   for (let m = 1; m <= CORRECTION_ORDERS; m++) {
     const withTerm = rows.filter((r) => r.terms.length >= m);
     let found: CorrectionFitJson | null = null;
+    let refutedBy: string | undefined;
     for (let s0 = 0; s0 + 3 <= withTerm.length && !found; s0++) {
       const R = withTerm.slice(s0);
       const ePts: Point[] = R.map((r) => ({ N: r.N, y: step.mul(r.terms[m - 1]!.index) }));
@@ -95,13 +99,16 @@ export function correctionFits(
       const e = fitPolynomial(ePts, 1, 1);
       const c = fitPolynomial(cPts, MAX_COEFF_DEGREE, 1);
       if (!e || !c) continue;
-      const refuted = rows.some(
+      const refuter = rows.find(
         (r) =>
           r.N > R[0]!.N &&
           r.terms.length < m &&
           (r.end === Infinity || polyAt(e.coeffs, r.N).compare(step.mul(r.end)) < 0),
       );
-      if (refuted) continue;
+      if (refuter) {
+        refutedBy ??= `the fit on rows ${R.map((r) => r.N).join(', ')} is refuted by row ${refuter.N}, which shows no term ${m} where it predicts one`;
+        continue;
+      }
       const nFit = Math.max(e.fittedOn.length, c.fittedOn.length);
       const skipped = withTerm.slice(0, s0).map((r) => r.N);
       found = {
@@ -124,9 +131,10 @@ export function correctionFits(
         fittedOn: [],
         verifiedOn: [],
         note:
-          withTerm.length < 3
+          refutedBy ??
+          (withTerm.length < 3
             ? `fewer than 3 rows show a term ${m} (${withTerm.map((r) => r.N).join(', ') || 'none'})`
-            : `no pattern of degree <= ${MAX_COEFF_DEGREE} on these rows (${withTerm.map((r) => r.N).join(', ')})`,
+            : `no pattern of degree <= ${MAX_COEFF_DEGREE} on these rows (${withTerm.map((r) => r.N).join(', ')})`),
       },
     );
   }

@@ -87,3 +87,20 @@ describe('large N: a normalization given in the spec', () => {
     expect(c.limit!.terms.map((t) => t[1])).toEqual(['1', '1', '2', '3', '5', '7', '11', '15']);
   });
 });
+
+describe('large N: an exact limit reached at N = 5', () => {
+  // Constructed, exact rows: Y(N) = 1 + q^(N+1) for N < 5 and Y(N) = 1 from N = 5 on.
+  it('exact limit 1, the wall q^(N+1) refuted by the rows that have reached it', () => {
+    const Z = [one()];
+    for (let N = 1; N <= 8; N++) Z.push(ser(N < 5 ? `q^${N} + q^${2 * N + 1}` : `q^${N}`));
+    const c = largeNAnalysis(Z, spec({ nMax: 8 }))!.classes[0]!;
+    expect(c.limit).toEqual({ order: null, terms: [['0', '1']] });
+    expect(c.stabilization.slice(3, 5)).toEqual([
+      { N: 4, agreesBelow: '5' },
+      { N: 5, agreesBelow: null },
+    ]);
+    expect(c.stabilizationFit).toBe('N + 1');
+    expect(c.corrections[0]).toMatchObject({ status: 'none' });
+    expect(c.corrections[0]!.note).toMatch(/refuted by row 5/);
+  });
+});
