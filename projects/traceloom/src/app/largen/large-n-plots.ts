@@ -11,6 +11,19 @@ const STYLE = [
   { color: '#2f6b4f', point: 'triangle' },
 ] as const;
 
+/** Options of a linear-axes chart against N (no animation, points given as {x, y}). */
+function againstN(yTitle: string): ChartConfiguration<'line'>['options'] {
+  return {
+    animation: false,
+    parsing: false,
+    maintainAspectRatio: false,
+    scales: {
+      x: { type: 'linear', title: { display: true, text: 'N' }, ticks: { stepSize: 1 } },
+      y: { type: 'linear', title: { display: true, text: yTitle } },
+    },
+  };
+}
+
 /** Plots of one class: stabilization exponent against N with its fitted line; corrections. */
 @Component({
   selector: 'tl-large-n-plots',
@@ -102,15 +115,7 @@ export class LargeNPlots {
     return {
       type: 'line',
       data: { datasets },
-      options: {
-        animation: false,
-        parsing: false,
-        maintainAspectRatio: false,
-        scales: {
-          x: { type: 'linear', title: { display: true, text: 'N' }, ticks: { stepSize: 1 } },
-          y: { type: 'linear', title: { display: true, text: `exponent of ${this.variable()}` } },
-        },
-      },
+      options: againstN(`exponent of ${this.variable()}`),
     };
   });
 
@@ -128,14 +133,6 @@ export class LargeNPlots {
         borderDash: i % 2 ? [6, 3] : [],
       })),
     },
-    options: {
-      animation: false,
-      parsing: false,
-      maintainAspectRatio: false,
-      scales: {
-        x: { type: 'linear', title: { display: true, text: 'N' }, ticks: { stepSize: 1 } },
-        y: { type: 'linear', title: { display: true, text: 'coefficient' } },
-      },
-    },
+    options: againstN('coefficient'),
   }));
 }
