@@ -199,6 +199,35 @@ describe('numeric gases: input checks, preview and probe', () => {
   });
 });
 
+describe('numeric grand check', () => {
+  it('stores verdicts with their tolerance and shows them as dataset check rows', async () => {
+    // Z(0..2) of the trap: 1, q^(1/2)/(1-q), q^2/((1-q)(1-q^2)) (Andrews 1976, Cor. 2.2); the
+    // last one supplied wrong on purpose (q^2/(1-q) instead)
+    const runId = await finishedRunOf(t, await tokenFor(t, author), studyId, {
+      ...NUMERIC_TRAP,
+      nMax: 2,
+      grand: { kind: 'coefficients', values: ['1', 'q^(1/2)/(1-q)', 'q^2/(1-q)'] },
+    });
+    const c = await api(t, reviewer, 'post', `/runs/${runId}/comparisons`, { grand: true }, 201);
+    expect(c.rows.map((r: { agrees: boolean }) => r.agrees)).toEqual([true, true, false]);
+    expect(c.rows[1]).toEqual(
+      expect.objectContaining({ N: 1, tolerance: expect.stringMatching(/e-\d+$/) }),
+    );
+    // q^2/(1-q) - q^2/((1-q)(1-q^2)) = -q^4/((1-q)(1-q^2)) = -1/8910 at q = 1/10
+    // (the difference is stated to two digits, 1.1e-4 or 1.2e-4 for 1.1223e-4)
+    expect(Number(c.rows[2].difference)).toBeGreaterThan(1.05e-4);
+    expect(Number(c.rows[2].difference)).toBeLessThan(1.25e-4);
+    const id = await draftOf(t, author, runId);
+    const d = await api(t, author, 'get', `/datasets/${id}`, undefined, 200);
+    const grand = d.checks.filter((r: { check: string }) => r.check === 'grand');
+    expect(grand.map((r: { status: string }) => r.status)).toEqual(['green', 'green', 'red']);
+    expect(grand[1].detail).toMatch(/^agrees within \S+ \(difference \S+\)$/);
+    expect(grand[2].detail).toMatch(
+      /^differs by 1\.\de-4, beyond the tolerance \S+: computed 1\.12233/,
+    );
+  });
+});
+
 describe('numeric reference tables', () => {
   const upload = async (csv: string) => {
     const res = await request(t.app)
