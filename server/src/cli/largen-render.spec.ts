@@ -30,4 +30,11 @@ describe('large-N summary for --format table', () => {
     expect(text).toContain('stabilization  N + 1');
     expect(text).toMatch(/correction 1 {3}-1 \* q\^\(N \+ 1\) {2}fitted on 1, 2, verified on 3/);
   });
+
+  it.each([
+    ['no block', undefined],
+    ['a numeric block (fit only)', {}],
+  ])('no lines for %s', (_what, block) => {
+    expect(largeNTableLines(block, () => '')).toEqual([]);
+  });
 });

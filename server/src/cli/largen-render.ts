@@ -47,11 +47,16 @@ function classLines(c: LargeNClassJson, v: string, text: (v: ValueJson) => strin
 /**
  * The large-N summary of a result as plain-text lines for `--format table`: per class the
  * normalization, Z(inf) with its product exponents, the stabilization law, the correction walls
- * with the rows that verify them, and a row table N x (agrees below, first corrections).
+ * with the rows that verify them, and a row table N x (agrees below, first corrections). Starts
+ * with a blank separator line; no lines when the block holds no series analysis.
  */
-export function largeNTableLines(block: LargeNJson, text: (v: ValueJson) => string): string[] {
-  const out: string[] = ['large N'];
-  for (const n of block.notes) out.push(`  note: ${n}`);
-  for (const c of block.classes) out.push(...classLines(c, block.variable, text));
+export function largeNTableLines(
+  block: Partial<LargeNJson> | undefined,
+  text: (v: ValueJson) => string,
+): string[] {
+  if (!block?.classes) return [];
+  const out: string[] = ['', 'large N'];
+  for (const n of block.notes ?? []) out.push(`  note: ${n}`);
+  for (const c of block.classes) out.push(...classLines(c, block.variable ?? 'q', text));
   return out;
 }
