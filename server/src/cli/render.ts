@@ -1,4 +1,5 @@
 import { classRowJsonText } from '@traceloom/shared';
+import { largeNTableLines } from './largen-render.js';
 import type { ClassRowJson, ComputeResult, ValueJson } from '@traceloom/shared';
 import {
   isNumericResult,
@@ -133,6 +134,7 @@ export function renderTable(r: ComputeResult): string {
       );
     }
   }
+  lines.push(...largeNTableLines(r.largeN, (v) => valueText(v, x)));
   const checks = checkLines(r);
   if (checks.length) lines.push('', ...checks);
   return lines.join('\n') + '\n';
