@@ -30,6 +30,8 @@ function dataset(over: Partial<DatasetDto> = {}): DatasetDto {
       variable: 'q',
       order: '6',
       nMax: 1,
+      precision: null,
+      known: 'truncated at O(q^6)',
       canonical: [
         { N: 0, value: { order: null, terms: [['0', '1']] } },
         {
