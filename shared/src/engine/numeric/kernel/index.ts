@@ -171,7 +171,7 @@ export function kernelTraces(
     const l1 = level(m / 4);
     const l2 = level(m / 2);
     const l3 = level(m);
-    const out = assemble(l1, l2, l3, tailNow, nMax, fermion);
+    const out = assemble(l1, l2, l3, tailNow, nMax, fermion, D);
     const done = converged(out, D);
     if (opts.debug) debugLevels(opts.debug, m, [l1, l2, l3], out);
     const nextTooBig = 2 * l3.points > maxPoints;
@@ -251,6 +251,7 @@ function assemble(
   tail: number,
   nMax: number,
   fermion: boolean,
+  D: number,
 ): Assembled {
   const disc = (a: Real, b: Real, c: Real): number => {
     const d1 = Math.abs(toNumber(sub(c, a, 200)));
@@ -273,14 +274,21 @@ function assemble(
   return {
     traces,
     fredholm,
-    floors: { traces: l3.roundTraces, fredholm: l3.roundFredholm },
+    // a value that is zero (finite rank) is noise at the level of the discretisation of its
+    // neighbours: below 10^-2D of its natural scale it counts as determined (absolute error)
+    floors: {
+      traces: l3.roundTraces.map((r, i) => Math.max(2 * r, 10 ** (-2 * D) * l3.norm ** (i + 1))),
+      fredholm: l3.roundFredholm.map((r, N) =>
+        N === 0 ? 0 : Math.max(2 * r, 10 ** (-2 * D) * l3.absSymmetric[N - 1]! * l3.norm),
+      ),
+    },
   };
 }
 
 /** Every value has D significant digits, or is zero within its rounding (nothing to refine). */
 function converged(out: Assembled, D: number): boolean {
   const ok = (e: Estimate, floor: number): boolean =>
-    e.error <= 0.5 * 10 ** -D * Math.abs(toNumber(e.value)) || e.error <= 2 * floor;
+    e.error <= 0.5 * 10 ** -D * Math.abs(toNumber(e.value)) || e.error <= floor;
   return (
     out.traces.every((e, i) => ok(e, out.floors.traces[i]!)) &&
     out.fredholm.every((e, i) => ok(e, out.floors.fredholm[i]!))

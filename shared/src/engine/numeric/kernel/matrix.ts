@@ -219,11 +219,14 @@ export function tridiagonalize(M: FixedMatrix, F: number, p?: Pace): { d: bigint
     e.push(alpha);
     // v = x - alpha e1, |v|^2 = s2 - 2 alpha x0 + alpha^2 (2F bits)
     const v2 = s2 - 2n * alpha * x0 + alpha * alpha;
-    const vn = isqrt(v2);
-    if (vn === 0n) continue;
+    // |v| to F + 8 significant bits even when the column is tiny: u must be a unit vector to
+    // 2^-F, or H = I - 2 u u^T is not orthogonal and the trailing block is perturbed
+    const G = Math.max(0, F + 8 - Math.floor(bitLength(v2) / 2));
+    const vn = isqrt(v2 << BigInt(2 * G));
+    const shiftU = BigInt(F + G);
     for (let i = k + 1; i < n; i++) {
       const vi = i === k + 1 ? x0 - alpha : a[i * n + k]!;
-      u[i] = (vi << FB) / vn;
+      u[i] = (vi << shiftU) / vn;
     }
     // p = 2 A u (lower triangle holds A), w = p - (u.p) u
     for (let i = k + 1; i < n; i++) {
