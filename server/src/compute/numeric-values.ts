@@ -100,6 +100,13 @@ export function shownDigits(v: NumericValue): number {
   return mant.replace(/^0+/, '').length;
 }
 
+/** "a", "a and b", "a, b and c". */
+function listText(items: string[]): string {
+  return items.length < 2
+    ? (items[0] ?? '')
+    : `${items.slice(0, -1).join(', ')} and ${items.at(-1)}`;
+}
+
 /**
  * The order a series table is truncated at: the spec's order when any row is truncated, null when
  * every row is exact (or the table is numeric).
@@ -122,7 +129,7 @@ export function knownSentence(r: Pick<ComputeResult, 'spec' | 'numeric' | 'canon
       .join(', ');
     const how =
       n && n.points.length > 0
-        ? `two resolutions of the kernel (${n.rule}; ${n.points.join(' and ')} points) and the rounding of every operation`
+        ? `comparing resolutions of the kernel (${listText(n.points.map(String))} points; ${n.rule}) and the rounding of every operation`
         : 'evaluating at two working precisions and the rounding of every operation';
     return `numeric${at ? ` at ${at}` : ''}, ${digits} digits requested, errors estimated by ${how} (an estimate, not a bound)`;
   }

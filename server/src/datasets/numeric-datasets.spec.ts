@@ -199,6 +199,52 @@ describe('numeric gases: input checks, preview and probe', () => {
   });
 });
 
+/**
+ * A rank-2 kernel on the line from the first two Hermite functions: rho = (1 + x y) e^(-(x^2+y^2)/2)
+ * / (2 sqrt(pi)) has eigenvalues 1/2 and 1/4 (int e^(-x^2) = sqrt(pi), int x^2 e^(-x^2) =
+ * sqrt(pi)/2, DLMF 5.9.1 with Gamma(1/2) and Gamma(3/2)); so Z_L = 2^-L + 4^-L, and for fermions
+ * Z(1) = 3/4, Z(2) = 1/8 (the elementary symmetric functions of the eigenvalues).
+ */
+const RANK2_KERNEL = {
+  format: 'traceloom.gas/1',
+  title: 'rank-2 Hermite kernel',
+  statistics: 'fermion',
+  precision: 12,
+  nMax: 2,
+  weights: { kind: 'kernel', expression: '(1 + x*y)*exp(-(x^2+y^2)/2)/(2*sqrt(pi))' },
+} as const;
+
+describe('a kernel gas', () => {
+  it('runs by both routes, agrees with its exact spectrum, and verifies as a dataset', async () => {
+    const runId = await finishedRunOf(t, await tokenFor(t, author), studyId, RANK2_KERNEL);
+    const run = await api(t, author, 'get', `/runs/${runId}`, undefined, 200);
+    const exact = ['1', '0.75', '0.125'];
+    for (const row of run.result.canonical) {
+      expect(row.routes).toEqual(['recursion', 'fredholm']);
+      expect(row.agrees).toBe(true);
+      expect(agreeWithinError(row.value, { real: exact[row.N]!, error: '0' })).toBe(true);
+      expect(Number(row.value.error)).toBeLessThan(1e-12);
+    }
+    const weights = run.result.weights.map((w: { value: { real: string } }) =>
+      Number(w.value.real),
+    );
+    expect(weights).toEqual([0.75, 0.3125]); // 1/2 + 1/4, 1/4 + 1/16
+    const id = await draftOf(t, author, runId, 'Rank-2 kernel');
+    const d = await api(t, author, 'get', `/datasets/${id}`, undefined, 200);
+    expect(d.snapshot.known).toMatch(
+      /^numeric, 12 digits requested, errors estimated by comparing resolutions of the kernel \(\d+, \d+ and \d+ points; trapezoid/,
+    );
+    const routes = d.checks.filter((r: { check: string }) => r.check === 'routes');
+    expect(routes[1]).toMatchObject({
+      label: 'Z(N) by Newton recursion, Fredholm determinant',
+      status: 'green',
+      detail: 'the routes agree within their errors',
+    });
+    const verify = await api(t, author, 'post', `/datasets/${id}/verify`, undefined, 200);
+    expect(verify).toMatchObject({ ok: true, mismatches: [] });
+  });
+});
+
 describe('numeric grand check', () => {
   it('stores verdicts with their tolerance and shows them as dataset check rows', async () => {
     // Z(0..2) of the trap: 1, q^(1/2)/(1-q), q^2/((1-q)(1-q^2)) (Andrews 1976, Cor. 2.2); the
