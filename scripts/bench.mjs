@@ -133,19 +133,15 @@ function decimal(text) {
 function digitsAgree(real, reference, digits) {
   const a = decimal(real);
   const b = decimal(reference);
-  // drop a's digits beyond `digits`, then round b to a's last kept unit
-  let ai = a.int;
-  let aexp = a.exp;
-  for (let k = a.digits - digits; k > 0; k--) {
-    ai = (ai + (ai < 0n ? -5n : 5n)) / 10n;
-    aexp++;
-  }
-  const shift = aexp - b.exp;
-  if (shift <= 0) return ai * 10n ** BigInt(-shift) === b.int;
+  // round a once to `digits` significant digits, then b to a's last kept unit
+  const drop = Math.max(0, a.digits - digits);
+  const cut = 10n ** BigInt(drop);
+  const ai = drop === 0 ? a.int : (a.int + (a.int < 0n ? -cut / 2n : cut / 2n)) / cut;
+  const shift = a.exp + drop - b.exp;
+  if (shift <= 0) return ai === b.int * 10n ** BigInt(-shift);
   const unit = 10n ** BigInt(shift);
   const half = unit / 2n;
-  const rounded = (b.int + (b.int < 0n ? -half : half)) / unit;
-  return rounded === ai;
+  return (b.int + (b.int < 0n ? -half : half)) / unit === ai;
 }
 
 /** The numeric tasks: digits shown against the yardstick's and the published closed forms. */
