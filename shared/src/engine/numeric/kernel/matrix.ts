@@ -27,7 +27,13 @@ export function pace(p: Pace | undefined): void {
  * as float64 integers; slice products are then exact float64 matrix products (beta is chosen so
  * that no sum exceeds 2^53), and the levels are added up once per entry in BigInt.
  */
-export function multiply(A: FixedMatrix, B: FixedMatrix, F: number, p?: Pace): FixedMatrix {
+export function multiply(
+  A: FixedMatrix,
+  B: FixedMatrix,
+  F: number,
+  p?: Pace,
+  symmetric?: boolean,
+): FixedMatrix {
   const n = A.n;
   const lgn = Math.ceil(Math.log2(n + 1));
   const topA = maxBits(A.a);
@@ -44,6 +50,8 @@ export function multiply(A: FixedMatrix, B: FixedMatrix, F: number, p?: Pace): F
   }
   const slicesA = slice(A.a, topA, beta, G);
   const slicesB = A === B ? slicesA : slice(B.a, topB, beta, G);
+  // powers of one symmetric matrix commute, so C is symmetric: only j >= i is computed
+  const sym = symmetric === true;
   const acc: Float64Array[] = [];
   for (let g = 0; g < G; g++) {
     const C = new Float64Array(n * n);
@@ -51,7 +59,7 @@ export function multiply(A: FixedMatrix, B: FixedMatrix, F: number, p?: Pace): F
       const a = slicesA[g - q];
       const b = slicesB[q];
       if (!a || !b) continue;
-      floatProduct(a, b, C, n);
+      floatProduct(a, b, C, n, sym);
       pace(p);
     }
     acc.push(C);
@@ -68,6 +76,7 @@ export function multiply(A: FixedMatrix, B: FixedMatrix, F: number, p?: Pace): F
     }
     out[i] = shiftRound(s, shift);
   }
+  if (sym) for (let i = 0; i < n; i++) for (let j = 0; j < i; j++) out[i * n + j] = out[j * n + i]!;
   return { n, a: out };
 }
 
@@ -111,15 +120,22 @@ function slice(a: bigint[], top: number, beta: number, count: number): Float64Ar
   return out;
 }
 
-/** C += A B for n x n float64 matrices (row-major), i-k-j order. */
-function floatProduct(A: Float64Array, B: Float64Array, C: Float64Array, n: number): void {
+/** C += A B for n x n float64 matrices (row-major), i-k-j order; only j >= i when `upper`. */
+function floatProduct(
+  A: Float64Array,
+  B: Float64Array,
+  C: Float64Array,
+  n: number,
+  upper: boolean,
+): void {
   for (let i = 0; i < n; i++) {
     const ri = i * n;
+    const j0 = upper ? i : 0;
     for (let k = 0; k < n; k++) {
       const aik = A[ri + k]!;
       if (aik === 0) continue;
       const rk = k * n;
-      for (let j = 0; j < n; j++) C[ri + j]! += aik * B[rk + j]!;
+      for (let j = j0; j < n; j++) C[ri + j]! += aik * B[rk + j]!;
     }
   }
 }
@@ -148,7 +164,7 @@ export function trace(X: FixedMatrix): bigint {
 export function powerTraces(A: FixedMatrix, nMax: number, F: number, p?: Pace): bigint[] {
   const plan = powerPlan(nMax);
   const pow = new Map<number, FixedMatrix>([[1, A]]);
-  for (const [k, [x, y]] of plan.build) pow.set(k, multiply(pow.get(x)!, pow.get(y)!, F, p));
+  for (const [k, [x, y]] of plan.build) pow.set(k, multiply(pow.get(x)!, pow.get(y)!, F, p, true));
   const out: bigint[] = [trace(A) << BigInt(F)];
   for (let L = 2; L <= nMax; L++) {
     const [x, y] = plan.split.get(L)!;
