@@ -62,7 +62,10 @@ async function start(): Promise<{ child: ChildProcess; baseUrl: string }> {
 }
 
 async function json(url: string, init: RequestInit = {}): Promise<{ status: number; body: any }> {
-  const res = await fetch(url, { ...init, headers: { 'content-type': 'application/json', ...init.headers } });
+  const res = await fetch(url, {
+    ...init,
+    headers: { 'content-type': 'application/json', ...init.headers },
+  });
   return { status: res.status, body: await res.json().catch(() => null) };
 }
 
@@ -111,14 +114,18 @@ describe('kill -9 during writes', () => {
       const db = new Database(dbFile);
       try {
         expect(db.pragma('integrity_check', { simple: true })).toBe('ok');
-        const present = new Set((db.prepare('SELECT id FROM gas').all() as Array<{ id: string }>).map((r) => r.id));
+        const present = new Set(
+          (db.prepare('SELECT id FROM gas').all() as Array<{ id: string }>).map((r) => r.id),
+        );
         const lost = acknowledged.filter((id) => !present.has(id));
         expect(lost, `trial ${trial}`).toEqual([]);
       } finally {
         db.close();
       }
     }
-    console.log(`kill -9: ${TRIALS} trials, ${acknowledged.length} acknowledged gas creations of ${attempted} attempted, 0 lost, integrity ok`);
+    console.log(
+      `kill -9: ${TRIALS} trials, ${acknowledged.length} acknowledged gas creations of ${attempted} attempted, 0 lost, integrity ok`,
+    );
     expect(acknowledged.length).toBeGreaterThan(TRIALS * 5);
   }, 400_000);
 });

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { launchBrowser, type TestBrowser } from './support/browser.js';
+import { apiCall, signInApi } from './support/api.js';
 import { startServer, type TestServer } from './support/server.js';
 
 /**
@@ -38,24 +39,10 @@ afterAll(async () => {
   await server?.stop();
 });
 
-async function call(token: string | null, method: string, path: string, body?: unknown) {
-  const res = await fetch(`${server.baseUrl}/api${path}`, {
-    method,
-    headers: {
-      'content-type': 'application/json',
-      ...(token ? { authorization: `Bearer ${token}` } : {}),
-    },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const text = await res.text();
-  return { status: res.status, text, json: text ? (JSON.parse(text) as any) : null };
-}
-
-async function tokenOf(email: string): Promise<string> {
-  const res = await call(null, 'POST', '/auth/login', { email, password: PASSWORD });
-  expect(res.status).toBe(200);
-  return res.json.token as string;
-}
+const call = (token: string | null, method: string, path: string, body?: unknown) =>
+  apiCall(server.baseUrl, token, method, path, body);
+const tokenOf = async (email: string): Promise<string> =>
+  (await signInApi(server.baseUrl, email, PASSWORD)).token;
 
 async function signIn(page: Page, email: string): Promise<void> {
   await page.goto('/sign-in');

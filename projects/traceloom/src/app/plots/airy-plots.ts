@@ -19,11 +19,11 @@ const AMBER = '#c27c0e';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class AiryPlots {
-  readonly fit = input.required<AiryFit>();
+  readonly airy = input.required<AiryFit>();
   readonly rows = input.required<readonly { N: number; value: unknown }[]>();
 
   protected readonly parameters = computed(() => {
-    const f = this.fit();
+    const f = this.airy();
     return [
       { name: 'C', value: f.C.value, uncertainty: f.C.uncertainty },
       { name: 'B', value: f.B.value, uncertainty: f.B.uncertainty },
@@ -34,8 +34,8 @@ export class AiryPlots {
   protected readonly curveChart = computed<ChartConfiguration<'line'>>(() => {
     const points = logZPoints(this.rows());
     const xs = points.map((p) => p.x);
-    const from = Math.min(...xs, ...this.fit().fittedOn);
-    const to = Math.max(...xs, ...this.fit().fittedOn);
+    const from = Math.min(...xs, ...this.airy().fittedOn);
+    const to = Math.max(...xs, ...this.airy().fittedOn);
     return {
       type: 'line',
       data: {
@@ -51,7 +51,7 @@ export class AiryPlots {
           },
           {
             label: 'Airy fit',
-            data: airyCurvePoints(this.fit(), from, to),
+            data: airyCurvePoints(this.airy(), from, to),
             borderColor: AMBER,
             backgroundColor: AMBER,
             pointRadius: 0,
@@ -78,7 +78,7 @@ export class AiryPlots {
       datasets: [
         {
           label: 'residual ln Z(N) − fit',
-          data: this.fit().residuals.map((r) => ({ x: r.N, y: r.residual })),
+          data: this.airy().residuals.map((r) => ({ x: r.N, y: r.residual })),
           borderColor: INK,
           backgroundColor: INK,
           pointStyle: 'rect',
