@@ -5,7 +5,7 @@ import { spectrumProduct } from './canonical/product.js';
 import { newtonRecursion } from './canonical/recursion.js';
 import { grandCheck } from './checks/grand.js';
 import { referenceCheck } from './checks/reference.js';
-import { EngineCancelled } from './errors.js';
+import { EngineCancelled, EngineError } from './errors.js';
 import type { Truncation } from './expr/evaluate.js';
 import type { ClassRowJson, ComputeOptions, ComputeResult, Progress, Route } from './result.js';
 import { compareSeries } from './series/compare.js';
@@ -71,6 +71,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   const t0 = now();
   const spec: GasSpec = parseGasSpec(input);
   const progress = progressReporter(opts);
+  if (spec.sectors) throw new EngineError('sector sums are not computed yet', 'sectors');
   if (isNumericSpec(spec)) return computeNumeric(spec, opts, progress, now);
   const cap = spec.order == null ? null : new Fraction(spec.order);
   const fermion = spec.statistics === 'fermion';

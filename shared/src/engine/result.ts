@@ -53,6 +53,47 @@ export interface CanonicalRowJson extends NumericCanonicalExtras {
   value: AnyValueJson;
   routes: Route[];
   agrees: boolean;
+  /** Sector mode: how many sectors contributed to this row (0 for N = 0, set by convention). */
+  sectors?: number;
+}
+
+/** One sector n of a sector sum: its index vector, weight and the size of its contributions. */
+export interface SectorRowJson {
+  /** The sector vector n, one integer per index of `spec.sectors.index`. */
+  index: number[];
+  /** The weight w(n) (series mode: a series; numeric mode: a number with its error). */
+  weight: AnyValueJson;
+  /**
+   * Series mode: valuations[N - 1] for N = 1..nMax is the leading exponent of Z_n(N) (an exact
+   * rational string), or null when Z_n(N) has no term below the order. Empty in numeric mode.
+   */
+  valuations: (string | null)[];
+  /**
+   * Numeric mode: magnitudes[N - 1] = log10 |w(n) Z_n(N)| (null when it is 0). Empty in series mode.
+   */
+  magnitudes: (number | null)[];
+  /** contributes[N - 1]: whether w(n) Z_n(N) entered row N (a term below the order / error). */
+  contributes: boolean[];
+  /** Whether the sector entered any row N >= 1. */
+  contributed: boolean;
+}
+
+/** The sector breakdown of a gas with `sectors` in its spec. */
+export interface SectorsJson {
+  /** Index names, as in the spec. */
+  index: string[];
+  /** Sectors computed (the rows below). */
+  count: number;
+  /** Sectors that entered at least one row. */
+  contributing: number;
+  /** Whether an unbounded range was cut off by the stopping rule (the rule is in `rule`). */
+  truncated: boolean;
+  /** How the sum was taken and where it stopped, in words. */
+  rule: string;
+  /** Z(0) = 1 by convention in sector mode, said in words. */
+  convention: string;
+  /** Every sector computed, in the order they were enumerated (growing max |n_k|). */
+  rows: SectorRowJson[];
 }
 
 /** The result `traceloom.result/1` (see docs/spec.md). */
@@ -82,6 +123,8 @@ export interface ComputeResult {
   };
   /** Large-N structure: the Airy fit of a numeric table (series tables: see largen/). */
   largeN?: Partial<LargeNJson> & { airy?: AiryFitJson };
+  /** Sector mode: the sector breakdown (per sector its valuations and whether it contributed). */
+  sectors?: SectorsJson;
   /** Infinite sums, products and lattices cut off at the order, with the terms they used. */
   truncations: { field: string; what: string; terms: number }[];
   timings: {
@@ -96,7 +139,7 @@ export interface ComputeResult {
 
 /** Progress report: a phase and how far it is. */
 export interface Progress {
-  phase: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classes';
+  phase: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classes' | 'sectors';
   done: number;
   total: number;
 }

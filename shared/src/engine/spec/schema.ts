@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
 import { z } from 'zod';
 import { EngineError } from '../errors.js';
+import { sectorsSchema } from '../sectors/schema.js';
 import { MAX_CLASS_TABLE, MAX_EXPRESSION_LENGTH, MAX_NMAX, MAX_ORDER } from '../limits.js';
 
 const expression = z
@@ -136,10 +137,12 @@ const gasSpecObject = z.object({
   weights: weightSourceSchema,
   grand: grandSchema.optional(),
   reference: referenceSchema.optional(),
+  sectors: sectorsSchema.optional(),
 });
 
 /** The gas spec `traceloom.gas/1` (see docs/spec.md). */
 export const gasSpecSchema = gasSpecObject.superRefine((spec, ctx) => {
+  sectorRules(spec, ctx);
   if (spec.precision !== undefined) {
     numericRules(spec, ctx);
     return;
@@ -193,6 +196,25 @@ export const gasSpecSchema = gasSpecObject.superRefine((spec, ctx) => {
 });
 
 type SpecDraft = z.infer<typeof gasSpecObject>;
+
+/** Sector indices must not clash with the series variable, and sectors need weight expressions. */
+function sectorRules(spec: SpecDraft, ctx: z.RefinementCtx): void {
+  if (!spec.sectors) return;
+  spec.sectors.index.forEach((name, k) => {
+    if (name === spec.variable)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['sectors', 'index', k],
+        message: `${name} is the series variable; choose another index name`,
+      });
+  });
+  if (spec.weights.kind === 'kernel')
+    ctx.addIssue({
+      code: 'custom',
+      path: ['sectors'],
+      message: 'apply to values, formula or spectrum weights, not to a kernel',
+    });
+}
 
 /** Field rules of a numeric gas (precision given). */
 function numericRules(spec: SpecDraft, ctx: z.RefinementCtx): void {
