@@ -42,6 +42,7 @@ export async function receiveUpload(req: Request, res: Response, limitBytes: num
   if (!file) {
     throw new AppError(400, 'invalid_upload', 'file: send the table as a multipart form field named "file".', 'file');
   }
+  if (file.size === 0) throw new AppError(400, 'empty_file', 'file: the file is empty.', 'file');
   return {
     file: { bytes: file.buffer, filename: file.originalname, contentType: file.mimetype },
     fields: (req.body ?? {}) as Record<string, unknown>,

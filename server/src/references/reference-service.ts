@@ -85,12 +85,13 @@ async function parseInWorker(
   ctx: AppContext,
   file: Upload['file'],
   normalization: string | undefined,
+  variable: string,
 ): Promise<ParsedReference> {
   const signal = AbortSignal.timeout(READ_LIMIT_MS);
   let output: { ok: true; parsed: ParsedReference } | WorkerAppError;
   try {
     output = (await computeServices(ctx).pools.quick.run(
-      { kind: 'reference', ...file, ...(normalization === undefined ? {} : { normalization }) },
+      { kind: 'reference', ...file, variable, ...(normalization === undefined ? {} : { normalization }) },
       { signal },
     )) as typeof output;
   } catch (err) {
@@ -125,7 +126,7 @@ export async function uploadReference(
   await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
   const { file, fields } = await receiveUpload(req, res, ctx.config.uploadLimitBytes);
   const input = parseInput(uploadFieldsSchema, fields);
-  const parsed = await parseInWorker(ctx, file, input.normalization);
+  const parsed = await parseInWorker(ctx, file, input.normalization, input.variable ?? 'q');
   if (req.query.dryRun === '1' || req.query.dryRun === 'true') {
     res.status(200);
     return { rows: parsed.rows, errors: parsed.errors, numeric: parsed.numeric ?? false };

@@ -97,6 +97,36 @@ describe('reference tables', () => {
     expect(await stored()).toBe(before);
   });
 
+  it.each([
+    ['q^(-N^2/2)*x', 'normalization: unknown symbol x (it may use N and the variable q).'],
+    ['t^N', 'normalization: unknown symbol t'],
+    ['1/(N-2)', 'at N = 2'],
+  ])('refuses the normalization %j before storing, on its field, in a dry run too', async (norm, message) => {
+    const before = await stored();
+    for (const query of ['', '?dryRun=1']) {
+      const res = await upload(Buffer.from(TRAP_TABLE), 'preprint.csv', { normalization: norm }, query);
+      expect(res.status, JSON.stringify(res.body)).toBe(400);
+      expect(res.body.error).toMatchObject({ code: 'invalid_input', field: 'normalization' });
+      expect(res.body.error.message).toContain(message);
+    }
+    expect(await stored()).toBe(before);
+  });
+
+  it('accepts a normalization in N and the variable, sums binding their own index', async () => {
+    const res = await upload(Buffer.from(TRAP_TABLE), 'p.csv', { normalization: 'q^(-N^2/2) * sum(q^k, k, 0, 0)' }, '?dryRun=1');
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const other = await upload(Buffer.from(TRAP_TABLE.replaceAll('q', 't')), 'p.csv', { normalization: 't^(-N^2/2)', variable: 't' }, '?dryRun=1');
+    expect(other.status, JSON.stringify(other.body)).toBe(200);
+  });
+
+  it('says "the file is empty" for a 0-byte file and stores nothing', async () => {
+    const before = await stored();
+    const res = await upload(Buffer.alloc(0), 'empty.csv');
+    expect(res.status, JSON.stringify(res.body)).toBe(400);
+    expect(res.body.error).toMatchObject({ code: 'empty_file', field: 'file', message: 'file: the file is empty.' });
+    expect(await stored()).toBe(before);
+  });
+
   it('refuses more rows than the cap (5000)', async () => {
     const rows = Array.from({ length: 5001 }, (_, i) => `${i % 200},1,`).join('\n');
     const t2 = await createTestApp();

@@ -1,6 +1,6 @@
 import { gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
-import { compute, EngineError, parseExpression, type Progress } from '@traceloom/shared/engine';
+import { compute, EngineError, type Progress } from '@traceloom/shared/engine';
 import {
   compareReferenceRows,
   compareReferenceRowsNumeric,
@@ -8,6 +8,7 @@ import {
   type NumericCompareTask,
 } from '../comparisons/compare-rows.js';
 import { AppError } from '../http/app-error.js';
+import { checkNormalization } from '../references/normalization-check.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
 
 /** A task for the worker pool. */
@@ -22,6 +23,7 @@ export type WorkerTask =
       filename: string;
       contentType: string;
       normalization?: string;
+      variable?: string;
     };
 
 /** An API error raised in the worker, carried back as plain data. */
@@ -111,12 +113,7 @@ export default function work(task: WorkerTask): unknown {
         const bytes = Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength);
         const parsed = parseReferenceFile(bytes, task.filename, task.contentType);
         parsed.normalization = (task.normalization ?? parsed.normalization ?? '1').trim() || '1';
-        try {
-          parseExpression(parsed.normalization);
-        } catch (e) {
-          if (!(e instanceof EngineError)) throw e;
-          throw new AppError(400, 'invalid_input', `normalization: ${e.message}.`, 'normalization');
-        }
+        checkNormalization(parsed.normalization, task.variable ?? 'q', parsed.rows, parsed.numeric ?? false);
         return { ok: true, parsed };
       } catch (e) {
         if (!(e instanceof AppError)) throw e;

@@ -73,6 +73,11 @@ export class ReferenceUpload {
   choose(file: File): void {
     this.error.set(null);
     this.preview.set(null);
+    if (file.size === 0) {
+      this.file.set(null);
+      this.error.set(`The file is empty: "${file.name}" has no bytes.`);
+      return;
+    }
     if (file.size > MAX_UPLOAD_BYTES) {
       this.file.set(null);
       this.error.set(`The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is 10 MB.`);
@@ -124,9 +129,11 @@ export class ReferenceUpload {
     const name = err instanceof ApiError ? err.field?.split('.').pop() : undefined;
     const control = name && name !== 'file' ? this.fields.get(name) : null;
     if (control && err instanceof ApiError) {
-      control.setErrors({ server: err.message });
+      // The server's message starts with the field's name, which the form shows already.
+      const message = err.message.replace(new RegExp(`^${name}: `), '');
+      control.setErrors({ server: message });
       control.markAsTouched();
-      this.error.set(`The ${name} field: ${err.message}`);
+      this.error.set(null);
     } else {
       this.error.set(messageOf(err));
     }
