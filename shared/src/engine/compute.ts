@@ -3,9 +3,9 @@ import { classRowJsonText } from './canonical/class-text.js';
 import { classSum } from './canonical/classes.js';
 import { spectrumProduct } from './canonical/product.js';
 import { newtonRecursion } from './canonical/recursion.js';
-import { grandCheck } from './checks/grand.js';
-import { referenceCheck } from './checks/reference.js';
-import { EngineCancelled, EngineError } from './errors.js';
+import { runLargeN, runTableChecks, tagged } from './checks/table-checks.js';
+import { EngineCancelled } from './errors.js';
+import { computeSectors } from './sectors/compute-sectors.js';
 import type { Truncation } from './expr/evaluate.js';
 import type { ClassRowJson, ComputeOptions, ComputeResult, Progress, Route } from './result.js';
 import { compareSeries } from './series/compare.js';
@@ -13,9 +13,7 @@ import { toValueJson } from './series/format.js';
 import { Series } from './series/series.js';
 import { computeNumeric } from './numeric/compute-numeric.js';
 import { GasSpec, isNumericSpec, parseGasSpec } from './spec/schema.js';
-import { parseExpression } from './expr/sandbox.js';
-import { largeNAnalysis } from './largen/index.js';
-import { cycleWeights, seriesAt } from './weights.js';
+import { cycleWeights } from './weights.js';
 
 const clock = (globalThis as { performance?: { now(): number } }).performance;
 const now = (): number => (clock ? clock.now() : Date.now());
@@ -53,14 +51,6 @@ function progressReporter(opts: ComputeOptions) {
   };
 }
 
-/** Tag truncation records with the spec field they come from. */
-function tagged(
-  field: string,
-  list: Truncation[],
-): { field: string; what: string; terms: number }[] {
-  return list.map((t) => ({ field, ...t }));
-}
-
 /**
  * Compute everything a gas spec asks for: cycle weights, the canonical table by every route that
  * applies (recursion always; class sum for N <= classTable; the product form for spectra), the
@@ -71,7 +61,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   const t0 = now();
   const spec: GasSpec = parseGasSpec(input);
   const progress = progressReporter(opts);
-  if (spec.sectors) throw new EngineError('sector sums are not computed yet', 'sectors');
+  if (spec.sectors) return computeSectors(spec, opts, progress, now);
   if (isNumericSpec(spec)) return computeNumeric(spec, opts, progress, now);
   const cap = spec.order == null ? null : new Fraction(spec.order);
   const fermion = spec.statistics === 'fermion';
@@ -130,20 +120,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
     },
   };
 
-  if (spec.grand) {
-    progress.phase('grand', nMax);
-    const list: Truncation[] = [];
-    const g = grandCheck(spec, Z, w.weights, cap, list);
-    result.grandCheck = g.rows;
-    result.impliedWeights = g.impliedWeights;
-    truncations.push(...tagged('grand', list));
-  }
-  if (spec.reference) {
-    progress.phase('reference', spec.reference.rows.length);
-    const list: Truncation[] = [];
-    result.referenceCheck = referenceCheck(spec, Z, cap, list);
-    truncations.push(...tagged('reference', list));
-  }
+  runTableChecks(spec, Z, w.weights, cap, result, progress.phase);
   const t4 = now();
 
   const keep = opts.collectClasses ?? !(opts.onClass || opts.onClassText);
@@ -183,19 +160,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
     routes: routes[N]!,
     agrees: agrees[N]!,
   }));
-  if (spec.largeN !== undefined || nMax >= 4) {
-    let normalization: Series[] | undefined;
-    const text = spec.largeN?.normalization;
-    if (text !== undefined) {
-      const field = 'largeN.normalization';
-      const node = parseExpression(text, field);
-      const list: Truncation[] = [];
-      normalization = Z.map((_, N) => seriesAt(node, ring, field, list, { N }));
-      truncations.push(...tagged('largeN', list));
-    }
-    const analysis = largeNAnalysis(Z, spec, normalization ? { normalization } : {});
-    if (analysis) result.largeN = analysis;
-  }
+  runLargeN(spec, Z, ring, result);
   result.timings.checksMs = t4 - t3;
   result.timings.classesMs = t5 - t4;
   result.timings.totalMs = now() - t0;

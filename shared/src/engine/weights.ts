@@ -25,6 +25,8 @@ export interface GasRing {
   cap: Fraction | null;
   nMax: number;
   tick?: () => void;
+  /** Values every expression of the gas sees (the sector indices in sector mode). */
+  bindings?: Readonly<Record<string, number | Fraction>>;
 }
 
 function asSeries(v: unknown, field: string): Series {
@@ -40,7 +42,14 @@ export function seriesAt(
   truncations: Truncation[],
   bindings: Record<string, number | Fraction> = {},
 ): Series {
-  const opts = { variable: ring.variable, cap: ring.cap, nMax: ring.nMax, bindings, truncations };
+  const all = ring.bindings ? { ...ring.bindings, ...bindings } : bindings;
+  const opts = {
+    variable: ring.variable,
+    cap: ring.cap,
+    nMax: ring.nMax,
+    bindings: all,
+    truncations,
+  };
   const ctx: EvalContext = makeContext(ring.tick ? { ...opts, tick: ring.tick } : opts);
   return asSeries(evaluateAt(node, ctx, field), field);
 }

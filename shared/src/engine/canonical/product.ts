@@ -65,8 +65,8 @@ function productOnArrays(
   for (const c of points) step = stepGcd(step, c.step);
   const cs = points.map((c) => c.onStep(step));
   if (cs.some((c) => c.num.length > 0 && c.start < 0)) return null;
-  let M = gridIndex(cs[0] ?? Series.constant(frac(0)).onStep(step), cap)[1];
-  if (cs.length === 0) M = Number(cap.div(step).valueOf());
+  // no lattice point below the order (e.g. a sector whose spectrum lies beyond it): M = cap / step
+  let M = cs.length === 0 ? Number(cap.div(step).valueOf()) : gridIndex(cs[0]!, cap)[1];
   let D = 1n;
   for (const c of cs) {
     D = lcm(D, c.den);
