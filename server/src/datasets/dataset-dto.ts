@@ -84,12 +84,20 @@ export function citationOf(
   return `${d.title}, version ${d.version}, Traceloom dataset locked ${d.lockedAt.slice(0, 10)}, SHA-256 ${d.hash}.`;
 }
 
-/** Why the dataset cannot be locked now (state, approvals, red checks); empty when it can. */
-export function lockBlockers(d: Dataset, children: DatasetChildren): string[] {
+/** The sentence shown when the would-be locker approved the dataset themselves. */
+export const APPROVER_CANNOT_LOCK = 'you approved it, so another steward must lock it';
+
+/**
+ * Why the dataset cannot be locked now by `lockerId` (state, approvals, red checks, and
+ * separation of duties: the steward who approved may not lock); empty when it can.
+ */
+export function lockBlockers(d: Dataset, children: DatasetChildren, lockerId: string): string[] {
   const out: string[] = [];
   if (d.state !== 'in_review') out.push('the dataset must be in review');
-  const approvals = [...latestVerdicts(children.reviews).values()].filter((v) => v === 'approve');
-  if (approvals.length === 0) out.push('no reviewer has approved it yet');
+  const verdicts = latestVerdicts(children.reviews);
+  if (verdicts.get(lockerId) === 'approve') out.push(APPROVER_CANNOT_LOCK);
+  const approvals = [...verdicts].filter(([id, v]) => v === 'approve' && id !== lockerId);
+  if (approvals.length === 0) out.push('no other reviewer has approved it yet');
   const red = datasetChecks(readSnapshot(d.snapshot), children.waivers).filter(
     (c) => c.status === 'red',
   );
@@ -109,7 +117,7 @@ export async function toDatasetDto(
   const isCreator = d.createdBy.id === actor.id;
   const steward = actor.role === 'steward';
   const requested = children.requests.some((r) => r.reviewer.id === actor.id);
-  const blockers = lockBlockers(d, children);
+  const blockers = lockBlockers(d, children, actor.id);
   return {
     ...(await toSummary(manager, d)),
     description: d.description,

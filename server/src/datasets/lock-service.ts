@@ -18,7 +18,13 @@ import {
   loadWritableDataset,
 } from './dataset-access.js';
 import { buildDocument, canonicalHash, sha256Hex } from './dataset-document.js';
-import { citationOf, loadChildren, lockBlockers, person } from './dataset-dto.js';
+import {
+  APPROVER_CANNOT_LOCK,
+  citationOf,
+  loadChildren,
+  lockBlockers,
+  person,
+} from './dataset-dto.js';
 import { lockMail } from './dataset-mails.js';
 import { datasetLink } from './review-service.js';
 import { readSnapshot } from './snapshot.js';
@@ -46,7 +52,14 @@ export async function lockDataset(
         );
       }
       const children = await loadChildren(manager, d.id);
-      const blockers = lockBlockers(d, children);
+      const blockers = lockBlockers(d, children, actor.id);
+      if (blockers.includes(APPROVER_CANNOT_LOCK)) {
+        throw new AppError(
+          403,
+          'approved_by_you',
+          'You approved this dataset; another steward must lock it.',
+        );
+      }
       if (blockers.length > 0) {
         throw new AppError(
           409,

@@ -84,6 +84,14 @@ export async function requestReview(
           field,
         );
       }
+      if (user.id === actor.id) {
+        throw new AppError(
+          400,
+          'invalid_input',
+          `${field}: you cannot ask yourself for a review; ask another reviewer or steward.`,
+          field,
+        );
+      }
       const asActor = {
         id: user.id,
         email: user.email,
@@ -182,8 +190,13 @@ export async function addReview(
   const done = await ctx.dataSource.transaction(async (manager) => {
     const d = await loadWritableDataset(manager, actor, datasetId);
     const { requests } = await loadChildren(manager, d.id);
-    if (!requests.some((r) => r.reviewer.id === actor.id)) {
+    const mine = requests.filter((r) => r.reviewer.id === actor.id);
+    if (mine.length === 0) {
       throw forbidden('Only a reviewer asked to review this dataset may give a verdict.');
+    }
+    // Separation of duties: a request someone made of themselves does not count.
+    if (mine.every((r) => r.requestedBy.id === actor.id)) {
+      throw forbidden('You asked for this review yourself; another person must review it.');
     }
     if (d.state !== 'in_review')
       throw new AppError(409, 'invalid_state', `The dataset is ${d.state}.`);

@@ -20,6 +20,7 @@ export const HELP_PAGES: readonly HelpPage[] = [
   { slug: 'checks', title: 'Checks and reference tables' },
   { slug: 'datasets', title: 'Datasets' },
   { slug: 'api', title: 'HTTP API' },
+  { slug: 'operations', title: 'Operations and security' },
   { slug: 'cli', title: 'Command line' },
 ];
 
