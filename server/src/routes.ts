@@ -9,6 +9,7 @@ import { gasRoutes } from './gases/gas-routes.js';
 import { healthRoutes } from './http/health-routes.js';
 import type { RouteSpec } from './http/route-table.js';
 import { mailRoutes } from './mail/mail-routes.js';
+import { productRoutes } from './products/product-routes.js';
 import { referenceRoutes } from './references/reference-routes.js';
 import { runRoutes } from './runs/run-routes.js';
 import { studyRoutes } from './studies/study-routes.js';
@@ -29,6 +30,7 @@ export function apiRoutes(ctx: AppContext): RouteSpec[] {
     ...gasRoutes(ctx),
     ...computeRoutes(ctx),
     ...runRoutes(ctx),
+    ...productRoutes(ctx),
     ...referenceRoutes(ctx),
     ...comparisonRoutes(ctx),
     ...datasetRoutes(ctx),

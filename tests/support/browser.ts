@@ -40,7 +40,10 @@ export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
   return {
     browser,
     newPage: async () => {
-      const context = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1366, height: 820 } });
+      const context = await browser.newContext({
+        baseURL: baseUrl,
+        viewport: { width: 1366, height: 820 },
+      });
       context.on('request', (request) => {
         const url = new URL(request.url());
         if (url.protocol.startsWith('http') && url.host !== own) foreign.push(request.url());
@@ -56,4 +59,13 @@ export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
       await browser.close();
     },
   };
+}
+
+/** Signs in through the sign-in page and waits for the top bar to show the user. */
+export async function signInPage(page: Page, email: string, password: string): Promise<void> {
+  await page.goto('/sign-in');
+  await page.getByTestId('sign-in-email').fill(email);
+  await page.getByTestId('sign-in-password').fill(password);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('current-user').waitFor();
 }

@@ -8,6 +8,7 @@ import {
   type NumericCompareTask,
 } from '../comparisons/compare-rows.js';
 import { AppError } from '../http/app-error.js';
+import { productTask, type ProductTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
 
@@ -17,6 +18,7 @@ export type WorkerTask =
   | { kind: 'preview'; spec: unknown }
   | ({ kind: 'compare' } & CompareTask)
   | ({ kind: 'compareNumeric' } & NumericCompareTask)
+  | ({ kind: 'productForm' } & ProductTask)
   | {
       kind: 'reference';
       bytes: Uint8Array;
@@ -83,7 +85,8 @@ function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
  * The pool's entry point; runs in a worker thread, never on the server's main thread. `run`
  * computes a gas spec with progress sent through `port`; `preview` answers the result itself;
  * `compare` gives reference-row verdicts for a finished run (`compareNumeric`: a numeric run,
- * within tolerance); `reference` reads an uploaded
+ * within tolerance); `productForm` writes one series or the grand function as a product;
+ * `reference` reads an uploaded
  * table (content checks, rows, expression syntax).
  */
 export default function work(task: WorkerTask): unknown {
@@ -105,6 +108,12 @@ export default function work(task: WorkerTask): unknown {
     case 'compareNumeric':
       try {
         return { ok: true, rows: compareReferenceRowsNumeric(task) };
+      } catch (e) {
+        return refusal(e);
+      }
+    case 'productForm':
+      try {
+        return { ok: true, product: productTask(task) };
       } catch (e) {
         return refusal(e);
       }

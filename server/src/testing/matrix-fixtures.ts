@@ -34,6 +34,7 @@ export function featureAccess(all: readonly Role[], editors: readonly Role[]): R
     'GET /references/:id': all,
     'POST /runs/:id/comparisons': all,
     'GET /runs/:id/comparisons': all,
+    'GET /runs/:id/product-form': all,
   };
 }
 
@@ -130,5 +131,9 @@ export function featureMatrix(
       return { path: `/runs/${runId}/comparisons`, body: { referenceId: await referenceFor(actor) }, status: 201 };
     },
     'GET /runs/:id/comparisons': async (actor) => ({ path: `/runs/${await runFor(actor)}/comparisons`, status: 200 }),
+    'GET /runs/:id/product-form': async (actor) => ({
+      path: `/runs/${await runFor(actor)}/product-form?of=row&N=2`,
+      status: 200,
+    }),
   };
 }

@@ -40,6 +40,12 @@ export type { ClassRow } from './canonical/classes.js';
 export { classRowJsonText } from './canonical/class-text.js';
 export { spectrumProduct } from './canonical/product.js';
 export type { RowVerdict, WeightVerdict } from './checks/grand.js';
-export { largeNAnalysis, productForm, productExponentList } from './largen/index.js';
+export {
+  grandProductForm,
+  largeNAnalysis,
+  productForm,
+  productExponentList,
+  seriesProductForm,
+} from './largen/index.js';
 export type * from './largen/types.js';
 export type { LargeNOptions } from './largen/index.js';

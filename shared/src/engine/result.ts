@@ -134,6 +134,8 @@ export interface ComputeResult {
     productMs: number;
     checksMs: number;
     classesMs: number;
+    /** The large-N analysis of a series table, when it ran (part of totalMs). */
+    largeNMs?: number;
   };
 }
 

@@ -62,6 +62,8 @@ export function runLargeN(
     normalization = Z.map((_, N) => seriesAt(node, ring, field, list, { N }));
     result.truncations.push(...tagged('largeN', list));
   }
+  const started = Date.now();
   const analysis = largeNAnalysis([...Z], spec, normalization ? { normalization } : {});
+  result.timings.largeNMs = Date.now() - started;
   if (analysis) result.largeN = analysis;
 }

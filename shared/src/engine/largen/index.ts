@@ -7,6 +7,7 @@ import type { LargeNClassJson, LargeNJson } from './types.js';
 
 export type * from './types.js';
 export { productForm, productExponentList, moebius } from './product.js';
+export { grandProductForm, seriesProductForm, ON_REQUEST_EXPONENTS } from './on-request.js';
 
 /** Options of the large-N analysis. */
 export interface LargeNOptions {

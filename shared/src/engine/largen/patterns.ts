@@ -32,7 +32,7 @@ export function describePattern(
   while (last >= 0 && a[last]!.equals(0)) last--;
   if (last >= 0 && 2 * (last + 1) <= known) {
     return {
-      pattern: `a_${name} = 0 for ${name} > ${last + 1}`,
+      pattern: `a_n = 0 for n > ${step.mul(last + 1).toFraction()}`,
       note: `a finite product on the known range: holds ${where}`,
     };
   }

@@ -95,3 +95,24 @@ export interface LargeNJson {
   classes: LargeNClassJson[];
   notes: string[];
 }
+
+/** The product form of one series asked for on request: f = c q^v prod (1 - q^n)^(-a_n). */
+export interface SeriesProductJson {
+  /** What the series is, e.g. `Z(3)` or `Z_2`. */
+  of: string;
+  /** v, the exponent of the leading term divided out. */
+  leadingExponent: string;
+  /** c, the leading coefficient divided out. */
+  leadingCoefficient: string;
+  product: ProductFormJson;
+}
+
+/** The grand function as prod_{N>=1} prod_n (1 - kappa^N q^n)^(-a_(N,n)). */
+export interface GrandProductJson {
+  of: 'Xi';
+  /** c_N(q) = sum_n a_(N,n) q^n for N = 1..nMax, each to its known order. */
+  factors: { N: number; value: ValueJson }[];
+  /** `c_N = 0 for N > K` when every later c_N vanishes on the known range, else null. */
+  pattern: string | null;
+  patternNote: string;
+}

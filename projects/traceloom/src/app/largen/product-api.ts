@@ -1,0 +1,31 @@
+import { HttpClient } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type { Observable } from 'rxjs';
+import type { GrandProductJson, SeriesProductJson } from '@traceloom/shared/engine';
+
+/** What to write as a product: a canonical row, a cycle weight or the grand function. */
+export type ProductTarget =
+  { of: 'row'; N: number } | { of: 'weight'; L: number } | { of: 'grand' };
+
+/** The answer of GET /api/runs/:id/product-form. */
+export type ProductFormDto = { runId: string } & (
+  | ({ target: 'row'; N: number } & SeriesProductJson)
+  | ({ target: 'weight'; L: number } & SeriesProductJson)
+  | ({ target: 'grand' } & GrandProductJson)
+);
+
+/** Product forms on request for a finished run. */
+@Injectable({ providedIn: 'root' })
+export class ProductApi {
+  private readonly http = inject(HttpClient);
+
+  /** The product form of one row, weight or the grand function of run `runId`. */
+  productForm(runId: string, target: ProductTarget): Observable<ProductFormDto> {
+    const params: Record<string, string> = { of: target.of };
+    if (target.of === 'row') params['N'] = String(target.N);
+    if (target.of === 'weight') params['L'] = String(target.L);
+    return this.http.get<ProductFormDto>(`/api/runs/${encodeURIComponent(runId)}/product-form`, {
+      params,
+    });
+  }
+}

@@ -1,0 +1,111 @@
+import type { GrandProductJson, SeriesProductJson, ValueJson } from '@traceloom/shared/engine';
+import { z } from 'zod';
+import type { AppContext } from '../app-context.js';
+import { isNumericResult } from '../compute/numeric-values.js';
+import { runWithin } from '../compute/refusal.js';
+import { computeServices } from '../compute/services.js';
+import { AppError } from '../http/app-error.js';
+import type { Actor } from '../http/route-table.js';
+import { parseInput } from '../http/validate.js';
+import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import type { WorkerRefusal } from '../runs/worker.js';
+import type { ProductTask } from './product-task.js';
+
+/** Wall-clock limit of one product form in the worker. */
+const PRODUCT_LIMIT_MS = 10_000;
+
+const whole = (what: string) =>
+  z
+    .string({ error: `must be a whole number ${what}` })
+    .regex(/^\d{1,4}$/, { error: `must be a whole number ${what}` })
+    .transform(Number);
+
+/** The query of `GET /runs/:id/product-form`: `of=row&N=3`, `of=weight&L=2` or `of=grand`. */
+export const productQuerySchema = z.discriminatedUnion(
+  'of',
+  [
+    z.object({ of: z.literal('row'), N: whole('N') }),
+    z.object({ of: z.literal('weight'), L: whole('L') }),
+    z.object({ of: z.literal('grand') }),
+  ],
+  { error: 'must be row, weight or grand' },
+);
+
+/** A product form for the client, with the run it was read from. */
+export type ProductFormDto = { runId: string } & (
+  | ({ target: 'row'; N: number } & SeriesProductJson)
+  | ({ target: 'weight'; L: number } & SeriesProductJson)
+  | ({ target: 'grand' } & GrandProductJson)
+);
+
+/**
+ * The product form of one canonical row, one cycle weight or the grand function of a finished
+ * series run, computed on request in the quick worker pool. 400 naming `N`/`L` for a row or
+ * weight the run does not hold, 409 for a run that is not done, 400 for a numeric run, 400
+ * naming the target when the series has no product form (zero, not determined).
+ */
+export async function productFormOf(
+  ctx: AppContext,
+  actor: Actor,
+  runId: string,
+  query: unknown,
+): Promise<ProductFormDto> {
+  const run = await loadVisibleRun(ctx, actor, runId);
+  const q = parseInput(productQuerySchema, query);
+  const result = unpackResult(run);
+  if (run.status !== 'done' || !result) {
+    throw new AppError(409, 'run_not_done', `The run is ${run.status}; ask a finished run.`);
+  }
+  if (isNumericResult(result)) {
+    throw new AppError(
+      400,
+      'invalid_input',
+      'of: product forms are for q-series tables; this run is numeric.',
+      'of',
+    );
+  }
+  let task: ProductTask;
+  let field: string;
+  if (q.of === 'row') {
+    field = 'N';
+    const row = result.canonical.find((r) => r.N === q.N);
+    if (!row) throw outOfRange('N', q.N, result.canonical.length - 1);
+    task = { target: 'row', label: `Z(${q.N})`, value: row.value as ValueJson };
+  } else if (q.of === 'weight') {
+    field = 'L';
+    const w = result.weights.find((r) => r.L === q.L);
+    if (!w || q.L < 1) throw outOfRange('L', q.L, result.weights.length);
+    task = { target: 'weight', label: `Z_${q.L}`, value: w.value as ValueJson };
+  } else {
+    field = 'of';
+    task = {
+      target: 'grand',
+      canonical: result.canonical.map((r) => r.value as ValueJson),
+      order: result.spec.order ?? null,
+    };
+  }
+  const output = (await runWithin(
+    computeServices(ctx).pools.quick,
+    { kind: 'productForm', ...task },
+    PRODUCT_LIMIT_MS,
+    () => new AppError(422, 'too_heavy', `${field}: the product form took too long.`, field),
+  )) as { ok: true; product: SeriesProductJson | GrandProductJson } | WorkerRefusal;
+  if (!output.ok) throw new AppError(400, 'invalid_input', `${field}: ${output.message}.`, field);
+  const base = { runId };
+  if (q.of === 'row')
+    return { ...base, target: 'row', N: q.N, ...(output.product as SeriesProductJson) };
+  if (q.of === 'weight') {
+    return { ...base, target: 'weight', L: q.L, ...(output.product as SeriesProductJson) };
+  }
+  return { ...base, target: 'grand', ...(output.product as GrandProductJson) };
+}
+
+function outOfRange(field: 'N' | 'L', value: number, max: number): AppError {
+  const from = field === 'N' ? 0 : 1;
+  return new AppError(
+    400,
+    'invalid_input',
+    `${field}: ${value} is not in this run (it holds ${field} = ${from}..${max}).`,
+    field,
+  );
+}
