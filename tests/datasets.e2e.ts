@@ -126,12 +126,30 @@ describe('datasets in the browser', () => {
     // The steward locks; the citation and the public link appear; verify passes.
     const s = await browser.newPage();
     await signIn(s.page, 'steward@demo.test');
+    await s.page.getByTestId('nav-datasets').click();
+    await s.page
+      .getByTestId('dataset-row')
+      .filter({ hasText: 'Trap table for the group' })
+      .filter({ hasText: 'Approved, ready to lock' })
+      .waitFor();
     await s.page.goto(`/datasets/${datasetId}`);
+    await s.page
+      .getByTestId('dataset-state')
+      .filter({ hasText: 'Approved, ready to lock' })
+      .waitFor();
     await s.page.getByTestId('dataset-lock').click();
+    const confirm = s.page.getByRole('dialog');
+    const promised = await confirm.getByTestId('confirm-code').innerText();
+    expect(promised).toMatch(/^[0-9a-f]{64}$/);
+    await expect(confirm.getByTestId('confirm-items').innerText()).resolves.toMatch(
+      /canonical table Z\(0\)\.\.Z\(\d+\)/,
+    );
+    await browser.screenshot(s.page, 'datasets-steward-lock-confirm');
+    await confirm.getByRole('button', { name: 'Lock for good' }).click();
     await s.page.getByTestId('dataset-state').filter({ hasText: 'Locked' }).waitFor();
     const citation = await s.page.getByTestId('dataset-citation').innerText();
     const hash = /SHA-256 ([0-9a-f]{64})/.exec(citation)?.[1];
-    expect(hash).toBeDefined();
+    expect(hash).toBe(promised);
     expect(citation).toContain('Trap table for the group, version 1');
     await s.page.getByTestId('dataset-verify').click();
     await expect(s.page.getByTestId('dataset-verify-result').innerText()).resolves.toContain(

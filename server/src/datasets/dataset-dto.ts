@@ -31,7 +31,14 @@ export async function supersededBy(
 }
 
 /** A dataset (loaded with `DATASET_RELATIONS`) as a list shows it. */
-export async function toSummary(manager: EntityManager, d: Dataset): Promise<DatasetSummaryDto> {
+export async function toSummary(
+  manager: EntityManager,
+  d: Dataset,
+  known?: DatasetChildren,
+): Promise<DatasetSummaryDto> {
+  const children = known ?? (await loadChildren(manager, d.id));
+  const verdicts = [...latestVerdicts(children.reviews).values()];
+  const approved = d.state === 'in_review' && verdicts.includes('approve');
   return {
     id: d.id,
     studyId: d.study.id,
@@ -46,6 +53,9 @@ export async function toSummary(manager: EntityManager, d: Dataset): Promise<Dat
     createdBy: person(d.createdBy),
     createdAt: d.createdAt,
     updatedAt: d.updatedAt,
+    approved,
+    // Ready for a steward who has not approved it (the approving steward may not lock).
+    readyToLock: approved && lockBlockers(d, children, '').length === 0,
   };
 }
 
@@ -119,7 +129,7 @@ export async function toDatasetDto(
   const requested = children.requests.some((r) => r.reviewer.id === actor.id);
   const blockers = lockBlockers(d, children, actor.id);
   return {
-    ...(await toSummary(manager, d)),
+    ...(await toSummary(manager, d, children)),
     description: d.description,
     snapshot: {
       gas: snapshot.gas,

@@ -1,6 +1,7 @@
 import {
   datasetCommentSchema,
   datasetCreateSchema,
+  datasetLockSchema,
   datasetPatchSchema,
   datasetReviewSchema,
   datasetWaiverSchema,
@@ -19,8 +20,18 @@ import {
   reviewInbox,
 } from './dataset-service.js';
 import { exportDataset, importDataset, publicDataset, publicExport } from './export-service.js';
+import { lockPreview } from './lock-preview.js';
 import { lockDataset, verifyDataset, withdrawDataset } from './lock-service.js';
 import { addComment, addReview, addWaiver, requestReview } from './review-service.js';
+
+/** No body, or an empty JSON object. */
+function isEmpty(body: unknown): boolean {
+  return (
+    body === undefined ||
+    body === null ||
+    (typeof body === 'object' && Object.keys(body).length === 0)
+  );
+}
 
 /**
  * Dataset routes. Every write to a dataset is open to every role at the route level: the
@@ -110,7 +121,16 @@ export function datasetRoutes(ctx: AppContext): RouteSpec[] {
       method: 'post',
       path: '/datasets/:id/lock',
       access: ANY_ROLE,
-      handler: ({ actor, params }) => lockDataset(ctx, actor, id(params.id)),
+      handler: ({ actor, params, body }) =>
+        lockDataset(ctx, actor, id(params.id), () =>
+          isEmpty(body) ? undefined : parseInput(datasetLockSchema, body),
+        ),
+    },
+    {
+      method: 'get',
+      path: '/datasets/:id/lock-preview',
+      access: ANY_ROLE,
+      handler: ({ actor, params }) => lockPreview(ctx, actor, id(params.id)),
     },
     {
       method: 'post',

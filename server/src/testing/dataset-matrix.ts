@@ -35,6 +35,7 @@ export function datasetAccess(
     'POST /datasets/:id/reviews': all,
     'POST /datasets/:id/waivers': all,
     'POST /datasets/:id/lock': all,
+    'GET /datasets/:id/lock-preview': all,
     'POST /datasets/:id/withdraw': all,
     'POST /datasets/:id/verify': all,
     'GET /datasets/:id/export': all,
@@ -146,6 +147,12 @@ export function datasetMatrix(
       await inReview(app(), admin(), d.id, d.reviewer);
       await approve(app(), d.reviewer, d.id);
       return { path: `/datasets/${d.id}/lock`, status: only(actor, ['steward'], 200) };
+    },
+    'GET /datasets/:id/lock-preview': async (actor) => {
+      const d = await draft(actor, false);
+      await inReview(app(), admin(), d.id, d.reviewer);
+      await approve(app(), d.reviewer, d.id);
+      return { path: `/datasets/${d.id}/lock-preview`, status: only(actor, ['steward'], 200) };
     },
     'POST /datasets/:id/withdraw': async (actor) => ({
       path: `/datasets/${(await draft(actor, false)).id}/withdraw`,

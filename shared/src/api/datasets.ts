@@ -84,6 +84,30 @@ export const datasetWaiverSchema = z.strictObject({
   reason: textSchema(DATASET_LIMITS.reasonMax),
 });
 
+/**
+ * Body of `POST /api/datasets/:id/lock` when the steward confirmed a lock preview: the lock time
+ * and hash the preview named. The lock is then made with that time and refused (409 `changed`)
+ * when the document would hash differently. An empty body locks now without a preview.
+ */
+export const datasetLockSchema = z
+  .strictObject({
+    lockedAt: z.iso.datetime({ error: 'must be a time as the lock preview gave it' }),
+    hash: z.string().regex(/^[0-9a-f]{64}$/, 'must be the 64-digit hash the lock preview gave'),
+  })
+  .optional();
+
+/** A confirmed lock preview, or nothing. */
+export type DatasetLockInput = NonNullable<z.output<typeof datasetLockSchema>>;
+
+/** What `GET /api/datasets/:id/lock-preview` answers: the lock as it would be made now. */
+export interface LockPreviewDto {
+  /** The SHA-256 the dataset will carry when locked with `lockedAt`. */
+  hash: string;
+  lockedAt: string;
+  /** What the lock freezes, one phrase each. */
+  freezes: string[];
+}
+
 /** Where a dataset is in its life. */
 export type DatasetStateName = 'draft' | 'in_review' | 'locked' | 'withdrawn';
 
@@ -119,6 +143,10 @@ export interface DatasetSummaryDto {
   createdBy: DatasetPersonDto;
   createdAt: string;
   updatedAt: string;
+  /** In review, and some reviewer's latest verdict is "approve" (the lock's rule). */
+  approved: boolean;
+  /** Approved, every check green or waived: a steward may lock it now. */
+  readyToLock: boolean;
 }
 
 /** A dataset with its snapshot summary, checks, reviews and comments. */

@@ -7,6 +7,10 @@ export interface ConfirmData {
   title: string;
   message: string;
   confirmLabel: string;
+  /** A value to show as it is (a hash), with its label. */
+  code?: { label: string; value: string };
+  /** A list under the message (what the action affects). */
+  items?: string[];
 }
 
 /** Asks the user to confirm an action that cannot be undone; closes with true on confirm. */
@@ -14,7 +18,7 @@ export interface ConfirmData {
   selector: 'tl-confirm-dialog',
   imports: [MatButtonModule, MatDialogModule],
   templateUrl: './confirm-dialog.html',
-  styles: 'p { max-width: 420px; margin: 0; }',
+  styles: 'p, ul { max-width: 480px; margin: 0 0 8px; } code { word-break: break-all; }',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ConfirmDialog {

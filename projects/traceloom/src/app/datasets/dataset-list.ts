@@ -6,7 +6,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { DatasetSummaryDto } from '@traceloom/shared/api';
 import { messageOf } from '../core/api-error';
-import { STATE_ICONS, STATE_LABELS } from './datasets-api';
+import { stateIcon, stateLabel } from './datasets-api';
 
 /** Every dataset the caller may see, newest first, with state and version. */
 @Component({
@@ -18,8 +18,8 @@ import { STATE_ICONS, STATE_LABELS } from './datasets-api';
 })
 export class DatasetList {
   protected readonly datasets = httpResource<DatasetSummaryDto[]>(() => '/api/datasets');
-  protected readonly labels = STATE_LABELS;
-  protected readonly icons = STATE_ICONS;
+  protected readonly stateLabel = stateLabel;
+  protected readonly stateIcon = stateIcon;
   protected readonly loadError = computed(() => {
     const e = this.datasets.error();
     return e ? messageOf(e) : null;

@@ -22,6 +22,8 @@ function dataset(over: Partial<DatasetDto> = {}): DatasetDto {
     createdBy: { id: 'a1', displayName: 'Ines Okafor' },
     createdAt: '2026-03-01T10:00:00.000Z',
     updatedAt: '2026-03-01T10:00:00.000Z',
+    approved: false,
+    readyToLock: false,
     description: '',
     snapshot: {
       gas: { id: 'g1', title: 'ring kernel', version: 2 },
@@ -124,6 +126,35 @@ describe('DatasetPage', () => {
     req.flush(dataset({ checks: [{ ...dataset().checks[0]!, status: 'waived' }] }));
     await fixture.whenStable();
     expect(el.querySelector('tr.is-waived')).not.toBeNull();
+  });
+
+  it('says "Approved, ready to lock" and locks only after a confirmation naming the hash', async () => {
+    const ready = dataset({
+      approved: true,
+      readyToLock: true,
+      checks: [],
+      lockBlockers: [],
+      can: { ...dataset().can, lock: true },
+    });
+    await render('steward', ready);
+    expect(testId('dataset-state')?.textContent).toContain('Approved, ready to lock');
+    (testId('dataset-lock') as HTMLButtonElement).click();
+    http.expectNone(`/api/datasets/${ID}/lock`);
+    const hash = 'cd'.repeat(32);
+    const lockedAt = '2026-03-02T09:00:00.000Z';
+    const freezes = ['the canonical table Z(0)..Z(1) to O(q^6)', '0 check rows (0 waived)'];
+    http.expectOne(`/api/datasets/${ID}/lock-preview`).flush({ hash, lockedAt, freezes });
+    await fixture.whenStable();
+    const dialog = () => document.querySelector('tl-confirm-dialog');
+    expect(dialog()?.querySelector('[data-testid="confirm-code"]')?.textContent).toBe(hash);
+    expect(dialog()?.querySelector('[data-testid="confirm-items"]')?.textContent).toContain(
+      'Z(0)..Z(1)',
+    );
+    http.expectNone(`/api/datasets/${ID}/lock`);
+    (dialog()?.querySelector('[data-testid="confirm-yes"]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    const req = http.expectOne(`/api/datasets/${ID}/lock`);
+    expect(req.request.body).toEqual({ lockedAt, hash });
   });
 
   it('shows the citation and the hashed JSON export once locked', async () => {

@@ -9,6 +9,7 @@ import {
   signal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -22,7 +23,8 @@ import { ApiError, messageOf } from '../core/api-error';
 import { downloadText, fileStem } from '../exports/export-files';
 import { valueText } from '../runs/value-format';
 import { DatasetReviewPanel } from './dataset-review-panel';
-import { DatasetsApi, ExportFormat, STATE_ICONS, STATE_LABELS, VerifyAnswer } from './datasets-api';
+import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
+import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswer } from './datasets-api';
 
 const EXPORT_TYPES: Record<ExportFormat, [ext: string, type: string]> = {
   json: ['json', 'application/json'],
@@ -55,6 +57,7 @@ export class DatasetPage {
   private readonly api = inject(DatasetsApi);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
+  private readonly dialog = inject(MatDialog);
 
   /** Route `datasets/:datasetId`. */
   readonly datasetId = input.required<string>();
@@ -66,8 +69,8 @@ export class DatasetPage {
   protected readonly busy = signal(false);
   protected readonly verifyAnswer = signal<VerifyAnswer | null>(null);
   protected readonly waiverReasons = signal<Partial<Record<string, string>>>({});
-  protected readonly labels = STATE_LABELS;
-  protected readonly icons = STATE_ICONS;
+  protected readonly stateLabel = stateLabel;
+  protected readonly stateIcon = stateIcon;
   protected readonly valueText = valueText;
   protected readonly redCount = computed(
     () => this.dataset()?.checks.filter((c) => c.status === 'red').length ?? 0,
@@ -126,8 +129,34 @@ export class DatasetPage {
     this.dataset.set(d);
   }
 
+  /** Locking cannot be undone: first names the hash-to-be and what it freezes, then locks. */
   protected lock(d: DatasetDto): void {
-    this.act(this.api.lock(d.id), 'Locked. The dataset can no longer change.');
+    this.busy.set(true);
+    this.api.lockPreview(d.id).subscribe({
+      next: (preview) => {
+        this.busy.set(false);
+        const data: ConfirmData = {
+          title: `Lock “${d.title}” v${d.version}?`,
+          message:
+            'Locking is final: the dataset can then be read, exported, cited and verified, never changed. It freezes:',
+          items: preview.freezes,
+          code: { label: 'It will carry the SHA-256 hash', value: preview.hash },
+          confirmLabel: 'Lock for good',
+        };
+        this.dialog
+          .open(ConfirmDialog, { data, width: '560px' })
+          .afterClosed()
+          .subscribe((yes) => {
+            if (!yes) return;
+            const confirmed = { lockedAt: preview.lockedAt, hash: preview.hash };
+            this.act(this.api.lock(d.id, confirmed), 'Locked. The dataset can no longer change.');
+          });
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.snack.open(messageOf(err), 'Close', { duration: 8000 });
+      },
+    });
   }
 
   protected withdraw(d: DatasetDto): void {

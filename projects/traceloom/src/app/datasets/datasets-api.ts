@@ -2,6 +2,7 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import type {
+  LockPreviewDto,
   AuditEventDto,
   StudyDto,
   DatasetDto,
@@ -122,8 +123,13 @@ export class DatasetsApi {
   }
 
   /** Locks (steward); answers the hash. */
-  lock(id: string): Observable<{ hash: string }> {
-    return this.http.post<{ hash: string }>(`/api/datasets/${enc(id)}/lock`, {});
+  lock(id: string, confirmed: { lockedAt: string; hash: string }): Observable<{ hash: string }> {
+    return this.http.post<{ hash: string }>(`/api/datasets/${enc(id)}/lock`, confirmed);
+  }
+
+  /** The hash the lock would give now and what it freezes (steward, before confirming). */
+  lockPreview(id: string): Observable<LockPreviewDto> {
+    return this.http.get<LockPreviewDto>(`/api/datasets/${enc(id)}/lock-preview`);
   }
 
   /** Withdraws (steward). */
@@ -193,3 +199,20 @@ export const STATE_ICONS: Record<DatasetSummaryDto['state'], string> = {
   locked: 'lock',
   withdrawn: 'block',
 };
+
+/**
+ * A dataset's state as a person reads it: an approved dataset in review says so ("Approved,
+ * ready to lock" when nothing blocks the lock), so a steward sees what awaits them.
+ */
+export function stateLabel(
+  d: Pick<DatasetSummaryDto, 'state' | 'approved' | 'readyToLock'>,
+): string {
+  if (d.readyToLock) return 'Approved, ready to lock';
+  if (d.approved) return 'Approved, not lockable yet';
+  return STATE_LABELS[d.state];
+}
+
+/** The icon beside `stateLabel` (decoration only). */
+export function stateIcon(d: Pick<DatasetSummaryDto, 'state' | 'approved'>): string {
+  return d.approved ? 'verified' : STATE_ICONS[d.state];
+}

@@ -24,6 +24,8 @@ function entry(
       createdBy: { id: 'a', displayName: 'Ines Okafor' },
       createdAt: '2026-03-01T10:00:00.000Z',
       updatedAt: '2026-03-01T10:00:00.000Z',
+      approved: false,
+      readyToLock: false,
     },
     requestedBy: { id: 'a', displayName: 'Ines Okafor' },
     requestedAt: '2026-03-01T10:00:00.000Z',

@@ -6,7 +6,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import type { ReviewInboxEntryDto } from '@traceloom/shared/api';
 import { messageOf } from '../core/api-error';
-import { STATE_LABELS } from '../datasets/datasets-api';
+import { stateLabel } from '../datasets/datasets-api';
 
 /** The reviewer's inbox: datasets they were asked to review, waiting ones first. */
 @Component({
@@ -18,7 +18,7 @@ import { STATE_LABELS } from '../datasets/datasets-api';
 })
 export class ReviewInbox {
   protected readonly inbox = httpResource<ReviewInboxEntryDto[]>(() => '/api/review-requests');
-  protected readonly labels = STATE_LABELS;
+  protected readonly stateLabel = stateLabel;
   protected readonly entries = computed(() => {
     const all = this.inbox.value() ?? [];
     const waiting = (e: ReviewInboxEntryDto) =>
