@@ -65,7 +65,8 @@ export interface SectorRowJson {
   weight: AnyValueJson;
   /**
    * Series mode: valuations[N - 1] for N = 1..nMax is the leading exponent of Z_n(N) (an exact
-   * rational string), or null when Z_n(N) has no term below the order. Empty in numeric mode.
+   * rational string), or null when Z_n(N) has no term below the order it was computed to (the
+   * order minus the valuation of w(n): what w(n) Z_n(N) needs). Empty in numeric mode.
    */
   valuations: (string | null)[];
   /**

@@ -23,6 +23,8 @@ export interface SectorPart {
   /** Class contributions of Z_n(N) for N = 1..classTable, in the class sum's order. */
   classes: { N: number; cycleType: [number, number][]; size: string; sign: 1 | -1; c: Series }[];
   truncations: Truncation[];
+  /** The weight is exactly 0: nothing of the sector was computed. */
+  zero?: boolean;
 }
 
 /** Settings shared by every sector of one computation. */
@@ -41,6 +43,50 @@ export function sectorBindings(spec: GasSpec, n: readonly number[]): Record<stri
   return b;
 }
 
+/**
+ * The order Z_n is needed to: w(n) Z_n is wanted to O(q^order), so Z_n to O(q^(order - val w)),
+ * rounded up to the grid of the gas (valuation-aware truncation: far sectors cost little).
+ */
+function sectorCap(cap: Fraction | null, weight: Series, step: Fraction): Fraction | null {
+  if (cap === null) return null;
+  const v = weight.valExponent()!;
+  const need = cap.sub(v).div(step).ceil().mul(step);
+  return need.compare(step) < 0 ? step : need;
+}
+
+/**
+ * The largest N whose Z_n(N) can have a term below `cap`: with every c_p of valuation >= 0,
+ * val Z_n(N) >= the sum of the N least valuations (fermions: N distinct states) or N times the
+ * least (bosons); rows beyond are O(q^cap) without being computed. Points left out of a cut
+ * lattice lie beyond `cap`, so they cannot lower the bound below it.
+ */
+function rowsBelow(
+  points: readonly Series[],
+  nMax: number,
+  fermion: boolean,
+  cap: Fraction,
+): number {
+  const vals = points.map((c) => c.valExponent() ?? cap);
+  if (vals.some((v) => v.compare(0) < 0)) return nMax;
+  vals.sort((a, b) => a.compare(b));
+  let bound = new Fraction(0);
+  for (let N = 1; N <= nMax; N++) {
+    const v = fermion ? vals[N - 1] : vals[0];
+    if (v === undefined) return N - 1;
+    bound = bound.add(v);
+    if (bound.compare(cap) >= 0) return N - 1;
+  }
+  return nMax;
+}
+
+/** A sector of weight exactly 0: it contributes nothing, and its gas is not computed. */
+function zeroPart(spec: GasSpec, n: readonly number[], weight: Series): SectorPart {
+  const zero = Series.constant(new Fraction(0));
+  const canonical = [Series.constant(new Fraction(1))];
+  for (let N = 1; N <= spec.nMax; N++) canonical.push(zero);
+  return { index: n.slice(), weight, canonical, classes: [], truncations: [], zero: true };
+}
+
 /** Write n as "(n=1, m=-2)" for messages. */
 export function sectorLabel(spec: GasSpec, n: readonly number[]): string {
   return spec.sectors!.index.map((name, k) => `${name}=${n[k]}`).join(', ');
@@ -52,39 +98,32 @@ export function sectorLabel(spec: GasSpec, n: readonly number[]): string {
  * A failing expression is reported with its field and the sector it failed in.
  */
 export function sectorPart(ctx: SectorContext, n: readonly number[]): SectorPart {
-  const { spec, cap } = ctx;
+  const { spec } = ctx;
   const bindings = sectorBindings(spec, n);
   const truncations: Truncation[] = [];
-  const ring = {
-    variable: spec.variable,
-    cap,
-    nMax: spec.nMax,
-    bindings,
-    ...(ctx.tick && { tick: ctx.tick }),
-  };
   const fermion = spec.statistics === 'fermion';
+  const full = { variable: spec.variable, cap: ctx.cap, nMax: spec.nMax, bindings };
   try {
-    const weight = seriesAt(ctx.weightNode, ring, 'sectors.weight', truncations);
+    const weight = seriesAt(ctx.weightNode, full, 'sectors.weight', truncations);
+    if (weight.isZero()) return zeroPart(spec, n, weight);
+    const cap = sectorCap(ctx.cap, weight, new Fraction(spec.step));
+    const ring = { ...full, cap, ...(ctx.tick && { tick: ctx.tick }) };
     const w = cycleWeights(spec, ring);
     truncations.push(...w.truncations);
-    const canonical = newtonRecursion(
-      w.weights,
-      spec.nMax,
-      fermion,
-      cap,
-      undefined,
-      ctx.shouldStop,
+    const rows =
+      w.spectrum && cap ? rowsBelow(w.spectrum.points, spec.nMax, fermion, cap) : spec.nMax;
+    const pad = (table: Series[]): Series[] => {
+      for (let N = rows + 1; N <= spec.nMax; N++) table.push(Series.bigO(cap!));
+      return table;
+    };
+    const canonical = pad(
+      newtonRecursion(w.weights.slice(0, rows), rows, fermion, cap, undefined, ctx.shouldStop),
     );
     const part: SectorPart = { index: n.slice(), weight, canonical, classes: [], truncations };
     if (w.spectrum) {
-      part.product = spectrumProduct(
-        w.spectrum.points,
-        spec.nMax,
-        fermion,
-        cap,
-        w.spectrum.truncated,
-      );
-      part.points = w.spectrum.points.length;
+      const { points, truncated } = w.spectrum;
+      part.product = pad(spectrumProduct(points, rows, fermion, cap, truncated));
+      part.points = points.length;
     }
     for (let N = 1; N <= spec.classTable; N++) {
       classSum(N, w.weights, fermion, cap, (row) =>

@@ -82,6 +82,11 @@ export class SectorWalk {
     }
     this.r++;
     if (this.bounded) return;
+    // a shell of weights exactly 0 (e.g. w(n) = (1 + (-1)^n)/2 on odd n) says nothing either way
+    if (parts.length > 0 && parts.every((p) => p.zero)) {
+      this.checkStarted();
+      return;
+    }
     if (least === null) {
       this.quiet++;
     } else {
@@ -99,14 +104,19 @@ export class SectorWalk {
       this.finished = true;
       return;
     }
-    if (!this.seen && this.r > STALL_SHELLS)
-      throw new EngineError(
-        `no sector within max |n| <= ${this.r - 1} contributes below the order; bound the ranges or raise the order`,
-        'sectors',
-      );
+    this.checkStarted();
     if (this.since > STALL_SHELLS)
       throw new EngineError(
         'the sector sum does not converge: the valuations of w(n) Z_n(N) stop growing',
+        'sectors',
+      );
+  }
+
+  /** Refuse a sum of which no sector contributed within the first STALL_SHELLS shells. */
+  private checkStarted(): void {
+    if (!this.seen && this.r > STALL_SHELLS)
+      throw new EngineError(
+        `no sector within max |n| <= ${this.r - 1} contributes below the order; bound the ranges or raise the order`,
         'sectors',
       );
   }
