@@ -1,22 +1,5 @@
 import Fraction from 'fraction.js';
 
-/** Greatest common divisor of two bigints (non-negative result). */
-export function gcd(a: bigint, b: bigint): bigint {
-  if (a < 0n) a = -a;
-  if (b < 0n) b = -b;
-  while (b !== 0n) {
-    const t = a % b;
-    a = b;
-    b = t;
-  }
-  return a;
-}
-
-/** Least common multiple of two positive bigints. */
-export function lcm(a: bigint, b: bigint): bigint {
-  return (a / gcd(a, b)) * b;
-}
-
 /** Exact rational from numerator and denominator. */
 export function frac(n: bigint | number, d: bigint | number = 1n): Fraction {
   return new Fraction(BigInt(n), BigInt(d));
@@ -30,13 +13,6 @@ export function numer(f: Fraction): bigint {
 /** `n/d` (or `n` when d = 1): the exact rational string of the result format. */
 export function fracString(f: Fraction): string {
   return f.toFraction();
-}
-
-/** n! as a bigint. */
-export function factorialBig(n: number): bigint {
-  let r = 1n;
-  for (let i = 2; i <= n; i++) r *= BigInt(i);
-  return r;
 }
 
 /** Integer k-th root of a non-negative bigint, or null when it is not a perfect power. */

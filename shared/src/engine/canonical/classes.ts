@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
 import { classSumRational, exponentNotation, foldCycleTypes } from '../kernel/index.js';
 import { exactClassRowText } from './class-text.js';
+import { factorial } from '../integers.js';
 import { frac, numer } from '../rational.js';
 import { add, mul, scale } from '../series/arith.js';
 import { Series } from '../series/series.js';
@@ -16,12 +17,6 @@ export interface ClassRow {
   sign: 1 | -1;
   /** sign * prod_L Z_L^(m_L) / z_lambda. */
   contribution: Series;
-}
-
-function factorial(n: number): bigint {
-  let f = 1n;
-  for (let i = 2; i <= n; i++) f *= BigInt(i);
-  return f;
 }
 
 /**
@@ -52,21 +47,20 @@ export function classSum(
       n: N,
       sign: fermion ? -1 : 1,
       ...(onRow && {
-        onRow: (r) => {
+        onRow: (visit, c) => {
           onRow({
             N,
-            cycleType: exponentNotation(r.visit),
-            size: r.visit.size.toString(),
-            sign: fermion ? r.visit.sign : 1,
-            contribution: Series.reducedConstant(r.contribution.num, r.contribution.den),
+            cycleType: exponentNotation(visit),
+            size: visit.size.toString(),
+            sign: fermion ? visit.sign : 1,
+            contribution: Series.reducedConstant(c.num, c.den),
           });
           counted();
         },
       }),
       ...(onExactText && {
-        onRow: (r) => {
-          const c = r.contribution;
-          onExactText(exactClassRowText(r.visit, fermion ? r.visit.sign : 1, c.num, c.den));
+        onRow: (visit, c) => {
+          onExactText(exactClassRowText(visit, fermion ? visit.sign : 1, c.num, c.den));
           counted();
         },
       }),

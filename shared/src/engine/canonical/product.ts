@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
 import { mulTrunc } from '../series/multiply.js';
-import { frac, lcm } from '../rational.js';
+import { lcm } from '../integers.js';
+import { frac } from '../rational.js';
 import { add, mul } from '../series/arith.js';
 import { cutAt, gridIndex, Series, stepGcd } from '../series/series.js';
 

@@ -1,8 +1,8 @@
 import Fraction from 'fraction.js';
-import { KernelStopped, newtonTable } from '../kernel/index.js';
-import { EngineCancelled } from '../errors.js';
+import { chooseNewtonRoute, newtonTable, type NewtonTableInput } from '../kernel/index.js';
 import { MAX_ORDER } from '../limits.js';
-import { frac, lcm } from '../rational.js';
+import { lcm } from '../integers.js';
+import { frac } from '../rational.js';
 import { add, mul, neg, scale } from '../series/arith.js';
 import { gridIndex, Series, stepGcd } from '../series/series.js';
 
@@ -55,9 +55,10 @@ function pack(weights: readonly Series[], nMax: number, cap: Fraction | null): P
 
 /**
  * The canonical table Z(0..nMax) by the Newton recursion N Z(N) = sum_(L=1..N) s^(L-1) Z_L Z(N-L),
- * s = -1 fermions, +1 bosons. Weights on one grid without negative exponents go to the kernel's
- * exact table (multi-modular or BigInt); otherwise series arithmetic with every product cut at
- * `cap`. Z(N) is known as far as the least-known weight (the weights have no negative exponents).
+ * s = -1 fermions, +1 bosons. The route is the kernel's one decision (chooseNewtonRoute, see
+ * kernel/README.md): weights on one grid without negative exponents go to the exact integer table
+ * (multi-modular or BigInt); otherwise series arithmetic with every product cut at `cap`. Z(N) is
+ * known as far as the least-known weight (the weights have no negative exponents).
  */
 export function newtonRecursion(
   weights: readonly Series[],
@@ -68,28 +69,24 @@ export function newtonRecursion(
   shouldStop?: () => boolean,
 ): Series[] {
   const packed = pack(weights, nMax, cap);
-  if (packed !== null && packed.length > 0) {
-    try {
-      const r = newtonTable({
-        weights: packed.nums,
-        den: packed.den,
-        nMax,
-        sign: fermion ? -1 : 1,
-        length: packed.length,
-        ...(tick && { onProgress: tick }),
-        ...(shouldStop && { shouldStop }),
-      });
-      return r.num.map((num, N) =>
-        N === 0
-          ? Series.constant(frac(1))
-          : Series.of(packed.step, 0, num.slice(), r.den[N]!, packed.order),
-      );
-    } catch (e) {
-      if (e instanceof KernelStopped) throw new EngineCancelled();
-      throw e;
-    }
-  }
-  return recursionBySeries(weights, nMax, fermion, cap, tick);
+  const input: NewtonTableInput | null = packed && {
+    weights: packed.nums,
+    den: packed.den,
+    nMax,
+    sign: fermion ? -1 : 1,
+    length: packed.length,
+    ...(tick && { onProgress: tick }),
+    ...(shouldStop && { shouldStop }),
+  };
+  const route = chooseNewtonRoute(input);
+  if (route.kind === 'series' || !packed || !input)
+    return recursionBySeries(weights, nMax, fermion, cap, tick);
+  const r = newtonTable(input, route);
+  return r.num.map((num, N) =>
+    N === 0
+      ? Series.constant(frac(1))
+      : Series.of(packed.step, 0, num.slice(), r.den[N]!, packed.order),
+  );
 }
 
 /** The recursion in series arithmetic (any exponents). */

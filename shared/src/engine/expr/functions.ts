@@ -3,7 +3,8 @@ import type { MathNode } from 'mathjs';
 import { EngineError } from '../errors.js';
 import { plethysticExp, plethysticLog } from '../largen/plethystic.js';
 import { MAX_TERMS } from '../limits.js';
-import { factorialBig, frac } from '../rational.js';
+import { factorial } from '../integers.js';
+import { frac } from '../rational.js';
 import { Series } from '../series/series.js';
 import type { EvalContext } from './evaluate.js';
 import { runInfinite, runFinite } from './loops.js';
@@ -188,7 +189,7 @@ export function callFunction(
       arity(name, args, 1);
       const n = asInteger(ev(0), 'factorial: the argument');
       if (n < 0 || n > 10000) throw new EngineError('factorial: the argument must be in 0..10000');
-      return Series.constant(new Fraction(factorialBig(n)));
+      return Series.constant(new Fraction(factorial(n)));
     }
     case 'exp':
       arity(name, args, 1);

@@ -1,24 +1,24 @@
 /**
- * Fast numeric kernels of the engine: truncated products of integer coefficient arrays, the
- * multi-modular Newton recursion for canonical tables, and streaming cycle-type enumeration for
- * class sums. Pure TypeScript on plain integer arrays; the rational and series bookkeeping stays
- * in the engine's general layer.
+ * The exact kernels of the engine on plain integer arrays (see README.md for which route runs
+ * when): the Newton recursion for canonical tables (newton/), word-prime arithmetic and
+ * transforms (modular/), truncated products (multiply/) and streaming cycle-type walks for class
+ * sums (classes/). The rational and series bookkeeping stays in the engine's general layer.
  */
-export { mulTrunc, mulSchoolbook, mulKronecker, mulSparse } from './mul-trunc.js';
-export { newtonTable, newtonTableModular } from './newton-table.js';
-export { newtonTableBig } from './newton-big.js';
-export { newtonIsIntegral } from './integrality.js';
-export { KernelStopped, type NewtonTableInput, type NewtonTableResult } from './types.js';
+export { mulTrunc, mulSchoolbook, mulKronecker, mulSparse } from './multiply/mul-trunc.js';
+export { newtonTable, newtonTableModular } from './newton/table.js';
+export { newtonTableBig } from './newton/big.js';
+export { chooseNewtonRoute, type NewtonRoute } from './newton/route.js';
+export { newtonIsIntegral } from './newton/integrality.js';
+export type { NewtonTableInput, NewtonTableResult } from './newton/types.js';
 export {
   foldCycleTypes,
   forEachCycleType,
   exponentNotation,
   type CycleTypeVisit,
-} from './cycle-types.js';
+} from './classes/cycle-types.js';
 export {
   classSumRational,
   reduceRational,
-  type ClassRow,
   type ClassSumInput,
   type RationalParts,
-} from './class-sum.js';
+} from './classes/class-sum.js';

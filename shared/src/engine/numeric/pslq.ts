@@ -1,3 +1,4 @@
+import { gcd } from '../integers.js';
 import { abs, bitLength, cmp, div, isqrt, mul, Real, add, sqrt, toFixed, ZERO } from './real.js';
 
 /** Why a search ended. */
@@ -40,14 +41,6 @@ function roundDiv(a: bigint, b: bigint): bigint {
     b = -b;
   }
   return a >= 0n ? (2n * a + b) / (2n * b) : -((-2n * a + b) / (2n * b));
-}
-
-/** Greatest common divisor of |a| and |b|. */
-export function gcd(a: bigint, b: bigint): bigint {
-  a = a < 0n ? -a : a;
-  b = b < 0n ? -b : b;
-  while (b !== 0n) [a, b] = [b, a % b];
-  return a;
 }
 
 /** Divide out the common factor; make the first non-zero coefficient positive. */

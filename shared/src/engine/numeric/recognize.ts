@@ -1,4 +1,5 @@
-import { gcd, relationSearch } from './pslq.js';
+import { gcd } from '../integers.js';
+import { relationSearch } from './pslq.js';
 import { abs, cmp, magnitude, Real, round, toNumber } from './real.js';
 
 export type Recognized =

@@ -1,5 +1,5 @@
 import { EngineCancelled } from '../errors.js';
-import { exponentNotation, foldCycleTypes } from '../kernel/cycle-types.js';
+import { exponentNotation, foldCycleTypes } from '../kernel/index.js';
 import { Estimate, size, ulp } from './estimate.js';
 import { add, div, fromInt, mul, neg, ONE, Real, ZERO } from './real.js';
 

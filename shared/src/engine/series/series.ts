@@ -1,7 +1,8 @@
 import Fraction from 'fraction.js';
 import { EngineError } from '../errors.js';
 import { MAX_ORDER } from '../limits.js';
-import { frac, gcd, numer } from '../rational.js';
+import { gcd, reduceRow } from '../integers.js';
+import { frac, numer } from '../rational.js';
 
 /** gcd of two positive rationals: the coarsest grid holding both. */
 export function stepGcd(a: Fraction, b: Fraction): Fraction {
@@ -45,14 +46,7 @@ export class Series {
     if (lo > 0 || hi < num.length) num = num.slice(lo, hi);
     start = num.length === 0 ? 0 : start + lo;
     if (num.length === 0) den = 1n;
-    else if (den !== 1n) {
-      let g = den;
-      for (let i = 0; i < num.length && g !== 1n; i++) if (num[i] !== 0n) g = gcd(g, num[i]!);
-      if (g !== 1n) {
-        den /= g;
-        num = num.map((c) => c / g);
-      }
-    }
+    else if (den !== 1n) ({ num, den } = reduceRow(num, den));
     return new Series(step, start, num, den, order);
   }
 

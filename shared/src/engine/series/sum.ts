@@ -1,4 +1,5 @@
-import { frac, lcm } from '../rational.js';
+import { lcm } from '../integers.js';
+import { frac } from '../rational.js';
 import { Series, stepGcd } from './series.js';
 
 /**

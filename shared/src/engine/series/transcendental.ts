@@ -1,6 +1,7 @@
 import Fraction from 'fraction.js';
 import { EngineError } from '../errors.js';
-import { exactRoot, frac, lcm, numer } from '../rational.js';
+import { lcm } from '../integers.js';
+import { exactRoot, frac, numer } from '../rational.js';
 import { powInt, shift } from './arith.js';
 import { gridIndex, Series } from './series.js';
 

@@ -1,3 +1,4 @@
+import { gcdInt } from '../../integers.js';
 import { cosh, exp, sinh } from '../elementary.js';
 import {
   add,
@@ -251,11 +252,6 @@ function sinhNodes(a: Real, T: Real, m: number, prec: number): { x: Real[]; w: R
 
 /** A reduced fraction k/m as text, naming a node position independently of the resolution. */
 function fractionKey(k: number, m: number): string {
-  const g = gcd(Math.abs(k), m);
+  const g = gcdInt(k, m);
   return `${k / g}/${m / g}`;
-}
-
-function gcd(a: number, b: number): number {
-  while (b) [a, b] = [b, a % b];
-  return a;
 }

@@ -4,7 +4,7 @@
  * inverse is decimation in time (bit-reversed in, natural out), so no permutation pass is needed:
  * pointwise products in the transform domain do not care about the order.
  */
-import { invMod, mulMod, powMod, type TransformPrime } from './modular.js';
+import { invMod, mulMod, powMod, type TransformPrime } from './word.js';
 
 /** Precomputed twiddles for one prime and one length. */
 export interface TransformPlan {

@@ -2,6 +2,7 @@
  * Machine-word modular arithmetic in float64. Every modulus is below 2^26, so a product of two
  * residues is below 2^52 and exact in a double; the quotient estimate is corrected by one step.
  */
+import { primePowers } from '../../integers.js';
 
 /** Largest modulus the float64 helpers accept (products must stay below 2^53). */
 export const MAX_WORD_MODULUS = 2 ** 26;
@@ -53,22 +54,9 @@ export interface TransformPrime {
   readonly root: number;
 }
 
-function distinctPrimeFactors(n: number): number[] {
-  const out: number[] = [];
-  let m = n;
-  for (let d = 2; d * d <= m; d++) {
-    if (m % d === 0) {
-      out.push(d);
-      while (m % d === 0) m /= d;
-    }
-  }
-  if (m > 1) out.push(m);
-  return out;
-}
-
 /** Smallest primitive root modulo the prime p. */
 export function primitiveRoot(p: number): number {
-  const factors = distinctPrimeFactors(p - 1);
+  const factors = primePowers(p - 1).map(([l]) => l);
   for (let g = 2; g < p; g++) {
     if (factors.every((f) => powMod(g, (p - 1) / f, p) !== 1)) return g;
   }

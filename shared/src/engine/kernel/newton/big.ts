@@ -3,9 +3,10 @@
  * multi-modular route does not take. Works on X_N = N! D^N Z(N), which is integral:
  * X_N = sum_L s^(L-1) w_L X_(N-L) D^(L-1) (N-1)!/(N-L)!.
  */
-import { gcdBig } from './gcd.js';
-import { mulTrunc } from './mul-trunc.js';
-import { KernelStopped, type NewtonTableInput, type NewtonTableResult } from './types.js';
+import { EngineCancelled } from '../../errors.js';
+import { reduceRow } from '../../integers.js';
+import { mulTrunc } from '../multiply/mul-trunc.js';
+import type { NewtonTableInput, NewtonTableResult } from './types.js';
 
 /** The BigInt route of newtonTable (same contract). */
 export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
@@ -14,7 +15,7 @@ export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
   const x: bigint[][] = [[1n]];
   const scale: bigint[] = [1n];
   for (let N = 1; N <= nMax; N++) {
-    if (input.shouldStop?.()) throw new KernelStopped();
+    if (input.shouldStop?.()) throw new EngineCancelled();
     const acc = new Array<bigint>(length).fill(0n);
     let falling = 1n; // (N-1)!/(N-L)!
     let denPow = 1n; // D^(L-1)
@@ -36,12 +37,11 @@ export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
   const num: bigint[][] = [];
   const dens: bigint[] = [];
   for (let N = 0; N <= nMax; N++) {
-    let g = scale[N]!;
     const row = x[N]!.slice(0, length);
     while (row.length < length) row.push(0n);
-    for (const c of row) if (c !== 0n && g !== 1n) g = gcdBig(g, c);
-    num.push(g === 1n ? row : row.map((c) => c / g));
-    dens.push(scale[N]! / g);
+    const r = reduceRow(row, scale[N]!);
+    num.push(r.num);
+    dens.push(r.den);
   }
   return { num, den: dens, primes: 0, integral: false };
 }

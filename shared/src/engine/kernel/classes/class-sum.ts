@@ -6,7 +6,7 @@
  * C = prod_L b_L^(floor(n/L)), and the class size n!/z. Every leaf adds eps * A * size * Q to a
  * running numerator over the common denominator C * n!, so the total is one reduction at the end.
  */
-import { gcdBig } from './gcd.js';
+import { factorial, gcd } from '../../integers.js';
 import { foldCycleTypes, type CycleTypeVisit } from './cycle-types.js';
 
 /** A rational number as numerator and positive denominator (need not be reduced). */
@@ -15,21 +15,17 @@ export interface RationalParts {
   readonly den: bigint;
 }
 
-/** One row of a class table, as the walk passes it. */
-export interface ClassRow {
-  readonly visit: CycleTypeVisit;
-  /** eps * prod Z_L^(m_L) / z, reduced */
-  readonly contribution: RationalParts;
-}
-
 export interface ClassSumInput {
   /** Z_1..Z_n */
   readonly weights: readonly RationalParts[];
   readonly n: number;
   /** -1 fermions (class sign (-1)^(n - cycles)), +1 bosons */
   readonly sign: 1 | -1;
-  /** called with every row when given (rows are reduced only then) */
-  readonly onRow?: (row: ClassRow) => void;
+  /**
+   * called with every cycle type and its contribution eps * prod Z_L^(m_L) / z, reduced (rows
+   * are reduced only when this is given); the visit is reused: copy what you keep
+   */
+  readonly onRow?: (visit: CycleTypeVisit, contribution: RationalParts) => void;
 }
 
 /** Reduced form of num/den with den > 0. */
@@ -39,7 +35,7 @@ export function reduceRational(num: bigint, den: bigint): RationalParts {
     den = -den;
   }
   if (num === 0n) return { num: 0n, den: 1n };
-  const g = gcdBig(num, den);
+  const g = gcd(num, den);
   return g === 1n ? { num, den } : { num: num / g, den: den / g };
 }
 
@@ -57,8 +53,6 @@ export function classSumRational(input: ClassSumInput): RationalParts {
   if (w.length < n) throw new RangeError(`classSumRational needs ${n} weights, got ${w.length}`);
   let common = 1n;
   for (let L = 1; L <= n; L++) common *= w[L - 1]!.den ** BigInt(Math.floor(n / L));
-  let factorial = 1n;
-  for (let i = 2; i <= n; i++) factorial *= BigInt(i);
   const rowFactor = w.map((x, t) => x.den * BigInt(t + 1));
   // powers for the last level (k cycles of length 1 at once)
   const w1 = w[0]!;
@@ -84,7 +78,7 @@ export function classSumRational(input: ClassSumInput): RationalParts {
       const eps = sign === -1 ? visit.sign : 1;
       const term = s.a * visit.size * s.q;
       total += eps === 1 ? term : -term;
-      if (onRow) onRow({ visit, contribution: reduceRational(eps === 1 ? s.a : -s.a, s.d) });
+      if (onRow) onRow(visit, reduceRational(eps === 1 ? s.a : -s.a, s.d));
     },
     (s, k) => ({
       a: s.a * a1[k]!,
@@ -92,5 +86,5 @@ export function classSumRational(input: ClassSumInput): RationalParts {
       d: track ? s.d * d1[k]! : 1n,
     }),
   );
-  return reduceRational(total, common * factorial);
+  return reduceRational(total, common * factorial(n));
 }

@@ -2,9 +2,10 @@ import fc from 'fast-check';
 import Fraction from 'fraction.js';
 import { describe, expect, it } from 'vitest';
 import { newtonIsIntegral } from './integrality.js';
-import { newtonTableBig } from './newton-big.js';
-import { newtonTable, newtonTableModular } from './newton-table.js';
-import { KernelStopped, type NewtonTableInput, type NewtonTableResult } from './types.js';
+import { newtonTableBig } from './big.js';
+import { newtonTable, newtonTableModular } from './table.js';
+import { EngineCancelled } from '../../errors.js';
+import type { NewtonTableInput, NewtonTableResult } from './types.js';
 
 /**
  * Reference: the recursion N Z(N) = sum_L s^(L-1) Z_L Z(N-L) with fraction.js (a general-purpose
@@ -201,24 +202,10 @@ describe('integrality certificate and run control', () => {
       [2n, 0n, 0n, 0n, 0n, 0n, 0n, 0n],
     ];
     const seen: number[] = [];
-    newtonTableModular({
-      weights,
-      den: 1n,
-      nMax: 2,
-      sign: -1,
-      length: 8,
-      onProgress: (d) => seen.push(d),
-    });
+    const input: NewtonTableInput = { weights, den: 1n, nMax: 2, sign: -1, length: 8 };
+    newtonTableModular({ ...input, onProgress: (d) => seen.push(d) });
     expect(seen.length).toBeGreaterThan(0);
-    expect(() =>
-      newtonTableModular({
-        weights,
-        den: 1n,
-        nMax: 2,
-        sign: -1,
-        length: 8,
-        shouldStop: () => true,
-      }),
-    ).toThrow(KernelStopped);
+    expect(() => newtonTableModular({ ...input, shouldStop: () => true })).toThrow(EngineCancelled);
+    expect(() => newtonTableBig({ ...input, shouldStop: () => true })).toThrow(EngineCancelled);
   });
 });

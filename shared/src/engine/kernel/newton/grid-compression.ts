@@ -5,7 +5,7 @@
  * table is then computed on a g times shorter grid. Example: the harmonic trap in t = q^(1/2),
  * Z_L = t^L / (1 - t^(2L)), has c = 1, g = 2.
  */
-import { gcdBig } from './gcd.js';
+import { gcdInt, reduceRow } from '../../integers.js';
 import type { NewtonTableInput, NewtonTableResult } from './types.js';
 
 /** The compression (g, c) with the largest g <= 64 that fits the weights, or null (g = 1). */
@@ -39,11 +39,6 @@ export function findCompression(input: NewtonTableInput): { g: number; c: number
   return null;
 }
 
-function gcdInt(a: number, b: number): number {
-  while (b !== 0) [a, b] = [b, a % b];
-  return a;
-}
-
 /** The weights U_L on the compressed grid, and the shorter length. */
 export function compressInput(input: NewtonTableInput, g: number, c: number): NewtonTableInput {
   const short = Math.ceil(input.length / g);
@@ -75,18 +70,14 @@ export function expandResult(
   const den = [...r.den];
   const num = r.num.map((v, N) => {
     const out = new Array<bigint>(length).fill(0n);
-    let common = den[N]!;
     for (let k = 0; k < v.length; k++) {
       const i = c * N + g * k;
       if (i >= length) break;
       out[i] = v[k]!;
-      if (common !== 1n && v[k] !== 0n) common = gcdBig(common, v[k]!);
     }
-    if (common !== 1n) {
-      for (let i = 0; i < length; i++) if (out[i] !== 0n) out[i] = out[i]! / common;
-      den[N] = den[N]! / common;
-    }
-    return out;
+    const reduced = reduceRow(out, den[N]!);
+    den[N] = reduced.den;
+    return reduced.num;
   });
   return { ...r, num, den };
 }

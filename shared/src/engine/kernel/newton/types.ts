@@ -18,7 +18,7 @@ export interface NewtonTableInput {
   readonly validLengths?: readonly number[];
   /** called as work proceeds */
   readonly onProgress?: (done: number, total: number) => void;
-  /** polled between steps; true stops the run with KernelStopped */
+  /** polled between steps; true stops the run with EngineCancelled */
   readonly shouldStop?: () => boolean;
 }
 
@@ -30,12 +30,4 @@ export interface NewtonTableResult {
   readonly primes: number;
   /** true when the weights were certified to give integer Z(N) */
   readonly integral: boolean;
-}
-
-/** Thrown when shouldStop() asked a kernel to stop. */
-export class KernelStopped extends Error {
-  constructor() {
-    super('computation stopped');
-    this.name = 'KernelStopped';
-  }
 }

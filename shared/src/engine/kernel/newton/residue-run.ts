@@ -3,10 +3,11 @@
  * Each Z_L is transformed once, each Z(M) once when known; N Z(N) is a pointwise
  * multiply-accumulate in the transform domain, then one inverse transform.
  */
-import { invMod, mulMod, type TransformPrime } from './modular.js';
-import { forwardTransform, inverseTransformUnscaled, transformPlan } from './ntt.js';
-import { residueArray } from './residues.js';
-import { KernelStopped, type NewtonTableInput } from './types.js';
+import { invMod, mulMod, type TransformPrime } from '../modular/word.js';
+import { forwardTransform, inverseTransformUnscaled, transformPlan } from '../modular/ntt.js';
+import { residueArray } from '../modular/residues.js';
+import { EngineCancelled } from '../../errors.js';
+import type { NewtonTableInput } from './types.js';
 
 /** 32 products of residues below 2^24 sum exactly in a double (32 * 2^48 = 2^53). */
 const ACCUMULATE = 32;
@@ -71,7 +72,7 @@ export function residueRun(
   const res: (Int32Array | null)[] = [null];
   const acc = new Float64Array(size);
   for (let N = 1; N <= nMax; N++) {
-    if (input.shouldStop?.()) throw new KernelStopped();
+    if (input.shouldStop?.()) throw new EngineCancelled();
     const v = valuation[N]!;
     if (v >= length) {
       zHat.push(null);

@@ -8,24 +8,7 @@
  * phi_l(t) = t^l (from memory: M. Hazewinkel, Witt vectors. Part 1 (2009), the Dwork lemma;
  * the integer case is the classical necklace congruence, OEIS A000031 for a check).
  */
-
-function primeFactorPowers(n: number): [number, number][] {
-  const out: [number, number][] = [];
-  let m = n;
-  for (let d = 2; d * d <= m; d++) {
-    if (m % d === 0) {
-      let e = 1;
-      m /= d;
-      while (m % d === 0) {
-        m /= d;
-        e *= d;
-      }
-      out.push([d, e * d]);
-    }
-  }
-  if (m > 1) out.push([m, m]);
-  return out;
-}
+import { primePowers } from '../../integers.js';
 
 /**
  * True when integer weights Z_1..Z_nMax (coefficient i = exponent i on the grid, below `length`)
@@ -43,7 +26,7 @@ export function newtonIsIntegral(
     return sign === -1 && L % 2 === 0 ? -c : c;
   };
   for (let L = 2; L <= nMax; L++) {
-    for (const [l, power] of primeFactorPowers(L)) {
+    for (const [l, power] of primePowers(L)) {
       const m = BigInt(power);
       const base = L / l;
       for (let i = 0; i < length; i++) {

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { invMod, isPrimeSmall, mulMod, powMod, primitiveRoot, transformPrimes } from './modular.js';
+import { invMod, isPrimeSmall, mulMod, powMod, primitiveRoot, transformPrimes } from './word.js';
 import {
   cyclicConvolution,
   forwardTransform,

@@ -3,7 +3,7 @@ import Fraction from 'fraction.js';
 import { describe, expect, it } from 'vitest';
 import { classSumRational } from './class-sum.js';
 import { exponentNotation, forEachCycleType } from './cycle-types.js';
-import { newtonTable } from './newton-table.js';
+import { newtonTable } from '../newton/table.js';
 
 const factorial = (n: number): bigint => (n <= 1 ? 1n : BigInt(n) * factorial(n - 1));
 
@@ -88,7 +88,7 @@ describe('classSumRational', () => {
       weights,
       n: 12,
       sign: -1,
-      onRow: ({ visit, contribution }) => {
+      onRow: (visit, contribution) => {
         rows++;
         // independent recomputation of the row: eps * prod Z_L^m / (prod L^m m!)
         let expected = new Fraction(visit.sign);
