@@ -1,7 +1,7 @@
 import { EngineError } from '../../errors.js';
 import type { Estimate } from '../estimate.js';
-import { abs, add, bitsFor, fromNumber, ldexp, magnitude, Real, sub, toNumber } from '../real.js';
-import { levelResult, type LevelResult, nystromBlocks } from './level.js';
+import { add, bitsFor, fromNumber, ldexp, Real, sub, toNumber } from '../real.js';
+import { type Arithmetic, levelResult, type LevelResult, nystromBlocks } from './level.js';
 import { pace } from './matrix.js';
 import {
   circleFamily,
@@ -57,8 +57,6 @@ export interface KernelOutcome {
   /** Set when refinement stopped at the point cap before every value had its digits. */
   note?: string;
 }
-
-const FIELD = 'weights.expression';
 
 /**
  * Z_L = Tr rho^L (L = 1..nMax) and the canonical Z(N) of a symmetric kernel rho(x, y) on a line,
@@ -135,14 +133,17 @@ export function kernelTraces(
   let m = opts.resolution ?? initialResolution(D, family);
   let F = bitsFor(D, 32) + 2 * Math.ceil(Math.log2(4 * m + 8));
   let cache = new Map<string, Real>();
+  let arithmetic: Arithmetic = 'fixed';
   const run = (mm: number): LevelResult => {
     const rule = family.at(mm);
     const blocks = nystromBlocks(rule, rho, parity, cache, evalBits, F, paceOpts);
-    return levelResult(blocks, nMax, fermion, F, paceOpts);
+    return levelResult(blocks, nMax, fermion, F, arithmetic, paceOpts);
   };
   const probe = run(Math.max(2, m / 4));
   const need = requirements(probe, D, nMax, m * 4);
-  F = Math.max(F, need.bits);
+  // double-double when its 104 bits hold what the values need, relative to the matrix norm
+  arithmetic = need.fitsDD ? 'dd' : 'fixed';
+  F = arithmetic === 'dd' ? Math.max(F, need.relative + 8) : Math.max(F, need.fixed);
   if (F + 24 > evalBits) {
     evalBits = F + 32;
     rho = guarded(source(evalBits));
@@ -152,8 +153,6 @@ export function kernelTraces(
     tol = need.tail;
     ({ family, tail } = makeFamily(tol));
     cache = new Map();
-  } else if (F !== probe.roundTraces.length && family.nested === false) {
-    // Gauss-Legendre levels are not nested: nothing to keep
   }
 
   const levels = new Map<number, LevelResult>();
@@ -184,7 +183,7 @@ export function kernelTraces(
         points: [l1.points, l2.points, l3.points],
         parity,
         rule: `${rule.text}${blocksText}; errors from resolutions m/4, m/2, m`,
-        workingBits: F,
+        workingBits: arithmetic === 'dd' ? 104 : F,
       };
       if (!done) {
         const worst = Math.min(...[...out.traces, ...out.fredholm].map((e) => shownDigits(e, D)));
@@ -202,28 +201,35 @@ function initialResolution(D: number, family: RuleFamily): number {
   return Math.max(8, m);
 }
 
+/** Largest relative precision (bits, guard included) the double-double path (104) is given. */
+const DD_BITS = 100;
+
 /**
  * Working bits and the diagonal tail the requested digits need, from a coarse pass: the digits,
- * the size of the matrix, the smallness of Z(N) against e_(N-1)(|lambda|) (Fredholm rounding) and
- * against the terms of the Newton recursion (what the trace route will lose).
+ * the size of the matrix, the smallness of Z(N) against e_(N-1)(|lambda|) (Fredholm rounding).
+ * `fitsDD` says whether a double-double reduction holds them; `fixed` adds what absolute rounding
+ * in fixed point costs on small Z(N).
  */
 function requirements(
   probe: LevelResult,
   D: number,
   nMax: number,
   points: number,
-): { bits: number; tail: number } {
+): { fitsDD: boolean; relative: number; fixed: number; tail: number } {
   const z = probe.fredholm.map((v) => Math.abs(toNumber(v)));
   const t = probe.traces.map((v) => Math.abs(toNumber(v)));
   let loss = 0;
+  let small = 0;
   let tail = Infinity;
+  const lgn = 2 * Math.ceil(Math.log2(points + 8));
   for (let N = 1; N <= nMax; N++) {
     const noise = 1e-12 * probe.absSymmetric[N]! + 1e-300;
     if (z[N]! <= noise) continue;
-    let newton = 0;
-    for (let L = 1; L <= N; L++) newton = Math.max(newton, (t[L - 1]! * z[N - L]!) / N);
-    const scale = Math.max(newton, probe.absSymmetric[N - 1]!, probe.absSymmetric[N]!);
+    // the Fredholm route rounds against e_(N-1)(|lambda|); the Newton recursion's own
+    // cancellation is not paid for here: that route shows the digits it keeps
+    const scale = Math.max(probe.absSymmetric[N - 1]!, probe.absSymmetric[N]!);
     loss = Math.max(loss, Math.log2(scale / z[N]!));
+    small = Math.max(small, Math.log2((4 * N * points) / (0.01 * 10 ** -D * z[N]!)));
     tail = Math.min(tail, (0.01 * 10 ** -D * z[N]!) / Math.max(probe.absSymmetric[N - 1]!, 1e-300));
   }
   for (let L = 1; L <= nMax; L++)
@@ -232,9 +238,14 @@ function requirements(
         tail,
         (0.01 * 10 ** -D * t[L - 1]!) / (L * Math.max(probe.norm, 1e-300) ** (L - 1)),
       );
-  const bits =
-    bitsFor(D, 24) + 2 * Math.ceil(Math.log2(points + 8)) + Math.ceil(Math.min(loss, 4 * D * 3.33));
-  return { bits, tail };
+  const lost = Math.ceil(Math.min(loss, 4 * D * 3.33));
+  const relative = bitsFor(D, 24) + lgn + lost;
+  return {
+    fitsDD: bitsFor(D, 8) + lgn + lost <= DD_BITS,
+    relative,
+    fixed: Math.max(relative, Math.ceil(small) + 8),
+    tail,
+  };
 }
 
 interface Assembled {
@@ -302,9 +313,6 @@ function shownDigits(e: Estimate, D: number): number {
   return Math.max(0, Math.min(D, Math.floor(Math.log10(v / (2 * e.error))) + 1));
 }
 
-void abs;
-void magnitude;
-void FIELD;
 
 function debugLevels(
   print: (line: string) => void,

@@ -1,17 +1,21 @@
-import { fromFixed, mul, Real, sqrt, toFixed, toNumber } from '../real.js';
+import { add, fromFixed, mul, ONE, Real, sqrt, sub, toFixed, toNumber, ZERO } from '../real.js';
+import { DD_UNIT, ddToReal } from './double-double.js';
 import {
   determinantCoefficients,
   elementarySymmetric,
   type FixedMatrix,
-  frobeniusDot,
-  inverseCoefficients,
   type Pace,
   pace,
-  polyMul,
-  powerTraces,
   tridiagonalEigenvaluesFloat,
   tridiagonalize,
+  tridiagonalPowerTraces,
 } from './matrix.js';
+import {
+  determinantCoefficientsDD,
+  fixedToDD,
+  tridiagonalizeDD,
+  tridiagonalPowerTracesDD,
+} from './matrix-dd.js';
 import type { Rule } from './quadrature.js';
 import type { KernelAt } from './sampling.js';
 
@@ -71,7 +75,6 @@ export function nystromBlocks(
   const reps: number[] = [];
   for (let i = 0; i < n; i++) if (mirror[i]! >= i) reps.push(i);
   const pairs = reps.filter((i) => mirror[i] !== i);
-  const evenIndex = new Map(reps.map((r, k) => [r, k]));
   const oddIndex = new Map(pairs.map((r, k) => [r, k]));
   const ne = reps.length;
   const no = pairs.length;
@@ -98,69 +101,122 @@ export function nystromBlocks(
     }
     pace(p);
   }
-  void evenIndex;
   return [
     { n: ne, a: even },
     { n: no, a: odd },
   ];
 }
 
-import { add as addReal, sub as subReal } from '../real.js';
-const addR = (a: Real, b: Real, prec: number): Real => addReal(a, b, prec + 4);
-const subR = (a: Real, b: Real, prec: number): Real => subReal(a, b, prec + 4);
+const addR = (a: Real, b: Real, prec: number): Real => add(a, b, prec + 4);
+const subR = (a: Real, b: Real, prec: number): Real => sub(a, b, prec + 4);
+
+/** How the blocks are reduced: BigInt fixed point (any precision) or double-double (fast). */
+export type Arithmetic = 'fixed' | 'dd';
+
+/** One block's tridiagonal reduction: traces, det(1 + kappa B) coefficients, sizes. */
+interface Reduced {
+  traces: Real[];
+  coeff: Real[];
+  norm2: number;
+  eig: number[];
+}
+
+function reduceFixed(B: FixedMatrix, nMax: number, F: number, p?: Pace): Reduced {
+  const { d, e } = tridiagonalize(B, F, p);
+  const toNum = (v: bigint): number => toNumber(fromFixed(v, F));
+  let norm2 = 0n;
+  for (const v of d) norm2 += v * v;
+  for (const v of e) norm2 += 2n * v * v;
+  return {
+    traces: tridiagonalPowerTraces(d, e, nMax, F).map((v) => fromFixed(v, F)),
+    coeff: determinantCoefficients(d, e, nMax, F).map((v) => fromFixed(v, F)),
+    norm2: toNumber(fromFixed(norm2, 2 * F)),
+    eig: tridiagonalEigenvaluesFloat(d.map(toNum), e.map(toNum)),
+  };
+}
+
+function reduceDD(B: FixedMatrix, nMax: number, F: number, p?: Pace): Reduced {
+  const { d, e } = tridiagonalizeDD(B.n, fixedToDD(B, F), p);
+  const t = tridiagonalPowerTracesDD(d, e, nMax);
+  const c = determinantCoefficientsDD(d, e, nMax);
+  let norm2 = 0;
+  for (const v of d.hi) norm2 += v * v;
+  for (const v of e.hi) norm2 += 2 * v * v;
+  return {
+    traces: Array.from(t.hi, (h, i) => ddToReal(h, t.lo[i]!)),
+    coeff: Array.from(c.hi, (h, i) => ddToReal(h, c.lo[i]!)),
+    norm2,
+    eig: tridiagonalEigenvaluesFloat(Array.from(d.hi), Array.from(e.hi)),
+  };
+}
 
 /**
- * Traces and Fredholm coefficients of one discretisation, by two independent routes: the traces
- * from products of the blocks, the determinant coefficients from their Householder tridiagonal
- * forms (leading-minor recurrence), never one from the other.
+ * Traces and Fredholm coefficients of one discretisation from the Householder tridiagonal form T
+ * of each block (the same eigenvalues): the traces Tr T^L from banded powers of T (they feed the
+ * Newton recursion), the determinant coefficients from the leading-minor recurrence of T. The two
+ * routes share the reduction but not the algebra: the recursion's cancellation shows in its own
+ * error, the minor recurrence has none for positive kernels. The blocks' determinants are
+ * multiplied (and inverted for bosons) in Real arithmetic.
+ *
+ * Rounding model: the reduction moves each eigenvalue by at most delta (4 n^2 units, absolute in
+ * fixed point, relative to |A|_F in double-double, plus the entries' own rounding there).
  */
 export function levelResult(
   blocks: FixedMatrix[],
   nMax: number,
   fermion: boolean,
   F: number,
+  arithmetic: Arithmetic,
   p?: Pace,
 ): LevelResult {
-  const u = 2 ** -F;
-  let tr: bigint[] = new Array<bigint>(nMax).fill(0n);
-  let coeff: bigint[] | null = null;
-  let norm2 = 0n;
+  const prec = F + 64;
+  let traces: Real[] = new Array<Real>(nMax).fill(ZERO);
+  let coeff: Real[] = [ONE, ...new Array<Real>(nMax).fill(ZERO)];
+  let norm2 = 0;
   const eig: number[] = [];
   const nb = Math.max(...blocks.map((b) => b.n));
   for (const B of blocks) {
     if (B.n === 0) continue;
-    const t = powerTraces(B, nMax, F, p);
-    tr = tr.map((v, i) => v + t[i]!);
-    norm2 += frobeniusDot(B, B);
-    const { d, e } = tridiagonalize(B, F, p);
-    const c = determinantCoefficients(d, e, nMax, F);
-    coeff = coeff ? polyMul(coeff, c, nMax, F) : c;
-    const toNum = (v: bigint): number => toNumber(fromFixed(v, F));
-    for (const l of tridiagonalEigenvaluesFloat(d.map(toNum), e.map(toNum))) eig.push(Math.abs(l));
+    const r = arithmetic === 'dd' ? reduceDD(B, nMax, F, p) : reduceFixed(B, nMax, F, p);
+    traces = traces.map((v, i) => add(v, r.traces[i]!, prec));
+    coeff = truncatedProduct(coeff, r.coeff, nMax, prec);
+    norm2 += r.norm2;
+    for (const l of r.eig) eig.push(Math.abs(l));
+    pace(p);
   }
-  const norm = Math.sqrt(toNumber(fromFixed(norm2, 2 * F)));
-  const traces = tr.map((v) => fromFixed(v, 2 * F));
+  const norm = Math.sqrt(norm2);
   const absSym = elementarySymmetric(eig, nMax);
-  const roundTraces = traces.map(
-    (_, i) => 4 * nb * nb * (i + 1) * Math.max(norm, 1) ** (i + 1) * u,
+  const fixedUnit = 2 ** -F;
+  const dd = arithmetic === 'dd';
+  const delta = dd
+    ? 4 * nb * nb * DD_UNIT * norm + nb * fixedUnit
+    : 4 * nb * nb * fixedUnit;
+  // |sum lambda^L - sum mu^L| <= L delta sum |lambda|^(L-1), with sum |lambda|^(L-1) <= sqrt(n)
+  // |A|_F (L = 2), |A|_F^(L-1) (L > 2); plus the rounding of the banded powers
+  const roundTraces = traces.map((_, i) => {
+    const L = i + 1;
+    const moved =
+      L === 1 ? nb * delta : L * delta * (L === 2 ? Math.sqrt(nb) * norm : norm ** (L - 1));
+    const own = dd
+      ? 4 * L * nb * DD_UNIT * Math.max(norm ** L, Math.sqrt(nb) * norm)
+      : 4 * L * nb * Math.max(norm, 1) ** L * fixedUnit;
+    return moved + own;
+  });
+  const errC = coeff.map((_, N) =>
+    N === 0
+      ? 0
+      : N * delta * absSym[N - 1]! * 1.01 +
+        4 * N * nb * (dd ? DD_UNIT * absSym[N]! : fixedUnit),
   );
-  const delta = 4 * nb * nb * u;
-  const cAll = coeff ?? [1n << BigInt(F), ...new Array<bigint>(nMax).fill(0n)];
-  const errC = cAll.map((_, N) =>
-    N === 0 ? 0 : N * delta * absSym[N - 1]! * 1.01 + 4 * N * nb * u,
-  );
-  let values: bigint[];
-  let errs: number[];
-  if (fermion) {
-    values = cAll;
-    errs = errC;
-  } else {
-    values = inverseCoefficients(cAll, nMax, F);
-    const h = values.map((v) => Math.abs(toNumber(fromFixed(v, F))));
-    const c = cAll.map((v) => Math.abs(toNumber(fromFixed(v, F))));
+  let values = coeff;
+  let errs = errC;
+  if (!fermion) {
+    values = inverseSeries(coeff, nMax, prec);
+    const h = values.map((v) => Math.abs(toNumber(v)));
+    const c = coeff.map((v) => Math.abs(toNumber(v)));
     errs = [0];
     for (let N = 1; N <= nMax; N++) {
-      let s = 2 * u;
+      let s = 2 ** -prec * h[N]!;
       for (let k = 1; k <= N; k++) s += errC[k]! * h[N - k]! + c[k]! * errs[N - k]!;
       errs.push(s);
     }
@@ -169,10 +225,32 @@ export function levelResult(
     points: blocks.reduce((s, b) => s + b.n, 0),
     blocks: blocks.map((b) => b.n),
     traces,
-    fredholm: values.map((v) => fromFixed(v, F)),
+    fredholm: values,
     roundTraces,
     roundFredholm: errs,
     norm,
     absSymmetric: absSym,
   };
+}
+
+/** (a * b) truncated at degree nMax. */
+function truncatedProduct(a: Real[], b: Real[], nMax: number, prec: number): Real[] {
+  const out: Real[] = new Array<Real>(nMax + 1).fill(ZERO);
+  for (let i = 0; i <= nMax; i++)
+    for (let j = 0; i + j <= nMax; j++) out[i + j] = add(out[i + j]!, mul(a[i]!, b[j]!, prec), prec);
+  return out;
+}
+
+/** h_0..h_nMax of 1 / det(I - kappa T) from c of det(I + kappa T): h_N = sum (-1)^(k+1) c_k h_(N-k). */
+function inverseSeries(c: Real[], nMax: number, prec: number): Real[] {
+  const h: Real[] = [ONE];
+  for (let N = 1; N <= nMax; N++) {
+    let s: Real = ZERO;
+    for (let k = 1; k <= N; k++) {
+      const t = mul(c[k]!, h[N - k]!, prec);
+      s = k % 2 === 1 ? add(s, t, prec) : sub(s, t, prec);
+    }
+    h.push(s);
+  }
+  return h;
 }

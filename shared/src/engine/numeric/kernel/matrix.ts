@@ -22,64 +22,6 @@ export function pace(p: Pace | undefined): void {
   if (p?.shouldStop?.()) throw new EngineCancelled();
 }
 
-/**
- * C = A B rounded to F fractional bits. The entries are cut into slices of beta bits held exactly
- * as float64 integers; slice products are then exact float64 matrix products (beta is chosen so
- * that no sum exceeds 2^53), and the levels are added up once per entry in BigInt.
- */
-export function multiply(
-  A: FixedMatrix,
-  B: FixedMatrix,
-  F: number,
-  p?: Pace,
-  symmetric?: boolean,
-): FixedMatrix {
-  const n = A.n;
-  const lgn = Math.ceil(Math.log2(n + 1));
-  const topA = maxBits(A.a);
-  const topB = maxBits(B.a);
-  if (topA === 0 || topB === 0) return { n, a: new Array<bigint>(n * n).fill(0n) };
-  // level g = p + q of slice products is at most 2^(topA + topB + lgn + 1 - beta g) in units of
-  // 2^-2F; levels are kept until the rest is below 2^(F - 2); beta keeps every sum below 2^53
-  const count = (b: number): number => Math.max(1, Math.floor((topA + topB + lgn + 4 - F) / b) + 1);
-  let beta = Math.floor((53 - lgn - 4) / 2);
-  let G = count(beta);
-  while (beta > 4 && 2 * beta + 2 + lgn + Math.log2(G) > 53) {
-    beta--;
-    G = count(beta);
-  }
-  const slicesA = slice(A.a, topA, beta, G);
-  const slicesB = A === B ? slicesA : slice(B.a, topB, beta, G);
-  // powers of one symmetric matrix commute, so C is symmetric: only j >= i is computed
-  const sym = symmetric === true;
-  const acc: Float64Array[] = [];
-  for (let g = 0; g < G; g++) {
-    const C = new Float64Array(n * n);
-    for (let q = 0; q <= g; q++) {
-      const a = slicesA[g - q];
-      const b = slicesB[q];
-      if (!a || !b) continue;
-      floatProduct(a, b, C, n, sym);
-      pace(p);
-    }
-    acc.push(C);
-  }
-  // entry = sum_g acc_g * 2^(topA + topB - beta (g + 2)) * 2^-F (fixed point of A, B: 2^-F each)
-  const out = new Array<bigint>(n * n);
-  const base = topA + topB - beta * (G + 1);
-  const shift = base - F;
-  for (let i = 0; i < n * n; i++) {
-    let s = 0n;
-    for (let g = 0; g < G; g++) {
-      const v = acc[g]![i]!;
-      if (v !== 0) s += BigInt(v) << BigInt(beta * (G - 1 - g));
-    }
-    out[i] = shiftRound(s, shift);
-  }
-  if (sym) for (let i = 0; i < n; i++) for (let j = 0; j < i; j++) out[i * n + j] = out[j * n + i]!;
-  return { n, a: out };
-}
-
 /** s * 2^k rounded to an integer. */
 function shiftRound(s: bigint, k: number): bigint {
   if (k >= 0) return s << BigInt(k);
@@ -87,126 +29,57 @@ function shiftRound(s: bigint, k: number): bigint {
   return (s + (1n << (kk - 1n))) >> kk;
 }
 
-function maxBits(a: bigint[]): number {
-  let m = 0;
-  for (const v of a) {
-    const b = bitLength(v);
-    if (b > m) m = b;
-  }
-  return m;
-}
-
-/** Signed slices: a = sum_p s_p 2^(top - beta (p + 1)) + rest, |s_p| <= 2^beta. */
-function slice(a: bigint[], top: number, beta: number, count: number): Float64Array[] {
-  const out: Float64Array[] = [];
-  for (let p = 0; p < count; p++) out.push(new Float64Array(a.length));
-  const B = BigInt(beta);
-  for (let i = 0; i < a.length; i++) {
-    let r = a[i]!;
-    if (r === 0n) continue;
-    // work on r * 2^(beta*count - top) so that every slice is an integer digit
-    const k = beta * count - top;
-    r = k >= 0 ? r << BigInt(k) : shiftRound(r, k);
-    const half = 1n << (B - 1n);
-    for (let p = count - 1; p >= 0; p--) {
-      // lowest digit first (balanced digits in (-2^(beta-1), 2^(beta-1)])
-      let d = r & ((1n << B) - 1n);
-      if (d > half) d -= 1n << B;
-      out[p]![i] = Number(d);
-      r = (r - d) >> B;
-    }
-    out[0]![i]! += Number(r) * 2 ** beta; // the top digit may carry (|value| < 2^(beta+1))
-  }
-  return out;
-}
-
-/** C += A B for n x n float64 matrices (row-major), i-k-j order; only j >= i when `upper`. */
-function floatProduct(
-  A: Float64Array,
-  B: Float64Array,
-  C: Float64Array,
-  n: number,
-  upper: boolean,
-): void {
-  for (let i = 0; i < n; i++) {
-    const ri = i * n;
-    const j0 = upper ? i : 0;
-    for (let k = 0; k < n; k++) {
-      const aik = A[ri + k]!;
-      if (aik === 0) continue;
-      const rk = k * n;
-      for (let j = j0; j < n; j++) C[ri + j]! += aik * B[rk + j]!;
-    }
-  }
-}
-
-/** sum_ij X_ij Y_ij (= Tr X Y for symmetric X, Y) as a fixed-point number with 2F bits. */
-export function frobeniusDot(X: FixedMatrix, Y: FixedMatrix): bigint {
-  let s = 0n;
-  const x = X.a;
-  const y = Y.a;
-  for (let i = 0; i < x.length; i++) s += x[i]! * y[i]!;
-  return s;
-}
-
-/** Sum of the diagonal (F bits). */
-export function trace(X: FixedMatrix): bigint {
-  let s = 0n;
-  for (let i = 0; i < X.n; i++) s += X.a[i * X.n + i]!;
-  return s;
-}
-
 /**
- * Tr A^L for L = 1..nMax (2F fractional bits each) from a few powers of A: Tr A^(a+b) =
- * sum_ij (A^a)_ij (A^b)_ij for symmetric powers. The powers form a set S (1, 2, 4, 5, ... for
- * nMax = 10: three products) in which every L <= nMax is a sum of two members.
+ * Tr T^L for L = 1..nMax (F fractional bits each) of the symmetric tridiagonal T = (d, e): the
+ * banded powers T^k (bandwidth k) for k <= ceil(nMax / 2), then Tr T^(a+b) = sum_ij (T^a)_ij
+ * (T^b)_ij. O(n nMax^2) operations instead of the O(n^3) products of the dense matrix.
  */
-export function powerTraces(A: FixedMatrix, nMax: number, F: number, p?: Pace): bigint[] {
-  const plan = powerPlan(nMax);
-  const pow = new Map<number, FixedMatrix>([[1, A]]);
-  for (const [k, [x, y]] of plan.build) pow.set(k, multiply(pow.get(x)!, pow.get(y)!, F, p, true));
-  const out: bigint[] = [trace(A) << BigInt(F)];
-  for (let L = 2; L <= nMax; L++) {
-    const [x, y] = plan.split.get(L)!;
-    out.push(frobeniusDot(pow.get(x)!, pow.get(y)!));
-  }
-  return out;
-}
-
-/** Which powers to build (k = x + y, in order) and how each L splits into two of them. */
-export function powerPlan(nMax: number): {
-  build: [number, [number, number]][];
-  split: Map<number, [number, number]>;
-} {
-  const S = [1];
-  const build: [number, [number, number]][] = [];
-  const split = new Map<number, [number, number]>();
-  const pairOf = (k: number): [number, number] | undefined => {
-    for (const a of S) if (S.includes(k - a)) return [Math.max(a, k - a), Math.min(a, k - a)];
-    return undefined;
+export function tridiagonalPowerTraces(d: bigint[], e: bigint[], nMax: number, F: number): bigint[] {
+  const n = d.length;
+  const FB = BigInt(F);
+  const K = Math.ceil(nMax / 2);
+  // band[k][i * (2k + 1) + (j - i + k)] = (T^k)_ij for |j - i| <= k
+  const band: bigint[][] = [[]];
+  const at = (k: number, i: number, j: number): bigint => {
+    if (j < 0 || j >= n || Math.abs(j - i) > k) return 0n;
+    return band[k]![i * (2 * k + 1) + (j - i + k)]!;
   };
-  for (let L = 2; L <= nMax; L++) {
-    let pair = pairOf(L);
-    if (!pair) {
-      // add the smallest x >= L/2 with L - x in S and x buildable from S
-      for (let x = Math.ceil(L / 2); x < L && !pair; x++) {
-        const parts = pairOf(x);
-        if (S.includes(L - x) && parts) {
-          S.push(x);
-          build.push([x, parts]);
-          pair = [x, L - x];
-        }
-      }
-      if (!pair) {
-        const parts = pairOf(L) ?? [L - 1, 1];
-        S.push(L);
-        build.push([L, parts]);
-        pair = [L, 0];
+  const w1 = 3;
+  const t1 = new Array<bigint>(n * w1).fill(0n);
+  for (let i = 0; i < n; i++) {
+    t1[i * w1 + 1] = d[i]!;
+    if (i > 0) t1[i * w1] = e[i - 1]!;
+    if (i < n - 1) t1[i * w1 + 2] = e[i]!;
+  }
+  band.push(t1);
+  for (let k = 2; k <= K; k++) {
+    const w = 2 * k + 1;
+    const next = new Array<bigint>(n * w).fill(0n);
+    for (let i = 0; i < n; i++) {
+      for (let j = Math.max(0, i - k); j <= Math.min(n - 1, i + k); j++) {
+        // (T^(k-1) T)_ij = (T^(k-1))_(i,j-1) e_(j-1) + (T^(k-1))_ij d_j + (T^(k-1))_(i,j+1) e_j
+        let s = at(k - 1, i, j) * d[j]!;
+        if (j > 0) s += at(k - 1, i, j - 1) * e[j - 1]!;
+        if (j < n - 1) s += at(k - 1, i, j + 1) * e[j]!;
+        next[i * w + (j - i + k)] = shiftRound(s, -F);
       }
     }
-    split.set(L, pair);
+    band.push(next);
   }
-  return { build, split };
+  const out: bigint[] = [];
+  for (let L = 1; L <= nMax; L++) {
+    if (L === 1) {
+      out.push(d.reduce((s, v) => s + v, 0n));
+      continue;
+    }
+    const a = Math.ceil(L / 2);
+    const b = L - a;
+    let s = 0n;
+    for (let i = 0; i < n; i++)
+      for (let j = Math.max(0, i - b); j <= Math.min(n - 1, i + b); j++) s += at(a, i, j) * at(b, i, j);
+    out.push((s + (1n << (FB - 1n))) >> FB);
+  }
+  return out;
 }
 
 /**
@@ -303,28 +176,6 @@ export function determinantCoefficients(
     p1 = next;
   }
   return p1;
-}
-
-/** Product of two coefficient lists (F bits), truncated at degree nMax. */
-export function polyMul(a: bigint[], b: bigint[], nMax: number, F: number): bigint[] {
-  const out = new Array<bigint>(nMax + 1).fill(0n);
-  for (let i = 0; i <= nMax; i++)
-    for (let j = 0; i + j <= nMax; j++) out[i + j] = out[i + j]! + a[i]! * b[j]!;
-  return out.map((v) => shiftRound(v, -F));
-}
-
-/**
- * Coefficients h_0..h_nMax of 1 / det(I - kappa T) from c = coefficients of det(I + kappa T):
- * h_N = sum_k (-1)^(k+1) c_k h_(N-k) (complete homogeneous symmetric functions).
- */
-export function inverseCoefficients(c: bigint[], nMax: number, F: number): bigint[] {
-  const h: bigint[] = [1n << BigInt(F)];
-  for (let N = 1; N <= nMax; N++) {
-    let s = 0n;
-    for (let k = 1; k <= N; k++) s += (k % 2 === 1 ? 1n : -1n) * c[k]! * h[N - k]!;
-    h.push(shiftRound(s, -F));
-  }
-  return h;
 }
 
 /**
