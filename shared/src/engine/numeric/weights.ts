@@ -5,6 +5,7 @@ import { MAX_SPECTRUM_POINTS } from '../limits.js';
 import type { GasSpec } from '../spec/schema.js';
 import { Estimate, size, ulp } from './estimate.js';
 import { compileNumeric } from './expr/compile.js';
+import { compileFast } from './expr/compile-dd.js';
 import { kernelTraces, type KernelOutcome } from './kernel/index.js';
 import { add, fromFraction, fromInt, powInt, Real, sub, ZERO } from './real.js';
 import type { Pace } from './routes.js';
@@ -137,6 +138,7 @@ function kernelWeights(
       digits: spec.precision!,
       nMax: spec.nMax,
       fermion: spec.statistics === 'fermion',
+      fast: compileFast(w.expression, ['x', 'y']),
       ...(pace?.tick && { tick: pace.tick }),
       ...(pace?.shouldStop && { shouldStop: pace.shouldStop }),
     },

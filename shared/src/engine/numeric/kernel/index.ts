@@ -2,7 +2,9 @@ import { EngineError } from '../../errors.js';
 import type { Estimate } from '../estimate.js';
 import { add, bitsFor, fromNumber, ldexp, Real, sub, toNumber } from '../real.js';
 import { type Arithmetic, levelResult, type LevelResult, nystromBlocks } from './level.js';
+import type { FastCompiled } from '../expr/compile-dd.js';
 import { pace } from './matrix.js';
+import { fastAgrees, fastKernel, nystromBlocksDD } from './nystrom-dd.js';
 import {
   circleFamily,
   halfLineFamily,
@@ -39,6 +41,8 @@ export interface KernelOptions {
   maxPoints?: number;
   /** First finest resolution m (a multiple of 4); default from the digits. */
   resolution?: number;
+  /** The kernel compiled to double-double (elementary expressions only), for the fast path. */
+  fast?: FastCompiled | null;
   /** Receives one line per level and value (relative differences, errors) when set. */
   debug?: (line: string) => void;
 }
@@ -64,12 +68,12 @@ export interface KernelOutcome {
  * sinh map on the line, a double-exponential map on a half-line, Gauss-Legendre on an interval,
  * the periodic trapezoid on a circle; even and odd blocks when rho(2c - x, 2c - y) = rho(x, y).
  *
- * Three nested resolutions m/4, m/2, m are computed; with d1 = |V_m - V_(m/4)| and d2 = |V_m -
- * V_(m/2)| the discretisation error of V_m is estimated as d2 * min(1, d2 / d1) (exponential
- * convergence squares the error per doubling; the estimate stays above that model), plus the
- * working-precision rounding and the truncation of an infinite side (tail of the diagonal). m
- * doubles until every value has opts.digits significant digits; at the point cap the values are
- * returned with their (large) errors and a `note`. It is an estimate, not a proof.
+ * Three resolutions are compared (first m/4, m/2, m; then each new one extends the last two by
+ * the step the measured convergence asks for, see `nextResolution`); the discretisation error of
+ * the finest is estimated from the other two (`assemble`), plus the working-precision rounding and
+ * the truncation of an infinite side (tail of the diagonal), until every value has opts.digits
+ * significant digits; at the point cap the values are returned with their (large) errors and a
+ * `note`. It is an estimate, not a proof.
  */
 export function kernelTraces(
   source: KernelSource,
@@ -134,9 +138,13 @@ export function kernelTraces(
   let F = bitsFor(D, 32) + 2 * Math.ceil(Math.log2(4 * m + 8));
   let cache = new Map<string, Real>();
   let arithmetic: Arithmetic = 'fixed';
+  let fastAt: ((x: Real, y: Real) => void) | null = null;
+  let entryBits = 0;
   const run = (mm: number): LevelResult => {
     const rule = family.at(mm);
-    const blocks = nystromBlocks(rule, rho, parity, cache, evalBits, F, paceOpts);
+    const blocks = fastAt
+      ? nystromBlocksDD(rule, fastAt, parity, evalBits, entryBits, paceOpts)
+      : nystromBlocks(rule, rho, parity, cache, evalBits, F, paceOpts);
     return levelResult(blocks, nMax, fermion, F, arithmetic, paceOpts);
   };
   const probe = run(Math.max(2, m / 4));
@@ -144,6 +152,12 @@ export function kernelTraces(
   // double-double when its 104 bits hold what the values need, relative to the matrix norm
   arithmetic = need.fitsDD ? 'dd' : 'fixed';
   F = arithmetic === 'dd' ? Math.max(F, need.relative + 8) : Math.max(F, need.fixed);
+  // entries in double-double too, when the expression is elementary and agrees with the Real
+  // evaluator on the sample points to the bits the values need
+  if (arithmetic === 'dd' && opts.fast && fastAgrees(opts.fast, rho, pts, need.ddBits)) {
+    fastAt = fastKernel(opts.fast, rho);
+    entryBits = need.ddBits;
+  }
   if (F + 24 > evalBits) {
     evalBits = F + 32;
     rho = guarded(source(evalBits));
@@ -166,23 +180,28 @@ export function kernelTraces(
     return r;
   };
   const tailNow = tail();
+  // three resolutions; after the first (m/4, m/2, m) each new one extends the last two by the
+  // smallest step the measured convergence says will do (at least the last gap, at most twice)
+  let trip: [number, number, number] = [m / 4, m / 2, m];
   for (;;) {
-    const l1 = level(m / 4);
-    const l2 = level(m / 2);
-    const l3 = level(m);
-    const out = assemble(l1, l2, l3, tailNow, nMax, fermion, D);
+    const ls = trip.map(level) as [LevelResult, LevelResult, LevelResult];
+    const r = (trip[2] - trip[1]) / (trip[1] - trip[0]);
+    const out = assemble(ls[0], ls[1], ls[2], r, tailNow, nMax, fermion, D);
     const done = converged(out, D);
-    if (opts.debug) debugLevels(opts.debug, m, [l1, l2, l3], out);
-    const nextTooBig = 2 * l3.points > maxPoints;
+    if (opts.debug) debugLevels(opts.debug, trip[2], ls, out);
+    const next = done ? trip[2] : nextResolution(trip, out, D);
+    const nextTooBig = family.at(next).nodes.length > maxPoints;
     if (done || nextTooBig) {
-      const rule = family.at(m);
+      const l3 = ls[2];
+      const rule = family.at(trip[2]);
       const blocksText = parity ? `; even and odd blocks of ${l3.blocks.join(' and ')}` : '';
+      const sizes = ls.map((l) => l.points).join(', ');
       const result: KernelOutcome = {
         traces: out.traces,
         fredholm: out.fredholm,
-        points: [l1.points, l2.points, l3.points],
+        points: ls.map((l) => l.points),
         parity,
-        rule: `${rule.text}${blocksText}; errors from resolutions m/4, m/2, m`,
+        rule: `${rule.text}${blocksText}; errors from the resolutions of ${sizes} points`,
         workingBits: arithmetic === 'dd' ? 104 : F,
       };
       if (!done) {
@@ -191,8 +210,29 @@ export function kernelTraces(
       }
       return result;
     }
-    m *= 2;
+    trip = [trip[1], trip[2], next];
   }
+}
+
+/**
+ * The next finest resolution after (mA, mB, mC): mC + r (mC - mB) for the smallest r in
+ * {1, 3/2, 2} whose predicted errors (the estimate rule of `assemble` applied once more with
+ * the measured convergence) meet the digits; 2 when none does.
+ */
+function nextResolution(trip: [number, number, number], out: Assembled, D: number): number {
+  const [, mB, mC] = trip;
+  for (const r of [1, 1.5, 2]) {
+    const ok = (e: Estimate, p: Parts, floor: number): boolean => {
+      const shrink = p.gap > 0 && p.disc > 0 ? Math.min(1, (p.disc / p.gap) ** (r / 2)) : 0;
+      const predicted = p.disc * shrink + p.rest;
+      return predicted <= 0.1 * 10 ** -D * Math.abs(toNumber(e.value)) || predicted <= floor;
+    };
+    const all =
+      out.traces.every((e, i) => ok(e, out.parts.traces[i]!, out.floors.traces[i]!)) &&
+      out.fredholm.every((e, i) => ok(e, out.parts.fredholm[i]!, out.floors.fredholm[i]!));
+    if (all || r === 2) return mC + Math.ceil((r * (mC - mB)) / 2) * 2;
+  }
+  return 2 * mC;
 }
 
 /** A first guess of the finest resolution for D digits (refinement corrects it). */
@@ -215,7 +255,7 @@ function requirements(
   D: number,
   nMax: number,
   points: number,
-): { fitsDD: boolean; relative: number; fixed: number; tail: number } {
+): { fitsDD: boolean; ddBits: number; relative: number; fixed: number; tail: number } {
   const z = probe.fredholm.map((v) => Math.abs(toNumber(v)));
   const t = probe.traces.map((v) => Math.abs(toNumber(v)));
   let loss = 0;
@@ -240,57 +280,74 @@ function requirements(
       );
   const lost = Math.ceil(Math.min(loss, 4 * D * 3.33));
   const relative = bitsFor(D, 24) + lgn + lost;
+  const ddBits = bitsFor(D, 8) + lgn + lost;
   return {
-    fitsDD: bitsFor(D, 8) + lgn + lost <= DD_BITS,
+    fitsDD: ddBits <= DD_BITS,
+    ddBits,
     relative,
     fixed: Math.max(relative, Math.ceil(small) + 8),
     tail,
   };
 }
 
+/** Parts of one value's error: discretisation estimate, the last gap |V_C - V_B|, the rest. */
+interface Parts {
+  disc: number;
+  gap: number;
+  rest: number;
+}
+
 interface Assembled {
   traces: Estimate[];
   fredholm: Estimate[];
+  parts: { traces: Parts[]; fredholm: Parts[] };
   floors: { traces: number[]; fredholm: number[] };
 }
 
-/** Values of the finest level with discretisation + rounding + truncation error estimates. */
+/**
+ * Values of the finest level with discretisation + rounding + truncation error estimates. With
+ * dA = |V_C - V_A| and dB = |V_C - V_B| for resolutions mA < mB < mC and r = (mC - mB) / (mB -
+ * mA), the discretisation error of V_C is estimated as dB * min(1, (dB / dA)^(r/2)): half the
+ * convergence rate measured between A and B, carried over the step from B to C (exponential
+ * convergence squares the error per doubling; the estimate stays above that model).
+ */
 function assemble(
   l1: LevelResult,
   l2: LevelResult,
   l3: LevelResult,
+  r: number,
   tail: number,
   nMax: number,
   fermion: boolean,
   D: number,
 ): Assembled {
-  const disc = (a: Real, b: Real, c: Real): number => {
+  const parts = (a: Real, b: Real, c: Real, rest: number): Parts => {
     const d1 = Math.abs(toNumber(sub(c, a, 200)));
     const d2 = Math.abs(toNumber(sub(c, b, 200)));
-    if (d2 === 0) return 0;
-    return d1 > 0 ? d2 * Math.min(1, d2 / d1) : d2;
+    const disc = d2 === 0 ? 0 : d1 > 0 ? d2 * Math.min(1, (d2 / d1) ** (r / 2)) : d2;
+    return { disc, gap: d2, rest };
   };
-  const traces = l3.traces.map((v, i) => {
+  const traceParts = l3.traces.map((v, i) => {
     const L = i + 1;
     const trunc = L * tail * Math.max(l3.norm, 0) ** (L - 1);
-    const err = disc(l1.traces[i]!, l2.traces[i]!, v) + l3.roundTraces[i]! + trunc;
-    return { value: v, error: err };
+    return parts(l1.traces[i]!, l2.traces[i]!, v, l3.roundTraces[i]! + trunc);
   });
-  const fredholm = l3.fredholm.map((v, N) => {
-    if (N === 0) return { value: v, error: 0 };
+  const fredholmParts = l3.fredholm.map((v, N) => {
+    if (N === 0) return { disc: 0, gap: 0, rest: 0 };
     const prev = fermion ? l3.absSymmetric[N - 1]! : N * Math.abs(toNumber(l3.fredholm[N - 1]!));
-    const err = disc(l1.fredholm[N]!, l2.fredholm[N]!, v) + l3.roundFredholm[N]! + tail * prev;
-    return { value: v, error: err };
+    return parts(l1.fredholm[N]!, l2.fredholm[N]!, v, l3.roundFredholm[N]! + tail * prev);
   });
+  const total = (p: Parts): number => p.disc + p.rest;
   return {
-    traces,
-    fredholm,
+    traces: l3.traces.map((v, i) => ({ value: v, error: total(traceParts[i]!) })),
+    fredholm: l3.fredholm.map((v, N) => ({ value: v, error: total(fredholmParts[N]!) })),
+    parts: { traces: traceParts, fredholm: fredholmParts },
     // a value that is zero (finite rank) is noise at the level of the discretisation of its
     // neighbours: below 10^-2D of its natural scale it counts as determined (absolute error)
     floors: {
-      traces: l3.roundTraces.map((r, i) => Math.max(2 * r, 10 ** (-2 * D) * l3.norm ** (i + 1))),
-      fredholm: l3.roundFredholm.map((r, N) =>
-        N === 0 ? 0 : Math.max(2 * r, 10 ** (-2 * D) * l3.absSymmetric[N - 1]! * l3.norm),
+      traces: l3.roundTraces.map((rr, i) => Math.max(2 * rr, 10 ** (-2 * D) * l3.norm ** (i + 1))),
+      fredholm: l3.roundFredholm.map((rr, N) =>
+        N === 0 ? 0 : Math.max(2 * rr, 10 ** (-2 * D) * l3.absSymmetric[N - 1]! * l3.norm),
       ),
     },
   };

@@ -1,4 +1,7 @@
 import { describe, expect, it } from 'vitest';
+
+// discretisations take a few seconds on a busy 2-core machine
+const SLOW = { timeout: 60_000 };
 import { EngineError } from '../../errors.js';
 import { cosh, exp, pi } from '../elementary.js';
 import { cos } from '../special/trig.js';
@@ -15,6 +18,8 @@ import {
   sub,
   toNumber,
 } from '../real.js';
+import { compileNumeric } from '../expr/compile.js';
+import { compileFast } from '../expr/compile-dd.js';
 import { kernelTraces, type KernelSource } from './index.js';
 
 const P = 400;
@@ -26,6 +31,17 @@ function within(e: { value: Real; error: number }, exact: Real, digits: number):
   const size = Math.abs(toNumber(exact));
   expect(diff).toBeLessThanOrEqual(e.error + size * 1e-300);
   expect(e.error).toBeLessThanOrEqual(Math.max(0.5 * 10 ** -digits * size, 1e-300));
+}
+
+/** Z(1..4) of the line kernel: 1/4, 1/(16 pi), (pi - 3)/(64 pi), (10 - pi^2)/(1024 pi^2) (SOURCES.md). */
+function publishedLine(): Real[] {
+  const q = pi(P);
+  return [
+    fromFraction(1n, 4n, P),
+    div(ONE, mul(fromInt(16), q, P), P),
+    div(sub(q, fromInt(3), P), mul(fromInt(64), q, P), P),
+    div(sub(fromInt(10), mul(q, q, P), P), mul(fromInt(1024), mul(q, q, P), P), P),
+  ];
 }
 
 /** Rank-2 kernel on the line from the first two Hermite functions (orthonormal). */
@@ -62,7 +78,7 @@ function mehler(t: Real): KernelSource {
 
 describe('kernelTraces: finite-rank kernels', () => {
   // exact: Z_L = l0^L + l1^L, Z(1) = l0 + l1, Z(2) = l0 l1, Z(N >= 3) = 0 (finite rank)
-  it('Hermite rank 2 on the line, fermions, 12 digits', () => {
+  it('Hermite rank 2 on the line, fermions, 12 digits', SLOW, () => {
     const l0 = fromFraction(1n, 3n, P);
     const l1 = fromFraction(1n, 5n, P);
     const r = kernelTraces(hermiteRank2(l0, l1), line, { digits: 12, nMax: 4, fermion: true });
@@ -76,7 +92,7 @@ describe('kernelTraces: finite-rank kernels', () => {
   });
 
   // exact: rho = (1/(2 pi)) (a + 2 b cos(x - y)) on [-pi, pi) has eigenvalues a, b, b
-  it('cosine kernel on a circle, bosons', () => {
+  it('cosine kernel on a circle, bosons', SLOW, () => {
     const a = fromFraction(1n, 2n, P);
     const b = fromFraction(1n, 4n, P);
     const src: KernelSource = (bits) => (v) => {
@@ -104,7 +120,7 @@ describe('kernelTraces: finite-rank kernels', () => {
 });
 
 describe('kernelTraces: Mehler kernel (DLMF 18.18.28), eigenvalues t^n', () => {
-  it('t = 1/2, fermions, 12 digits: Z_L = 1/(1 - t^L), Z(N) = t^(N(N-1)/2) / prod (1 - t^k)', () => {
+  it('t = 1/2, fermions, 12 digits: Z_L = 1/(1 - t^L), Z(N) = t^(N(N-1)/2) / prod (1 - t^k)', SLOW, () => {
     const t = fromFraction(1n, 2n, P);
     const r = kernelTraces(mehler(t), line, { digits: 12, nMax: 4, fermion: true });
     let prod = ONE;
@@ -124,15 +140,9 @@ describe('kernelTraces: the line kernel (Hatsuda-Moriyama-Okuyama 2012, SOURCES.
     return ([x, y]) =>
       div(ONE, mul(mul(twoPi, sqrt(mul(c2(x!), c2(y!), p), p), p), c2(sub(x!, y!, p)), p), bits);
   };
-  it('fermions, 15 digits: Tr rho = Z(1) = 1/4, Z(2) = 1/(16 pi), Z(3) = (pi - 3)/(64 pi), Z(4) = (10 - pi^2)/(1024 pi^2)', () => {
+  it('fermions, 15 digits: Tr rho = Z(1) = 1/4, Z(2) = 1/(16 pi), Z(3) = (pi - 3)/(64 pi), Z(4) = (10 - pi^2)/(1024 pi^2)', SLOW, () => {
     const r = kernelTraces(lineKernel, line, { digits: 15, nMax: 4, fermion: true });
-    const q = pi(P);
-    const exact = [
-      fromFraction(1n, 4n, P),
-      div(ONE, mul(fromInt(16), q, P), P),
-      div(sub(q, fromInt(3), P), mul(fromInt(64), q, P), P),
-      div(sub(fromInt(10), mul(q, q, P), P), mul(fromInt(1024), mul(q, q, P), P), P),
-    ];
+    const exact = publishedLine();
     within(r.traces[0]!, exact[0]!, 15);
     for (let N = 1; N <= 4; N++) within(r.fredholm[N]!, exact[N - 1]!, 15);
     // the trace route through the Newton recursion Z(2) = (Z_1^2 - Z_2) / 2 agrees
@@ -148,7 +158,7 @@ describe('kernelTraces: the line kernel (Hatsuda-Moriyama-Okuyama 2012, SOURCES.
 });
 
 describe('kernelTraces: bad kernels', () => {
-  it('refuses a kernel that is not symmetric', () => {
+  it('refuses a kernel that is not symmetric', SLOW, () => {
     const src: KernelSource =
       (bits) =>
       ([x, y]) =>
@@ -164,7 +174,7 @@ describe('kernelTraces: bad kernels', () => {
       /not symmetric: rho\(x, y\) != rho\(y, x\) at x = /,
     );
   });
-  it('refuses a kernel whose diagonal does not decay', () => {
+  it('refuses a kernel whose diagonal does not decay', SLOW, () => {
     const src: KernelSource =
       (bits) =>
       ([x, y]) =>
@@ -178,7 +188,7 @@ describe('kernelTraces: bad kernels', () => {
       expect((e as EngineError).message).toMatch(/does not decay on the infinite side/);
     }
   });
-  it('names the point of a pole', () => {
+  it('names the point of a pole', SLOW, () => {
     const src: KernelSource =
       (bits) =>
       ([x, y]) =>
@@ -186,5 +196,42 @@ describe('kernelTraces: bad kernels', () => {
     expect(() => kernelTraces(src, line, { digits: 10, nMax: 2, fermion: true })).toThrow(
       /no finite value at x = -3.1416\d*, y = 3.1416/,
     );
+  });
+});
+
+describe('kernelTraces: entries in double-double from the expression (the fast path)', () => {
+  const compiled = (text: string): KernelSource => (bits) =>
+    compileNumeric(text, { names: ['x', 'y'], prec: bits, field: 'weights.expression' });
+  const LINE = '1/(2*pi) / sqrt(2*cosh(x/2)) / (2*cosh((x-y)/2)) / sqrt(2*cosh(y/2))';
+
+  it('the line kernel at 15 digits: the published Z(1..4) (SOURCES.md), Z(5..8) as the Real path', SLOW, () => {
+    const opts = { digits: 15, nMax: 8, fermion: true };
+    const fast = kernelTraces(compiled(LINE), line, { ...opts, fast: compileFast(LINE, ['x', 'y']) });
+    const exact = publishedLine();
+    for (let N = 1; N <= 4; N++) within(fast.fredholm[N]!, exact[N - 1]!, 15);
+    const slow = kernelTraces(compiled(LINE), line, opts);
+    for (let N = 5; N <= 8; N++) {
+      const a = fast.fredholm[N]!;
+      const b = slow.fredholm[N]!;
+      expect(Math.abs(toNumber(sub(a.value, b.value, P)))).toBeLessThanOrEqual(a.error + b.error);
+    }
+  });
+
+  it('a Mehler kernel written as an expression: eigenvalues t^n, t = 1/3 (DLMF 18.18.28)', SLOW, () => {
+    // rho(x, y) = (pi (1 - t^2))^(-1/2) exp(-((1 + t^2)(x^2 + y^2) - 4 t x y) / (2 (1 - t^2)))
+    const text = '1/sqrt(pi*(1 - 1/9)) * exp(-((1 + 1/9)*(x^2 + y^2) - 4/3*x*y) / (2*(1 - 1/9)))';
+    const r = kernelTraces(compiled(text), line, {
+      digits: 14,
+      nMax: 4,
+      fermion: true,
+      fast: compileFast(text, ['x', 'y']),
+    });
+    // Z(N) = t^(N(N-1)/2) / prod_(k=1..N) (1 - t^k) for eigenvalues t^n (q-binomial theorem)
+    const t = fromFraction(1n, 3n, P);
+    let prod: Real = ONE;
+    for (let N = 1; N <= 4; N++) {
+      prod = mul(prod, sub(ONE, powInt(t, N, P), P), P);
+      within(r.fredholm[N]!, div(powInt(t, (N * (N - 1)) / 2, P), prod, P), 14);
+    }
   });
 });

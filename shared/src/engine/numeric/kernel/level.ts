@@ -16,6 +16,7 @@ import {
   tridiagonalizeDD,
   tridiagonalPowerTracesDD,
 } from './matrix-dd.js';
+import type { DDMatrix } from './nystrom-dd.js';
 import type { Rule } from './quadrature.js';
 import type { KernelAt } from './sampling.js';
 
@@ -113,6 +114,9 @@ const subR = (a: Real, b: Real, prec: number): Real => sub(a, b, prec + 4);
 /** How the blocks are reduced: BigInt fixed point (any precision) or double-double (fast). */
 export type Arithmetic = 'fixed' | 'dd';
 
+/** A Nystrom block in fixed point, or already in double-double. */
+export type Block = FixedMatrix | DDMatrix;
+
 /** One block's tridiagonal reduction: traces, det(1 + kappa B) coefficients, sizes. */
 interface Reduced {
   traces: Real[];
@@ -135,8 +139,8 @@ function reduceFixed(B: FixedMatrix, nMax: number, F: number, p?: Pace): Reduced
   };
 }
 
-function reduceDD(B: FixedMatrix, nMax: number, F: number, p?: Pace): Reduced {
-  const { d, e } = tridiagonalizeDD(B.n, fixedToDD(B, F), p);
+function reduceDD(B: Block, nMax: number, F: number, p?: Pace): Reduced {
+  const { d, e } = tridiagonalizeDD(B.n, 'hi' in B ? B : fixedToDD(B, F), p);
   const t = tridiagonalPowerTracesDD(d, e, nMax);
   const c = determinantCoefficientsDD(d, e, nMax);
   let norm2 = 0;
@@ -162,7 +166,7 @@ function reduceDD(B: FixedMatrix, nMax: number, F: number, p?: Pace): Reduced {
  * fixed point, relative to |A|_F in double-double, plus the entries' own rounding there).
  */
 export function levelResult(
-  blocks: FixedMatrix[],
+  blocks: Block[],
   nMax: number,
   fermion: boolean,
   F: number,
@@ -177,7 +181,8 @@ export function levelResult(
   const nb = Math.max(...blocks.map((b) => b.n));
   for (const B of blocks) {
     if (B.n === 0) continue;
-    const r = arithmetic === 'dd' ? reduceDD(B, nMax, F, p) : reduceFixed(B, nMax, F, p);
+    const r =
+      arithmetic === 'dd' || 'hi' in B ? reduceDD(B, nMax, F, p) : reduceFixed(B, nMax, F, p);
     traces = traces.map((v, i) => add(v, r.traces[i]!, prec));
     coeff = truncatedProduct(coeff, r.coeff, nMax, prec);
     norm2 += r.norm2;
@@ -188,9 +193,8 @@ export function levelResult(
   const absSym = elementarySymmetric(eig, nMax);
   const fixedUnit = 2 ** -F;
   const dd = arithmetic === 'dd';
-  const delta = dd
-    ? 4 * nb * nb * DD_UNIT * norm + nb * fixedUnit
-    : 4 * nb * nb * fixedUnit;
+  const entryUnit = Math.max(...blocks.map((b) => ('unit' in b ? b.unit : fixedUnit)));
+  const delta = dd ? 4 * nb * nb * DD_UNIT * norm + nb * entryUnit : 4 * nb * nb * fixedUnit;
   // |sum lambda^L - sum mu^L| <= L delta sum |lambda|^(L-1), with sum |lambda|^(L-1) <= sqrt(n)
   // |A|_F (L = 2), |A|_F^(L-1) (L > 2); plus the rounding of the banded powers
   const roundTraces = traces.map((_, i) => {

@@ -1,4 +1,4 @@
-import { ddAdd, ddDiv, ddMul, ddSqrt, H, L } from './double-double.js';
+import { ddAdd, ddDiv, ddMul, ddSqrt, R } from './double-double.js';
 import { type FixedMatrix, type Pace, pace } from './matrix.js';
 
 /** Double-double numbers or an n x n matrix (row-major): the high and low parts. */
@@ -43,9 +43,9 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
     for (let i = k + 1; i < n; i++) {
       const x = i * n + k;
       ddMul(ah[x]!, al[x]!, ah[x]!, al[x]!);
-      ddAdd(sh, sl, H, L);
-      sh = H;
-      sl = L;
+      ddAdd(sh, sl, R[0], R[1]);
+      sh = R[0];
+      sl = R[1];
     }
     d.hi[k] = ah[k * n + k]!;
     d.lo[k] = al[k * n + k]!;
@@ -53,24 +53,24 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
     const x0h = ah[(k + 1) * n + k]!;
     const x0l = al[(k + 1) * n + k]!;
     ddSqrt(sh, sl);
-    const alh = x0h > 0 ? -H : H;
-    const all = x0h > 0 ? -L : L;
+    const alh = x0h > 0 ? -R[0] : R[0];
+    const all = x0h > 0 ? -R[1] : R[1];
     e.hi[k] = alh;
     e.lo[k] = all;
     // |v|^2 = 2 (s2 - alpha x0) for v = x - alpha e1
     ddMul(alh, all, x0h, x0l);
-    ddAdd(sh, sl, -H, -L);
-    ddSqrt(2 * H, 2 * L);
-    ddDiv(1, 0, H, L);
-    const rh = H;
-    const rl = L;
+    ddAdd(sh, sl, -R[0], -R[1]);
+    ddSqrt(2 * R[0], 2 * R[1]);
+    ddDiv(1, 0, R[0], R[1]);
+    const rh = R[0];
+    const rl = R[1];
     for (let i = k + 1; i < n; i++) {
       if (i === k + 1) {
         ddAdd(x0h, x0l, -alh, -all);
-        ddMul(H, L, rh, rl);
+        ddMul(R[0], R[1], rh, rl);
       } else ddMul(ah[i * n + k]!, al[i * n + k]!, rh, rl);
-      uh[i] = H;
-      ul[i] = L;
+      uh[i] = R[0];
+      ul[i] = R[1];
     }
     // w = 2 A u, then w - (u.w) u
     for (let i = k + 1; i < n; i++) {
@@ -79,15 +79,15 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
       const ri = i * n;
       for (let j = k + 1; j <= i; j++) {
         ddMul(ah[ri + j]!, al[ri + j]!, uh[j]!, ul[j]!);
-        ddAdd(s1, s2, H, L);
-        s1 = H;
-        s2 = L;
+        ddAdd(s1, s2, R[0], R[1]);
+        s1 = R[0];
+        s2 = R[1];
       }
       for (let j = i + 1; j < n; j++) {
         ddMul(ah[j * n + i]!, al[j * n + i]!, uh[j]!, ul[j]!);
-        ddAdd(s1, s2, H, L);
-        s1 = H;
-        s2 = L;
+        ddAdd(s1, s2, R[0], R[1]);
+        s1 = R[0];
+        s2 = R[1];
       }
       wh[i] = 2 * s1;
       wl[i] = 2 * s2;
@@ -96,15 +96,15 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
     let pl = 0;
     for (let i = k + 1; i < n; i++) {
       ddMul(uh[i]!, ul[i]!, wh[i]!, wl[i]!);
-      ddAdd(ph, pl, H, L);
-      ph = H;
-      pl = L;
+      ddAdd(ph, pl, R[0], R[1]);
+      ph = R[0];
+      pl = R[1];
     }
     for (let i = k + 1; i < n; i++) {
       ddMul(ph, pl, uh[i]!, ul[i]!);
-      ddAdd(wh[i]!, wl[i]!, -H, -L);
-      wh[i] = H;
-      wl[i] = L;
+      ddAdd(wh[i]!, wl[i]!, -R[0], -R[1]);
+      wh[i] = R[0];
+      wl[i] = R[1];
     }
     for (let i = k + 1; i < n; i++) {
       const ri = i * n;
@@ -114,13 +114,13 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
       const wil = wl[i]!;
       for (let j = k + 1; j <= i; j++) {
         ddMul(uih, uil, wh[j]!, wl[j]!);
-        const th = H;
-        const tl = L;
+        const th = R[0];
+        const tl = R[1];
         ddMul(wih, wil, uh[j]!, ul[j]!);
-        ddAdd(th, tl, H, L);
-        ddAdd(ah[ri + j]!, al[ri + j]!, -H, -L);
-        ah[ri + j] = H;
-        al[ri + j] = L;
+        ddAdd(th, tl, R[0], R[1]);
+        ddAdd(ah[ri + j]!, al[ri + j]!, -R[0], -R[1]);
+        ah[ri + j] = R[0];
+        al[ri + j] = R[1];
       }
     }
     pace(p);
@@ -167,19 +167,19 @@ export function tridiagonalPowerTracesDD(d: DD, e: DD, nMax: number): DD {
     for (let i = 0; i < n; i++) {
       for (let j = Math.max(0, i - k); j <= Math.min(n - 1, i + k); j++) {
         ddMul(get(k - 1, i, j, 'hi'), get(k - 1, i, j, 'lo'), d.hi[j]!, d.lo[j]!);
-        let sh = H;
-        let sl = L;
+        let sh = R[0];
+        let sl = R[1];
         if (j > 0) {
           ddMul(get(k - 1, i, j - 1, 'hi'), get(k - 1, i, j - 1, 'lo'), e.hi[j - 1]!, e.lo[j - 1]!);
-          ddAdd(sh, sl, H, L);
-          sh = H;
-          sl = L;
+          ddAdd(sh, sl, R[0], R[1]);
+          sh = R[0];
+          sl = R[1];
         }
         if (j < n - 1) {
           ddMul(get(k - 1, i, j + 1, 'hi'), get(k - 1, i, j + 1, 'lo'), e.hi[j]!, e.lo[j]!);
-          ddAdd(sh, sl, H, L);
-          sh = H;
-          sl = L;
+          ddAdd(sh, sl, R[0], R[1]);
+          sh = R[0];
+          sl = R[1];
         }
         next.hi[i * w + (j - i + k)] = sh;
         next.lo[i * w + (j - i + k)] = sl;
@@ -196,15 +196,15 @@ export function tridiagonalPowerTracesDD(d: DD, e: DD, nMax: number): DD {
     for (let i = 0; i < n; i++) {
       if (b === 0) {
         ddAdd(sh, sl, d.hi[i]!, d.lo[i]!);
-        sh = H;
-        sl = L;
+        sh = R[0];
+        sl = R[1];
         continue;
       }
       for (let j = Math.max(0, i - b); j <= Math.min(n - 1, i + b); j++) {
         ddMul(get(a, i, j, 'hi'), get(a, i, j, 'lo'), get(b, i, j, 'hi'), get(b, i, j, 'lo'));
-        ddAdd(sh, sl, H, L);
-        sh = H;
-        sl = L;
+        ddAdd(sh, sl, R[0], R[1]);
+        sh = R[0];
+        sl = R[1];
       }
     }
     out.hi[Lp - 1] = sh;
@@ -225,23 +225,23 @@ export function determinantCoefficientsDD(d: DD, e: DD, nMax: number): DD {
     let e2l = 0;
     if (k > 0) {
       ddMul(e.hi[k - 1]!, e.lo[k - 1]!, e.hi[k - 1]!, e.lo[k - 1]!);
-      e2h = H;
-      e2l = L;
+      e2h = R[0];
+      e2l = R[1];
     }
     for (let j = 0; j <= nMax; j++) {
       let sh = p1.hi[j]!;
       let sl = p1.lo[j]!;
       if (j >= 1) {
         ddMul(d.hi[k]!, d.lo[k]!, p1.hi[j - 1]!, p1.lo[j - 1]!);
-        ddAdd(sh, sl, H, L);
-        sh = H;
-        sl = L;
+        ddAdd(sh, sl, R[0], R[1]);
+        sh = R[0];
+        sl = R[1];
       }
       if (j >= 2 && k > 0) {
         ddMul(e2h, e2l, p0.hi[j - 2]!, p0.lo[j - 2]!);
-        ddAdd(sh, sl, -H, -L);
-        sh = H;
-        sl = L;
+        ddAdd(sh, sl, -R[0], -R[1]);
+        sh = R[0];
+        sl = R[1];
       }
       next.hi[j] = sh;
       next.lo[j] = sl;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { add, div, fromFixed, fromNumber, mul, Real, sqrt, sub, toFixed, toNumber, ZERO } from '../real.js';
-import { DD_UNIT, ddAdd, ddDiv, ddMul, ddSqrt, ddToReal, H, L } from './double-double.js';
+import { DD_UNIT, ddAdd, ddDiv, ddMul, ddSqrt, ddToReal, R } from './double-double.js';
 import {
   determinantCoefficients,
   type FixedMatrix,
@@ -33,7 +33,7 @@ function randomSymmetric(n: number, seed: number): Real[] {
 function denseTraces(a: Real[], n: number, nMax: number): Real[] {
   let pow = a;
   const out: Real[] = [];
-  for (let L = 1; L <= nMax; L++) {
+  for (let power = 1; power <= nMax; power++) {
     let t: Real = ZERO;
     for (let i = 0; i < n; i++) t = add(t, pow[i * n + i]!, P);
     out.push(t);
@@ -75,16 +75,16 @@ describe('double-double operations against 300-bit Reals', () => {
         const A = ddToReal(a, a * 1e-17);
         const B = ddToReal(b, b * -3e-17);
         ddMul(a, a * 1e-17, b, b * -3e-17);
-        expect(rel(ddToReal(H, L), mul(A, B, P))).toBeLessThan(4 * DD_UNIT);
+        expect(rel(ddToReal(R[0], R[1]), mul(A, B, P))).toBeLessThan(4 * DD_UNIT);
         ddAdd(a, a * 1e-17, b, b * -3e-17);
         const s = add(A, B, P);
-        if (toNumber(s) !== 0) expect(rel(ddToReal(H, L), s)).toBeLessThan(4 * DD_UNIT);
+        if (toNumber(s) !== 0) expect(rel(ddToReal(R[0], R[1]), s)).toBeLessThan(4 * DD_UNIT);
         ddDiv(a, a * 1e-17, b, b * -3e-17);
-        expect(rel(ddToReal(H, L), div(A, B, P))).toBeLessThan(8 * DD_UNIT);
+        expect(rel(ddToReal(R[0], R[1]), div(A, B, P))).toBeLessThan(8 * DD_UNIT);
       }
     for (const a of xs.filter((x) => x > 0)) {
       ddSqrt(a, 0);
-      expect(rel(ddToReal(H, L), sqrt(fromNumber(a), P))).toBeLessThan(8 * DD_UNIT);
+      expect(rel(ddToReal(R[0], R[1]), sqrt(fromNumber(a), P))).toBeLessThan(8 * DD_UNIT);
     }
   });
 });

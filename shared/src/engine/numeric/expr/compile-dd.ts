@@ -1,0 +1,250 @@
+import type { FunctionNode, MathNode } from 'mathjs';
+import { parseExpression } from '../../expr/sandbox.js';
+import { parseDecimal } from '../decimal.js';
+import { exp as expReal, pi } from '../elementary.js';
+import { ONE } from '../real.js';
+import {
+  ddAdd,
+  ddDiv,
+  ddExp,
+  ddFromReal,
+  ddLog,
+  ddMul,
+  ddSinh,
+  ddSqrt,
+  R,
+} from '../kernel/double-double.js';
+
+/**
+ * A fast evaluator of the elementary part of the expression language in double-double (about 104
+ * bits): numbers, the bound names, + - * / ^, sqrt, exp, log, cosh, sinh, tanh, abs, pi, e. It
+ * exists for kernels, whose Nystrom matrices need tens of thousands of values; an expression
+ * with anything else compiles to null and the caller keeps the Real evaluator. A value the fast
+ * path cannot give (a pole, a domain error, overflow) is `NaN` in `hi`: the caller then asks the
+ * Real evaluator, which names the fault. Cancellation inside the expression is not tracked here
+ * any more than in the Real evaluator: callers compare a sample of values with it first.
+ */
+/** Evaluates into `out[0]` (hi) and `out[1]` (lo) from `values` = [hi_0, lo_0, hi_1, lo_1, ...]. */
+export interface FastCompiled {
+  evaluate(values: Float64Array, out: Float64Array): void;
+}
+
+const UNARY = new Set(['sqrt', 'exp', 'log', 'cosh', 'sinh', 'tanh', 'abs']);
+
+/** Compile `text` over `names` to double-double, or null when it uses anything else. */
+export function compileFast(text: string, names: readonly string[]): FastCompiled | null {
+  let node: MathNode;
+  try {
+    node = parseExpression(text);
+  } catch {
+    return null;
+  }
+  let slots = 0;
+  const slot = (): number => 2 * slots++;
+  const compile = (n: MathNode): Code | null => {
+    // each compiled node writes its value at r[k], r[k + 1] and returns k
+    switch (n.type) {
+      case 'ParenthesisNode':
+        return compile((n as unknown as { content: MathNode }).content);
+      case 'ConstantNode': {
+        const v = (n as unknown as { value: unknown }).value;
+        const text = typeof v === 'number' ? String(v) : String(v);
+        if (!/^[0-9.eE+-]+$/.test(text)) return null;
+        ddFromReal(parseDecimal(text, 220));
+        return constant(R[0], R[1], slot());
+      }
+      case 'SymbolNode': {
+        const name = (n as unknown as { name: string }).name;
+        const i = names.indexOf(name);
+        if (i >= 0) {
+          const k = slot();
+          return (v, r) => {
+            r[k] = v[2 * i]!;
+            r[k + 1] = v[2 * i + 1]!;
+            return k;
+          };
+        }
+        if (name === 'pi') ddFromReal(pi(220));
+        else if (name === 'e') ddFromReal(expReal(ONE, 220));
+        else return null;
+        return constant(R[0], R[1], slot());
+      }
+      case 'OperatorNode': {
+        const op = n as unknown as { fn: string; args: MathNode[] };
+        const parts = op.args.map(compile);
+        if (parts.some((p) => p === null)) return null;
+        const [ca, cb] = parts as Code[];
+        const k = slot();
+        switch (op.fn) {
+          case 'add':
+          case 'subtract':
+          case 'multiply':
+          case 'divide':
+            return binary(op.fn, ca!, cb!, k);
+          case 'pow':
+            return power(ca!, cb!, k);
+          case 'unaryMinus':
+            return (v, r) => {
+              const i = ca!(v, r);
+              r[k] = -r[i]!;
+              r[k + 1] = -r[i + 1]!;
+              return k;
+            };
+          case 'unaryPlus':
+            return ca!;
+          default:
+            return null;
+        }
+      }
+      case 'FunctionNode': {
+        const fn = n as FunctionNode;
+        const name = (fn.fn as unknown as { name?: string }).name ?? '';
+        if (!UNARY.has(name) || fn.args.length !== 1) return null;
+        const a = compile(fn.args[0]!);
+        if (!a) return null;
+        return unary(name, a, slot());
+      }
+      default:
+        return null;
+    }
+  };
+  const root = compile(node);
+  if (!root) return null;
+  const regs = new Float64Array(2 * slots);
+  return {
+    evaluate(values, out) {
+      const k = root(values, regs);
+      out[0] = regs[k]!;
+      out[1] = regs[k + 1]!;
+    },
+  };
+}
+
+function constant(hi: number, lo: number, k: number) {
+  return (_v: Float64Array, r: Float64Array): number => {
+    r[k] = hi;
+    r[k + 1] = lo;
+    return k;
+  };
+}
+
+type Code = (v: Float64Array, r: Float64Array) => number;
+
+function binary(fn: string, a: Code, b: Code, k: number): Code {
+  return (v, r) => {
+    const i = a(v, r);
+    const j = b(v, r);
+    const ah = r[i]!;
+    const al = r[i + 1]!;
+    const bh = r[j]!;
+    const bl = r[j + 1]!;
+    if (fn === 'add') ddAdd(ah, al, bh, bl);
+    else if (fn === 'subtract') ddAdd(ah, al, -bh, -bl);
+    else if (fn === 'multiply') ddMul(ah, al, bh, bl);
+    else if (bh === 0) {
+      r[k] = NaN;
+      r[k + 1] = 0;
+      return k;
+    } else ddDiv(ah, al, bh, bl);
+    r[k] = R[0];
+    r[k + 1] = R[1];
+    return k;
+  };
+}
+
+function power(a: Code, b: Code, k: number): Code {
+  return (v, r) => {
+    const i = a(v, r);
+    const j = b(v, r);
+    let ah = r[i]!;
+    let al = r[i + 1]!;
+    const bh = r[j]!;
+    if (r[j + 1] === 0 && Number.isInteger(bh) && Math.abs(bh) <= 64) {
+      // integer power by squaring (a negative one inverted at the end)
+      let n = Math.abs(bh);
+      let ph = 1;
+      let pl = 0;
+      while (n > 0) {
+        if (n & 1) {
+          ddMul(ph, pl, ah, al);
+          ph = R[0];
+          pl = R[1];
+        }
+        n >>= 1;
+        if (n > 0) {
+          ddMul(ah, al, ah, al);
+          ah = R[0];
+          al = R[1];
+        }
+      }
+      if (bh < 0) {
+        if (ph === 0) {
+          r[k] = NaN;
+          r[k + 1] = 0;
+          return k;
+        }
+        ddDiv(1, 0, ph, pl);
+        ph = R[0];
+        pl = R[1];
+      }
+      r[k] = ph;
+      r[k + 1] = pl;
+      return k;
+    }
+    if (!(ah > 0)) {
+      r[k] = NaN;
+      r[k + 1] = 0;
+      return k;
+    }
+    ddLog(ah, al);
+    ddMul(R[0], R[1], bh, r[j + 1]!);
+    ddExp(R[0], R[1]);
+    r[k] = R[0];
+    r[k + 1] = R[1];
+    return k;
+  };
+}
+
+function unary(name: string, a: Code, k: number): Code {
+  return (v, r) => {
+    const i = a(v, r);
+    const xh = r[i]!;
+    const xl = r[i + 1]!;
+    if ((name === 'sqrt' && xh < 0) || (name === 'log' && !(xh > 0))) {
+      r[k] = NaN;
+      r[k + 1] = 0;
+      return k;
+    }
+    if (name === 'abs') {
+      r[k] = xh < 0 ? -xh : xh;
+      r[k + 1] = xh < 0 ? -xl : xl;
+      return k;
+    }
+    if (name === 'sqrt') ddSqrt(xh, xl);
+    else if (name === 'exp') ddExp(xh, xl);
+    else if (name === 'log') ddLog(xh, xl);
+    else hyperbolic(name as 'cosh' | 'sinh' | 'tanh', xh, xl);
+    r[k] = R[0];
+    r[k + 1] = R[1];
+    return k;
+  };
+}
+
+/** cosh, sinh, tanh into R (sinh by its series near 0, where e^x - e^-x cancels). */
+function hyperbolic(name: 'cosh' | 'sinh' | 'tanh', xh: number, xl: number): void {
+  if (name === 'cosh') {
+    ddExp(xh, xl);
+    const eh = R[0];
+    const el = R[1];
+    ddDiv(1, 0, eh, el);
+    ddAdd(eh, el, R[0], R[1]);
+    ddMul(R[0], R[1], 0.5, 0);
+    return;
+  }
+  ddSinh(xh, xl);
+  if (name === 'sinh') return;
+  const sh = R[0];
+  const sl = R[1];
+  hyperbolic('cosh', xh, xl);
+  ddDiv(sh, sl, R[0], R[1]);
+}
