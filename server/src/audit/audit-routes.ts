@@ -2,7 +2,8 @@ import type { AuditEventDto } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { AuditEvent } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
-import type { RouteSpec } from '../http/route-table.js';
+import type { Actor, RouteSpec } from '../http/route-table.js';
+import { ADMIN_ONLY_DETAIL_KEYS } from './audit-study.js';
 
 /** Most events one answer gives. */
 export const AUDIT_LIMIT_MAX = 500;
@@ -22,10 +23,13 @@ function textParam(value: unknown, name: string, max: number): string | undefine
 
 /**
  * `GET /audit?targetType=&targetId=&limit=` (steward, admin): audit events, newest first —
- * every state change, review and lock, with who did it and the details.
+ * every state change, review and lock, with who did it and the details. An admin reads every
+ * event; a steward only the events of studies they own or belong to, without e-mail or network
+ * addresses (events about users and invitations belong to no study: admins only).
  */
 export async function listAudit(
   ctx: AppContext,
+  actor: Actor,
   query: Record<string, unknown>,
 ): Promise<AuditEventDto[]> {
   const targetType = textParam(query.targetType, 'targetType', 32);
@@ -45,24 +49,49 @@ export async function listAudit(
       'limit',
     );
   }
-  const where: Record<string, string> = {};
-  if (targetType) where.targetType = targetType;
-  if (targetId) where.targetId = targetId.toLowerCase();
-  const events = await ctx.dataSource.getRepository(AuditEvent).find({
-    where,
-    relations: { actor: true },
-    order: { createdAt: 'DESC' },
-    take: limit,
+  const qb = ctx.dataSource
+    .getRepository(AuditEvent)
+    .createQueryBuilder('e')
+    .innerJoinAndSelect('e.actor', 'actor')
+    .orderBy('e.createdAt', 'DESC')
+    .take(limit);
+  if (targetType) qb.andWhere('e.targetType = :targetType', { targetType });
+  if (targetId) qb.andWhere('e.targetId = :targetId', { targetId: targetId.toLowerCase() });
+  const admin = actor.role === 'admin';
+  if (!admin) {
+    // Scoped in SQL: only events of studies the reader owns or is a member of.
+    qb.andWhere(
+      `e.studyId IN (SELECT s."id" FROM "study" s WHERE s."owner_id" = :me
+        UNION SELECT m."study_id" FROM "study_member" m WHERE m."user_id" = :me)`,
+      { me: actor.id },
+    );
+  }
+  const events = await qb.getMany();
+  return events.map((e) => {
+    const detail = JSON.parse(e.detail) as Record<string, unknown>;
+    return {
+      id: e.id,
+      action: e.action,
+      targetType: e.targetType,
+      targetId: e.targetId,
+      actor: { id: e.actor.id, displayName: e.actor.displayName },
+      detail: admin ? detail : withoutAddresses(detail),
+      createdAt: e.createdAt,
+    };
   });
-  return events.map((e) => ({
-    id: e.id,
-    action: e.action,
-    targetType: e.targetType,
-    targetId: e.targetId,
-    actor: { id: e.actor.id, displayName: e.actor.displayName },
-    detail: JSON.parse(e.detail) as Record<string, unknown>,
-    createdAt: e.createdAt,
-  }));
+}
+
+/** `detail` without the keys that carry e-mail or network addresses (at any depth). */
+export function withoutAddresses(detail: Record<string, unknown>): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(detail)) {
+    if (ADMIN_ONLY_DETAIL_KEYS.includes(key)) continue;
+    out[key] =
+      value && typeof value === 'object' && !Array.isArray(value)
+        ? withoutAddresses(value as Record<string, unknown>)
+        : value;
+  }
+  return out;
 }
 
 /** The audit log route. */
@@ -72,7 +101,7 @@ export function auditRoutes(ctx: AppContext): RouteSpec[] {
       method: 'get',
       path: '/audit',
       access: ['steward', 'admin'],
-      handler: ({ req }) => listAudit(ctx, req.query as Record<string, unknown>),
+      handler: ({ actor, req }) => listAudit(ctx, actor, req.query as Record<string, unknown>),
     },
   ];
 }

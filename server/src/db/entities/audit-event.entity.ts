@@ -9,9 +9,10 @@ import {
 } from 'typeorm';
 import { User } from './user.entity.js';
 
-/** Who did what, to what, when. Written by every state change. */
+/** Who did what, to what, when. Written by every state change; append-only (triggers). */
 @Entity('audit_event')
 @Index('IDX_audit_event_target', ['targetType', 'targetId'])
+@Index('IDX_audit_event_study', ['studyId', 'createdAt'])
 export class AuditEvent {
   @PrimaryGeneratedColumn('uuid')
   id!: string;
@@ -30,6 +31,10 @@ export class AuditEvent {
   /** Kept as plain text so events outlive the thing they describe. */
   @Column('varchar', { name: 'target_id', length: 36 })
   targetId!: string;
+
+  /** The study the target belongs to (NULL for users and invitations): who may read it. */
+  @Column('varchar', { name: 'study_id', length: 36, nullable: true })
+  studyId!: string | null;
 
   /** JSON text with the details of the change. */
   @Column('text', { default: '{}' })

@@ -2,6 +2,7 @@ import { FoundationTables1764619200000 } from './1764619200000-foundation-tables
 import { LookupIndexes1764619260000 } from './1764619260000-lookup-indexes.js';
 import { GasesRunsReferences1764705600000 } from './1764705600000-gases-runs-references.js';
 import { Datasets1764792000000 } from './1764792000000-datasets.js';
+import { AuditStudyScope1796300000000 } from './1796300000000-audit-study-scope.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -9,4 +10,5 @@ export const MIGRATIONS = [
   LookupIndexes1764619260000,
   GasesRunsReferences1764705600000,
   Datasets1764792000000,
+  AuditStudyScope1796300000000,
 ];
