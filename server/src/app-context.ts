@@ -1,13 +1,16 @@
 import type { DataSource } from 'typeorm';
 import type { LoginThrottle } from './auth/login-throttle.js';
+import type { TokenKeys } from './auth/token-keys.js';
 import type { ServerConfig } from './config.js';
 
 /** What route modules and domain functions share: built once per app by `createApp`. */
 export interface AppContext {
   dataSource: DataSource;
   config: ServerConfig;
-  /** HS256 signing secret (256 bits), loaded from the database. */
+  /** HS256 signing secret (256 bits): the current key of `tokenKeys`. */
   tokenSecret: Buffer;
+  /** Every key that still verifies (the current one first), from the environment or key file. */
+  tokenKeys: TokenKeys;
   loginThrottle: LoginThrottle;
   /** A hash checked against when the e-mail is unknown, so timing does not reveal accounts. */
   decoyPasswordHash: string;

@@ -4,8 +4,8 @@ import type { AppContext } from './app-context.js';
 import { createAuthenticate } from './auth/authenticate.js';
 import { LoginThrottle } from './auth/login-throttle.js';
 import { hashPassword } from './auth/password.js';
+import { forgetDatabaseSecret, keysFromFile } from './auth/token-keys.js';
 import type { ServerConfig } from './config.js';
-import { ensureTokenSecret } from './db/settings.js';
 import { apiNotFound, errorMiddleware, notFound } from './http/error-middleware.js';
 import { buildRouter } from './http/route-table.js';
 import { securityHeaders } from './http/security-headers.js';
@@ -23,13 +23,17 @@ export interface AppDeps {
 /**
  * Builds the Express app (without listening): security headers, JSON body limit, the API from
  * the route table, a JSON 404 for unknown /api paths, the built client when present, and the
- * one error middleware. Loads (or creates) the token secret from the database.
+ * one error middleware. Takes the signing keys from the configuration or the key file (created on
+ * first start) and removes any secret an older server kept in the database.
  */
 export async function createApp({ dataSource, config, log }: AppDeps): Promise<Express> {
+  const tokenKeys = config.tokenKeys ?? keysFromFile(config.keyFile);
+  await forgetDatabaseSecret(dataSource);
   const ctx: AppContext = {
     dataSource,
     config,
-    tokenSecret: await ensureTokenSecret(dataSource),
+    tokenSecret: tokenKeys.current,
+    tokenKeys,
     loginThrottle: new LoginThrottle(config.loginLimit.maxFailures, config.loginLimit.windowMs),
     decoyPasswordHash: await hashPassword('decoy password, never matched', config.scrypt),
   };

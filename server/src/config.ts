@@ -1,4 +1,5 @@
 import path from 'node:path';
+import { keysFromEnv, type TokenKeys } from './auth/token-keys.js';
 
 /** How the server seeds data at start. */
 export type ServerMode = 'demo' | 'production' | 'test';
@@ -17,8 +18,12 @@ export interface ServerConfig {
   mode: ServerMode;
   /** Directory of the built client; served with an SPA fallback when it exists. */
   staticDir: string | null;
-  /** Token lifetime in seconds (at most 30 minutes). */
+  /** Token lifetime in seconds (at most 30 minutes); also the most a token's exp - iat may be. */
   tokenTtlSeconds: number;
+  /** The key file the signing keys live in when the environment gives none (mode 600). */
+  keyFile: string;
+  /** Signing keys given directly (from `TRACELOOM_TOKEN_SECRET`, or by tests); else the key file. */
+  tokenKeys?: TokenKeys;
   /** Password hashing cost. Production uses N = 2^17, r = 8, p = 1; tests may lower it. */
   scrypt: ScryptParams;
   /** Login throttle: failures allowed per account + IP within the window. */
@@ -55,6 +60,7 @@ export const DEFAULT_CONFIG: ServerConfig = {
   mode: 'production',
   staticDir: path.join('dist', 'client', 'browser'),
   tokenTtlSeconds: 30 * 60,
+  keyFile: path.join('data', 'traceloom.key'),
   scrypt: PRODUCTION_SCRYPT,
   loginLimit: { maxFailures: 10, windowMs: 15 * 60 * 1000 },
   bodyLimitBytes: 1024 * 1024,
@@ -82,7 +88,9 @@ function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): nu
 /**
  * Reads `PORT`, `TRACELOOM_DB`, `TRACELOOM_MODE`, `TRACELOOM_STATIC`, and the run and upload
  * limits `TRACELOOM_RUN_WALL_MS`, `TRACELOOM_RUN_THREADS`, `TRACELOOM_RUNS_PER_USER`,
- * `TRACELOOM_UPLOAD_LIMIT`; throws a one-line message naming the variable when a value is
+ * `TRACELOOM_UPLOAD_LIMIT`, and the signing keys `TRACELOOM_TOKEN_SECRET`,
+ * `TRACELOOM_TOKEN_SECRETS_PREVIOUS`, `TRACELOOM_KEY_FILE` (default: `traceloom.key` beside the
+ * database); throws a one-line message naming the variable when a value is
  * unusable.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
@@ -94,11 +102,15 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
   if (!['demo', 'production', 'test'].includes(mode)) {
     throw new Error(`TRACELOOM_MODE must be demo, production or test, got "${env.TRACELOOM_MODE}"`);
   }
+  const databasePath = env.TRACELOOM_DB || DEFAULT_CONFIG.databasePath;
+  const tokenKeys = keysFromEnv(env);
   return {
     ...DEFAULT_CONFIG,
     port,
     mode,
-    databasePath: env.TRACELOOM_DB || DEFAULT_CONFIG.databasePath,
+    databasePath,
+    keyFile: env.TRACELOOM_KEY_FILE || path.join(path.dirname(databasePath), 'traceloom.key'),
+    ...(tokenKeys ? { tokenKeys } : {}),
     staticDir: env.TRACELOOM_STATIC || DEFAULT_CONFIG.staticDir,
     runs: {
       ...DEFAULT_CONFIG.runs,

@@ -3,14 +3,15 @@ import jwt from 'jsonwebtoken';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
-import { ensureTokenSecret } from '../db/settings.js';
 import {
   createTestApp,
   insertUser,
   TEST_PASSWORD,
   tokenFor,
+  tokenSecretOf,
   type TestApp,
 } from '../testing/test-app.js';
+import { keyId } from './token-keys.js';
 
 let t: TestApp;
 let admin: User;
@@ -25,7 +26,7 @@ const login = (email: string, password: string) =>
 beforeAll(async () => {
   t = await createTestApp();
   admin = await insertUser(t, 'admin');
-  secret = await ensureTokenSecret(t.dataSource);
+  secret = tokenSecretOf(t);
 });
 afterAll(() => t.close());
 
@@ -130,17 +131,17 @@ describe('token attacks', () => {
     const expired = jwt.sign(
       { sub: user.id, tv: 0, role: 'reviewer', iat: past, exp: past + 60 },
       secret,
-      {
-        algorithm: 'HS256',
-      },
+      { algorithm: 'HS256', keyid: keyId(secret) },
     );
     expect((await me(expired)).status).toBe(401);
   });
 
   it('refuses a token signed with another secret', async () => {
+    // It even names our key's id, so only the signature can refuse it.
     const wrong = jwt.sign({ sub: user.id, tv: 0, role: 'reviewer' }, randomBytes(32), {
       algorithm: 'HS256',
       expiresIn: 600,
+      keyid: keyId(secret),
     });
     expect((await me(wrong)).status).toBe(401);
   });
@@ -149,6 +150,7 @@ describe('token attacks', () => {
     const other = jwt.sign({ sub: user.id, tv: 0, role: 'reviewer' }, secret, {
       algorithm: 'HS512',
       expiresIn: 600,
+      keyid: keyId(secret),
     });
     expect((await me(other)).status).toBe(401);
   });
@@ -156,7 +158,11 @@ describe('token attacks', () => {
   it('refuses a malformed header and a token without a token version', async () => {
     const res = await request(t.app).get('/api/auth/me').set('Authorization', 'Basic abc');
     expect(res.status).toBe(401);
-    const noVersion = jwt.sign({ sub: user.id }, secret, { algorithm: 'HS256', expiresIn: 600 });
+    const noVersion = jwt.sign({ sub: user.id }, secret, {
+      algorithm: 'HS256',
+      expiresIn: 600,
+      keyid: keyId(secret),
+    });
     expect((await me(noVersion)).status).toBe(401);
   });
 });

@@ -6,7 +6,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadConfig } from '../config.js';
 import { createTestApp, TEST_SCRYPT, type TestApp } from '../testing/test-app.js';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from './seed-demo.js';
-import { ensureTokenSecret } from './settings.js';
 import { assertDatabaseHealthy, compareVersions, MIN_SQLITE_VERSION } from './startup-checks.js';
 import { openDatabase } from './open-database.js';
 
@@ -56,20 +55,6 @@ describe('start-up checks', () => {
     ).toMatchObject({ port: 0, mode: 'demo', databasePath: '/tmp/x.db', staticDir: 'web' });
     expect(() => loadConfig({ PORT: 'eighty' })).toThrow(/PORT/);
     expect(() => loadConfig({ TRACELOOM_MODE: 'party' })).toThrow(/TRACELOOM_MODE/);
-  });
-});
-
-describe('token secret', () => {
-  it('is 32 random bytes, created once and kept per database', async () => {
-    const first = await ensureTokenSecret(t.dataSource);
-    expect(first).toHaveLength(32);
-    expect(await ensureTokenSecret(t.dataSource)).toEqual(first);
-    const other = await createTestApp();
-    try {
-      expect(await ensureTokenSecret(other.dataSource)).not.toEqual(first);
-    } finally {
-      await other.close();
-    }
   });
 });
 

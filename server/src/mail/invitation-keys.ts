@@ -11,8 +11,17 @@ import { AppError } from '../http/app-error.js';
 /** How long an invitation key works. */
 export const INVITATION_DAYS = 7;
 
-function signature(ctx: AppContext, payload: string): string {
-  return createHmac('sha256', ctx.tokenSecret).update(`invitation:${payload}`).digest('base64url');
+function signature(key: Buffer, payload: string): string {
+  return createHmac('sha256', key).update(`invitation:${payload}`).digest('base64url');
+}
+
+/** True when `sig` is the payload's signature under any key that still verifies. */
+function signedByUs(ctx: AppContext, payload: string, sig: string): boolean {
+  const given = Buffer.from(sig);
+  return ctx.tokenKeys.all.some((key) => {
+    const expected = Buffer.from(signature(key, payload));
+    return given.length === expected.length && timingSafeEqual(given, expected);
+  });
 }
 
 /**
@@ -22,7 +31,7 @@ function signature(ctx: AppContext, payload: string): string {
  */
 export function invitationKey(ctx: AppContext, invitationId: string, now = Date.now()): string {
   const payload = `${invitationId}.${now + INVITATION_DAYS * 24 * 3600 * 1000}`;
-  return `${payload}.${signature(ctx, payload)}`;
+  return `${payload}.${signature(ctx.tokenSecret, payload)}`;
 }
 
 /**
@@ -41,10 +50,13 @@ export async function acceptInvitation(
       'key',
     );
   const [invitationId, expires, sig] = input.key.split('.') as [string, string, string];
-  const expected = Buffer.from(signature(ctx, `${invitationId}.${expires}`));
-  const given = Buffer.from(sig);
-  if (given.length !== expected.length || !timingSafeEqual(given, expected)) throw refused();
+  if (!signedByUs(ctx, `${invitationId}.${expires}`, sig)) throw refused();
   if (Number(expires) < Date.now()) throw refused();
+  // Single use, checked before the costly hash: a spent or unknown invitation costs no scrypt.
+  const open = await ctx.dataSource
+    .getRepository(Invitation)
+    .findOneBy({ id: invitationId, acceptedAt: IsNull() });
+  if (!open) throw refused();
   const passwordHash = await hashPassword(input.password, ctx.config.scrypt);
   await ctx.dataSource.transaction(async (manager) => {
     const invitations = manager.getRepository(Invitation);

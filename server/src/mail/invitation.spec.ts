@@ -2,9 +2,9 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
 import type { AppContext } from '../app-context.js';
-import { ensureTokenSecret } from '../db/settings.js';
 import { invitationKey as signedKey } from './invitation-keys.js';
 import { invitationKey } from '../testing/invitation-fixtures.js';
+import { keysFromFile } from '../auth/token-keys.js';
 import { createTestApp, insertUser, type TestApp } from '../testing/test-app.js';
 
 let t: TestApp;
@@ -61,7 +61,8 @@ describe('invitation', () => {
     expect(short.body.error).toMatchObject({ code: 'invalid_input', field: 'password' });
     // The same invitation, signed with an expiry in the past (signed eight days ago).
     const id = key.split('.')[0]!;
-    const ctx = { tokenSecret: await ensureTokenSecret(t.dataSource) } as AppContext;
+    const keys = keysFromFile(t.config.keyFile);
+    const ctx = { tokenSecret: keys.current, tokenKeys: keys } as AppContext;
     const old = signedKey(ctx, id, Date.now() - 8 * 24 * 3600 * 1000);
     const expired = await request(t.app)
       .post('/api/invitations/accept')

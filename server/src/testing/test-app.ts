@@ -6,11 +6,11 @@ import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../app.js';
 import { hashPassword } from '../auth/password.js';
+import { keysFromFile } from '../auth/token-keys.js';
 import { signToken } from '../auth/tokens.js';
 import { DEFAULT_CONFIG, type ServerConfig } from '../config.js';
 import { Study, StudyMember, User } from '../db/entities/index.js';
 import { openDatabase } from '../db/open-database.js';
-import { ensureTokenSecret } from '../db/settings.js';
 
 /**
  * Lower scrypt cost for test speed only (an explicit option; password.spec.ts keeps a test at
@@ -42,6 +42,7 @@ export async function createTestApp(
     staticDir: null,
     scrypt: TEST_SCRYPT,
     databasePath: path.join(dir, 'test.sqlite'),
+    keyFile: path.join(dir, 'traceloom.key'),
     ...overrides,
   };
   const dataSource = await openDatabase(config.databasePath);
@@ -82,11 +83,16 @@ export async function insertUser(
   );
 }
 
+/** The app's current signing key (the explicit one, else the test's own key file). */
+export function tokenSecretOf(t: TestApp): Buffer {
+  return (t.config.tokenKeys ?? keysFromFile(t.config.keyFile)).current;
+}
+
 /** A valid bearer token for `user` at their current token version. */
 export async function tokenFor(t: TestApp, user: Pick<User, 'id'>): Promise<string> {
   const row = await t.dataSource.getRepository(User).findOneByOrFail({ id: user.id });
-  const secret = await ensureTokenSecret(t.dataSource);
-  return signToken({ sub: row.id, tv: row.tokenVersion, role: row.role }, secret, 600).token;
+  return signToken({ sub: row.id, tv: row.tokenVersion, role: row.role }, tokenSecretOf(t), 600)
+    .token;
 }
 
 /** Inserts a study owned by `owner` with `members`; returns its id. */
