@@ -6,6 +6,7 @@ import { LoginThrottle } from './auth/login-throttle.js';
 import { hashPassword } from './auth/password.js';
 import { forgetDatabaseSecret, keysFromFile } from './auth/token-keys.js';
 import type { ServerConfig } from './config.js';
+import { jsonDepthGuard, methodNotAllowed, noStore } from './http/api-guards.js';
 import { apiNotFound, errorMiddleware, notFound } from './http/error-middleware.js';
 import { buildRouter } from './http/route-table.js';
 import { securityHeaders } from './http/security-headers.js';
@@ -41,12 +42,12 @@ export async function createApp({ dataSource, config, log }: AppDeps): Promise<E
   app.disable('x-powered-by');
   app.set('trust proxy', false);
   app.use(securityHeaders());
-  app.use('/api', express.json({ limit: config.bodyLimitBytes }));
+  app.use('/api', noStore, express.json({ limit: config.bodyLimitBytes }), jsonDepthGuard);
   const routes = apiRoutes(ctx);
   // Kept on the app so tests read the very table the router was built from.
   app.locals.routeTable = routes.map(({ method, path, access }) => ({ method, path, access }));
   app.use('/api', buildRouter(routes, createAuthenticate(ctx)));
-  app.use('/api', apiNotFound);
+  app.use('/api', methodNotAllowed(routes), apiNotFound);
   if (config.staticDir) app.use(staticClient(config.staticDir));
   app.use(notFound);
   app.use(errorMiddleware(log));

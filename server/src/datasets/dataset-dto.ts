@@ -18,13 +18,17 @@ export function person(user: Pick<User, 'id' | 'displayName'>): DatasetPersonDto
   return { id: user.id, displayName: user.displayName };
 }
 
-/** The dataset that supersedes `dataset`, if any (the newest one). */
+/**
+ * The dataset that supersedes `dataset`, if any (the newest one); with `lockedOnly` only a
+ * locked one, as the public page may name (a draft successor stays private).
+ */
 export async function supersededBy(
   manager: EntityManager,
   datasetId: string,
+  lockedOnly = false,
 ): Promise<{ id: string; version: number } | null> {
   const next = await manager.getRepository(Dataset).findOne({
-    where: { supersedes: { id: datasetId } },
+    where: { supersedes: { id: datasetId }, ...(lockedOnly ? { state: 'locked' as const } : {}) },
     order: { version: 'DESC' },
   });
   return next ? { id: next.id, version: next.version } : null;

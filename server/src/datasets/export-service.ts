@@ -7,7 +7,7 @@ import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { DATASET_RELATIONS, loadVisibleDataset } from './dataset-access.js';
 import { canonicalHash, DATASET_FORMAT, datasetCsv, datasetLatex } from './dataset-document.js';
-import { citationOf, toSummary } from './dataset-dto.js';
+import { citationOf, supersededBy, toSummary } from './dataset-dto.js';
 import { readSnapshot } from './snapshot.js';
 
 const FORMATS = ['json', 'csv', 'latex'] as const;
@@ -95,7 +95,7 @@ export async function publicDataset(ctx: AppContext, hash: string | undefined) {
   return {
     hash: d.hash,
     citation: citationOf(d),
-    supersededBy: (await toSummary(ctx.dataSource.manager, d)).supersededBy,
+    supersededBy: await supersededBy(ctx.dataSource.manager, d.id, true),
     document: JSON.parse(d.canonical!) as unknown,
   };
 }

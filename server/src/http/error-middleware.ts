@@ -35,6 +35,33 @@ function fromBodyParser(err: { type?: unknown; status?: unknown }): AppError | n
 }
 
 /**
+ * Errors Express and Node raise for what a client sent: a path with malformed %-encoding
+ * (URIError from the router), a compressed body that does not inflate (zlib `Z_*` codes), and any
+ * other http-errors error marked `expose` with a 4xx status. Never a 500.
+ */
+function fromRequestFault(err: {
+  status?: unknown;
+  code?: unknown;
+  expose?: unknown;
+}): AppError | null {
+  const status = typeof err.status === 'number' ? err.status : 0;
+  if (err instanceof URIError) {
+    return new AppError(400, 'invalid_path', 'The request path has malformed %-encoding.');
+  }
+  if (typeof err.code === 'string' && err.code.startsWith('Z_')) {
+    return new AppError(
+      400,
+      'invalid_body',
+      'The request body could not be decompressed as its Content-Encoding says.',
+    );
+  }
+  if (err.expose === true && status >= 400 && status < 500) {
+    return new AppError(status, 'invalid_request', 'The request could not be read.');
+  }
+  return null;
+}
+
+/**
  * The one error middleware: renders `{error: {code, message, field?}}`. Unknown errors become a
  * 500 with a generic sentence; their details go to the server log, never to the client.
  */
@@ -42,7 +69,11 @@ export function errorMiddleware(log: (err: unknown) => void = console.error): Er
   return (err, _req, res, next) => {
     if (res.headersSent) return next(err);
     const known =
-      err instanceof AppError ? err : typeof err === 'object' && err ? fromBodyParser(err) : null;
+      err instanceof AppError
+        ? err
+        : typeof err === 'object' && err
+          ? (fromBodyParser(err) ?? fromRequestFault(err))
+          : null;
     if (!known) log(err);
     const appError = known ?? new AppError(500, 'internal', 'Something went wrong on the server.');
     const body: { code: string; message: string; field?: string } = {

@@ -1,3 +1,4 @@
+import { randomBytes, timingSafeEqual } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { SMTPServer } from 'smtp-server';
 import { parseMessage, type StoredMessage } from './mail-parse.js';
@@ -8,17 +9,39 @@ const KEEP = 500;
 /** Largest message the fake accepts, in bytes. */
 const MAX_BYTES = 1024 * 1024;
 
+function same(a: string, b: string): boolean {
+  const x = Buffer.from(a);
+  const y = Buffer.from(b);
+  return x.length === y.length && timingSafeEqual(x, y);
+}
+
 /**
- * A local SMTP server on 127.0.0.1 (a free port) that accepts every message, parses it and keeps
- * it in memory for `GET /api/dev/mailbox`. Used in demo and test mode instead of a real relay;
- * no message ever leaves the machine.
+ * A local SMTP server on 127.0.0.1 (a free port) that accepts the messages of the one client
+ * holding its credentials (random per start; `credentials`), parses them and keeps them in
+ * memory for `GET /api/dev/mailbox`. Used in demo and test mode instead of a real relay; no
+ * message ever leaves the machine, and another local process cannot plant one.
  */
 export class MailFake {
   private readonly messages: StoredMessage[] = [];
   private nextId = 1;
+  /** The user name and password a client must give (AUTH PLAIN or LOGIN). */
+  readonly credentials = {
+    user: 'traceloom',
+    pass: randomBytes(24).toString('base64url'),
+  };
   private readonly server = new SMTPServer({
-    authOptional: true,
-    disabledCommands: ['AUTH', 'STARTTLS'],
+    authOptional: false,
+    authMethods: ['PLAIN', 'LOGIN'],
+    // Loopback only, so no TLS: the credentials never leave the machine.
+    allowInsecureAuth: true,
+    disabledCommands: ['STARTTLS'],
+    onAuth: (auth, _session, callback) => {
+      const ok =
+        same(auth.username ?? '', this.credentials.user) &&
+        same(auth.password ?? '', this.credentials.pass);
+      if (ok) callback(null, { user: auth.username });
+      else callback(new Error('Invalid username or password'));
+    },
     banner: 'Traceloom local mail fake',
     size: MAX_BYTES,
     logger: false,

@@ -63,6 +63,7 @@ export function mailServices(ctx: AppContext): MailServices {
         port: fake.port,
         secure: false,
         ignoreTLS: true,
+        auth: fake.credentials,
       });
     });
     const destroy = ctx.dataSource.destroy.bind(ctx.dataSource);

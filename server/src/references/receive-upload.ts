@@ -13,6 +13,20 @@ function megabytes(bytes: number): string {
 }
 
 /**
+ * A filename fit to store and show: no control characters (CR/LF included), no markup or quote
+ * characters, no path separators, at most 255 characters; `upload` when nothing is left.
+ */
+export function safeFilename(name: string): string {
+  const cleaned = name
+    .replace(/[\u0000-\u001f\u007f]+/g, ' ')
+    .replace(/[<>"'`&\\/]/g, '_')
+    .replace(/\s+/g, ' ')
+    .trim()
+    .slice(-255);
+  return cleaned === '' ? 'upload' : cleaned;
+}
+
+/**
  * Reads a multipart body with multer into memory: one file in field `file` of at most
  * `limitBytes` (413 `file_too_large` beyond, nothing kept), a few short text fields.
  */
@@ -44,7 +58,11 @@ export async function receiveUpload(req: Request, res: Response, limitBytes: num
   }
   if (file.size === 0) throw new AppError(400, 'empty_file', 'file: the file is empty.', 'file');
   return {
-    file: { bytes: file.buffer, filename: file.originalname, contentType: file.mimetype },
+    file: {
+      bytes: file.buffer,
+      filename: safeFilename(file.originalname),
+      contentType: file.mimetype,
+    },
     fields: (req.body ?? {}) as Record<string, unknown>,
   };
 }

@@ -95,6 +95,14 @@ async function parseInWorker(
       { signal },
     )) as typeof output;
   } catch (err) {
+    if ((err as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
+      throw new AppError(
+        413,
+        'file_too_complex',
+        'file: reading it needed more memory than one upload may use; split the table.',
+        'file',
+      );
+    }
     if (!signal.aborted) throw err;
     throw new AppError(400, 'invalid_upload', `file: reading it took longer than ${READ_LIMIT_MS / 1000} s.`, 'file');
   }
