@@ -236,7 +236,7 @@ for (const task of tasks) {
     if (withGp) t.gp.push(timed('gp', ['-q', '-s', '2000000000', gpFile], gpOut, '/dev/null'));
     if (withPy) t.gp.push(timed('python3', [pyFile], pyOut, '/dev/null'));
     if (flag('--direct')) {
-      const cli = path.join(root, 'dist/server/cli/main.js');
+      const cli = path.join(root, 'dist/cli/traceloom.mjs');
       t.node.push(timed(process.execPath, [cli, 'compute', spec], outFile));
     }
   }

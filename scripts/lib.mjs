@@ -11,7 +11,9 @@ export function run(command, args, options = {}) {
   const started = Date.now();
   const result = spawnSync(command, args, { cwd: root, stdio: 'inherit', ...options });
   if (result.status !== 0) {
-    console.error(`\n✗ ${command} ${args.join(' ')} failed (exit ${result.status ?? result.signal})`);
+    console.error(
+      `\n✗ ${command} ${args.join(' ')} failed (exit ${result.status ?? result.signal})`,
+    );
     process.exit(result.status ?? 1);
   }
   return Date.now() - started;
@@ -31,8 +33,11 @@ export function buildAll({ client = true } = {}) {
   console.log('› building shared/ and server/…');
   run('npx', ['tsc', '-p', 'shared/tsconfig.json']);
   run('npx', ['tsc', '-p', 'server/tsconfig.json']);
+  run(process.execPath, ['scripts/bundle-cli.mjs']);
   if (client) {
     console.log('› building the client…');
-    run('npx', ['ng', 'build', 'traceloom'], { env: { ...process.env, NG_CLI_ANALYTICS: 'false' } });
+    run('npx', ['ng', 'build', 'traceloom'], {
+      env: { ...process.env, NG_CLI_ANALYTICS: 'false' },
+    });
   }
 }

@@ -4,13 +4,20 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { classRowText, csvCell } from './render.js';
 
-// Runs the compiled command line (npm test builds first; locally: npm run build:shared && npm run build:server).
+// Runs the command line as `npm run cli` does: scripts/cli.mjs loading the bundle that
+// `npm run build:server` writes (npm test builds first; locally: npm run build:shared && npm run build:server).
 const root = fileURLToPath(new URL('../../../', import.meta.url));
-const cli = `${root}dist/server/cli/main.js`;
+const entry = `${root}scripts/cli.mjs`;
+const bundle = `${root}dist/cli/traceloom.mjs`;
 
-function run(args: string[], input?: string) {
-  if (!existsSync(cli)) throw new Error(`build the CLI first: ${cli} is missing`);
-  const r = spawnSync(process.execPath, [cli, ...args], { input, encoding: 'utf8', cwd: root });
+function run(args: string[], input?: string, env: NodeJS.ProcessEnv = process.env) {
+  if (!existsSync(bundle)) throw new Error(`build the CLI first: ${bundle} is missing`);
+  const r = spawnSync(process.execPath, [entry, ...args], {
+    input,
+    encoding: 'utf8',
+    cwd: root,
+    env,
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -26,6 +33,17 @@ const trap = JSON.stringify({
 });
 
 describe('traceloom compute', () => {
+  it('says in one line what to build when the bundle is missing (a fresh clone), exit 2', () => {
+    const r = run(['compute', '-'], trap, {
+      ...process.env,
+      TRACELOOM_CLI_BUNDLE: `${root}dist/none.mjs`,
+    });
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).toMatch(/not built yet; run `npm run build:shared && npm run build:server`/);
+  });
+
   it('prints the result JSON with the class rows streamed (p(1)+...+p(4) = 1+2+3+5 rows, OEIS A000041)', () => {
     const r = run(['compute', '-'], trap);
     expect(r.code).toBe(0);
