@@ -1,7 +1,9 @@
 // `npm run bench`: times the engine's whole process on the benchmark tasks, beside PARI/GP when
 // `gp` is on PATH (the exact tasks) or the numpy script (the numeric tasks), alternating the two commands; prints medians, ratios and whether the numbers
 // agree. Options: --quick (2 runs instead of 5), --runs N, --no-build, --direct (also time the
-// CLI without npm in front), and task names to filter.
+// CLI without npm in front), and task names to filter. --scaling: trap and ring at three sizes
+// with fitted growth exponents (bench-scaling.mjs); --preview: the latency of POST /api/compute
+// (bench-preview.mjs), also measured at the end of a full run.
 import { spawnSync } from 'node:child_process';
 import {
   existsSync,
@@ -16,6 +18,8 @@ import {
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { buildAll, root } from './lib.mjs';
+import { benchPreview, printPreview } from './bench-preview.mjs';
+import { runScaling } from './bench-scaling.mjs';
 
 const args = process.argv.slice(2);
 const flag = (name) => args.includes(name);
@@ -217,6 +221,43 @@ function numericVerdict(outFile, pyOut) {
   return text;
 }
 
+/** One scaling size: both sides timed `runs` times, alternating, and the coefficient compared. */
+function measureScaling(specFile, gpFile) {
+  const outFile = path.join(work, 'scaling.out.json');
+  const gpOut = path.join(work, 'scaling.gp.txt');
+  const t = { ours: [], engine: [], gp: [] };
+  for (let i = 0; i < runs; i++) {
+    t.ours.push(timed('npm', ['run', '-s', 'cli', '--', 'compute', specFile], outFile));
+    t.engine.push(JSON.parse(readFileSync(outFile, 'utf8')).timings.totalMs / 1000);
+    t.gp.push(timed('gp', ['-q', '-s', '2000000000', gpFile], gpOut, '/dev/null'));
+  }
+  const want = parseGp(readFileSync(gpOut, 'utf8'));
+  const got = want && ours(outFile, want);
+  const agree = !want
+    ? 'gp output not understood'
+    : same(rational(got.value), rational(want.value))
+      ? 'identical'
+      : `DIFFER (ours ${got.value}, gp ${want.value})`;
+  return { ours: median(t.ours), engine: median(t.engine), gp: median(t.gp), agree };
+}
+
+if (flag('--scaling')) {
+  if (!hasGp) {
+    console.error('bench: --scaling needs gp on PATH (e.g. apt-get install -y pari-gp)');
+    process.exit(2);
+  }
+  runScaling(benchDir, work, measureScaling);
+  console.log(`(median of ${runs} per size)`);
+  rmSync(work, { recursive: true, force: true });
+  process.exit(0);
+}
+const previewRequests = flag('--quick') ? 20 : 40;
+if (flag('--preview')) {
+  rmSync(work, { recursive: true, force: true });
+  printPreview(await benchPreview({ requests: previewRequests }), previewRequests);
+  process.exit(0);
+}
+
 const rows = [];
 for (const task of tasks) {
   const builtin = BUILTIN[task];
@@ -285,3 +326,5 @@ for (const r of rows) {
 }
 if (!hasGp)
   console.log('\n(gp not on PATH: install PARI/GP, e.g. apt-get install -y pari-gp, to compare)');
+if (filters.length === 0)
+  printPreview(await benchPreview({ requests: previewRequests }), previewRequests);
