@@ -66,6 +66,13 @@ export async function verifyPassword(password: string, stored: string): Promise<
 }
 
 /** A stored value no password can match: for invited people until they set one. */
+const UNUSABLE = 'unusable$';
+
 export function unusablePasswordHash(): string {
-  return `unusable$${randomBytes(24).toString('base64')}`;
+  return `${UNUSABLE}${randomBytes(24).toString('base64')}`;
+}
+
+/** True for the marker of an invited account that has not set a password yet. */
+export function isUnusablePasswordHash(stored: string): boolean {
+  return stored.startsWith(UNUSABLE);
 }

@@ -5,7 +5,7 @@ import type { AppContext } from '../app-context.js';
 import { invitationKey as signedKey } from './invitation-keys.js';
 import { invitationKey } from '../testing/invitation-fixtures.js';
 import { keysFromFile } from '../auth/token-keys.js';
-import { createTestApp, insertUser, type TestApp } from '../testing/test-app.js';
+import { createTestApp, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
 
 let t: TestApp;
 let admin: User;
@@ -19,6 +19,13 @@ afterAll(() => t.close());
 describe('invitation', () => {
   it('sets the first password once through the key in the mail, then sign-in works', async () => {
     const key = await invitationKey(t, admin, 'lena@example.test');
+    const invitedFlag = async () =>
+      (
+        await request(t.app)
+          .get('/api/users')
+          .set('Authorization', `Bearer ${await tokenFor(t, admin)}`)
+      ).body.find((u: { email: string }) => u.email === 'lena@example.test').invited;
+    expect(await invitedFlag()).toBe(true); // shown as "Invited" until the password is set
     const before = await request(t.app)
       .post('/api/auth/login')
       .send({ email: 'lena@example.test', password: 'a good long password' });
@@ -31,6 +38,7 @@ describe('invitation', () => {
       .post('/api/auth/login')
       .send({ email: 'lena@example.test', password: 'a good long password' });
     expect(login.status).toBe(200);
+    expect(await invitedFlag()).toBe(false);
     const again = await request(t.app)
       .post('/api/invitations/accept')
       .send({ key, password: 'another long password' });

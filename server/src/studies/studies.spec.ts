@@ -8,6 +8,7 @@ import {
   tokenFor,
   type TestApp,
 } from '../testing/test-app.js';
+import { createGas } from '../testing/gas-fixtures.js';
 
 let t: TestApp;
 let owner: User;
@@ -157,5 +158,33 @@ describe('studies', () => {
     const disabled = await insertUser(t, 'reviewer', { disabled: true });
     const res = await as(owner, 'post', `/studies/${id}/members`, { userId: disabled.id });
     expect(res.status).toBe(404);
+  });
+
+  it('counts the owner and the members once, and dates a study by its latest change inside', async () => {
+    const made = await as(owner, 'post', '/studies', { title: 'Counted study' });
+    expect(made.body.memberCount).toBe(1);
+    expect(made.body.lastChangeAt >= made.body.updatedAt).toBe(true);
+    const added = await as(owner, 'post', `/studies/${made.body.id}/members`, {
+      userId: reviewerMember.id,
+    });
+    expect(added.body.memberCount).toBe(2);
+    expect(added.body.lastChangeAt > made.body.updatedAt).toBe(true);
+    const older = await as(owner, 'post', '/studies', { title: 'Older study' });
+    // A new gas in the first study makes it the latest change, though its own row is older.
+    await createGas(t, await tokenFor(t, owner), made.body.id);
+    const list = await as(owner, 'get', '/studies');
+    const ids = list.body.map((st: { id: string }) => st.id);
+    expect(ids.indexOf(made.body.id)).toBeLessThan(ids.indexOf(older.body.id));
+    const first = list.body.find((st: { id: string }) => st.id === made.body.id);
+    expect(first.lastChangeAt > older.body.updatedAt).toBe(true);
+    const removed = await as(
+      owner,
+      'delete',
+      `/studies/${made.body.id}/members/${reviewerMember.id}`,
+    );
+    expect(removed.status).toBeLessThan(300);
+    const after = await as(owner, 'get', `/studies/${made.body.id}`);
+    expect(after.body.memberCount).toBe(1);
+    expect(after.body.lastChangeAt >= first.lastChangeAt).toBe(true);
   });
 });

@@ -16,7 +16,7 @@ import {
   assertCanManage,
   loadVisibleStudy,
 } from './study-access.js';
-import { toStudyDto } from './study-dto.js';
+import { lastChanges, toStudyDto } from './study-dto.js';
 
 /** Studies the actor owns or belongs to (an admin: all), most recently changed first. */
 export async function listStudies(ctx: AppContext, actor: Actor): Promise<StudyDto[]> {
@@ -35,7 +35,13 @@ export async function listStudies(ctx: AppContext, actor: Actor): Promise<StudyD
     relations: STUDY_RELATIONS,
     order: { updatedAt: 'DESC' },
   });
-  return studies.map(toStudyDto);
+  const changes = await lastChanges(
+    ctx.dataSource.manager,
+    studies.map((st) => st.id),
+  );
+  return studies
+    .map((study) => toStudyDto(study, changes.get(study.id)))
+    .sort((a, b) => b.lastChangeAt.localeCompare(a.lastChangeAt));
 }
 
 /** Creates a study owned by the actor. */
@@ -62,7 +68,8 @@ export async function createStudy(
 
 /** One study, if the actor may see it (else 404). */
 export async function getStudy(ctx: AppContext, actor: Actor, studyId: string): Promise<StudyDto> {
-  return toStudyDto(await loadVisibleStudy(ctx.dataSource.manager, actor, studyId));
+  const study = await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
+  return toStudyDto(study, (await lastChanges(ctx.dataSource.manager, [study.id])).get(study.id));
 }
 
 /** Renames or re-describes a study. */
@@ -188,5 +195,6 @@ async function studyChanged(
     targetId: studyId,
     detail,
   });
-  return toStudyDto(await loadVisibleStudy(manager, actor, studyId));
+  const study = await loadVisibleStudy(manager, actor, studyId);
+  return toStudyDto(study, (await lastChanges(manager, [study.id])).get(study.id));
 }

@@ -1,4 +1,5 @@
 import type { DirectoryEntryDto, UserDto } from '@traceloom/shared/api';
+import { isUnusablePasswordHash } from '../auth/password.js';
 import type { User } from '../db/entities/index.js';
 
 /** The API's view of a user row (never the hash or token version). */
@@ -9,6 +10,7 @@ export function toUserDto(user: User): UserDto {
     displayName: user.displayName,
     role: user.role,
     disabled: Boolean(user.disabled),
+    invited: isUnusablePasswordHash(user.passwordHash),
     createdAt: user.createdAt,
   };
 }

@@ -78,6 +78,7 @@ describe('users', () => {
       'displayName',
       'email',
       'id',
+      'invited',
       'role',
     ]);
     const reviewer = await insertUser(t, 'reviewer');

@@ -56,6 +56,13 @@ export interface StudyDto {
   description: string;
   owner: StudyPersonDto;
   members: StudyMemberDto[];
+  /** People in the study: the owner and every member (the owner counted once). */
+  memberCount: number;
   createdAt: string;
   updatedAt: string;
+  /**
+   * The latest change anywhere in the study: its own fields and members, its gases, runs,
+   * reference tables and datasets.
+   */
+  lastChangeAt: string;
 }

@@ -33,6 +33,8 @@ export interface UserDto {
   displayName: string;
   role: Role;
   disabled: boolean;
+  /** Invited and not yet accepted: the account has no password yet. */
+  invited: boolean;
   createdAt: string;
 }
 

@@ -1,5 +1,7 @@
 import { HttpTestingController } from '@angular/common/http/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
+import { MatSelectHarness } from '@angular/material/select/testing';
 import { UserDto } from '@traceloom/shared/api';
 import { signInAs, testProviders, testUser } from '../core/session-testing';
 import { UserList } from './user-list';
@@ -27,6 +29,9 @@ describe('UserList', () => {
   }
 
   const rows = () => [...el.querySelectorAll('[data-testid="user-row"]')];
+  /** The Material role select of row `i`. */
+  const roleSelect = async (i: number) =>
+    (await TestbedHarnessEnvironment.loader(fixture).getAllHarnesses(MatSelectHarness))[i]!;
 
   afterEach(() => httpTesting.verify());
 
@@ -36,24 +41,39 @@ describe('UserList', () => {
     const [mine, theirs] = rows();
     expect(mine.textContent).toContain('(you)');
     expect(mine.querySelector('[data-testid="user-toggle-disabled"]')).toBeNull();
-    expect((mine.querySelector('select') as HTMLSelectElement).disabled).toBe(true);
+    expect(el.querySelector('select')).toBeNull(); // Material selects only
+    expect(await (await roleSelect(0)).isDisabled()).toBe(true);
     expect(theirs.querySelector('[data-testid="user-status"]')?.textContent?.trim()).toContain(
       'Active',
     );
-    expect((theirs.querySelector('select') as HTMLSelectElement).value).toBe('author');
+    expect(await (await roleSelect(1)).getValueText()).toBe('Author');
+  });
+
+  it('shows "Invited" for an account that has not accepted its invitation yet', async () => {
+    const invited = testUser('reviewer', {
+      id: 'u-new',
+      displayName: 'Noor Haddad',
+      invited: true,
+    });
+    await render(() => [me, author, invited]);
+    const status = (i: number) =>
+      rows()[i]!.querySelector('[data-testid="user-status"]')?.textContent?.trim();
+    expect(status(2)).toContain('Invited');
+    expect(status(2)).not.toContain('Active');
+    expect(status(1)).toContain('Active');
   });
 
   it('changes a role through PATCH and shows the answer', async () => {
     await render(() => [me, author]);
-    const select = rows()[1].querySelector('select') as HTMLSelectElement;
-    select.value = 'steward';
-    select.dispatchEvent(new Event('change'));
+    const select = await roleSelect(1);
+    await select.open();
+    await select.clickOptions({ text: 'Steward' });
     const req = httpTesting.expectOne('/api/users/u-author');
     expect(req.request.method).toBe('PATCH');
     expect(req.request.body).toEqual({ role: 'steward' });
     req.flush({ ...author, role: 'steward' });
     await fixture.whenStable();
-    expect((rows()[1].querySelector('select') as HTMLSelectElement).value).toBe('steward');
+    expect(await (await roleSelect(1)).getValueText()).toBe('Steward');
   });
 
   it('disables an account and then offers to enable it', async () => {
@@ -73,9 +93,9 @@ describe('UserList', () => {
 
   it('keeps the old role on screen when the server refuses', async () => {
     await render(() => [me, author]);
-    const select = rows()[1].querySelector('select') as HTMLSelectElement;
-    select.value = 'admin';
-    select.dispatchEvent(new Event('change'));
+    const select = await roleSelect(1);
+    await select.open();
+    await select.clickOptions({ text: 'Admin' });
     httpTesting
       .expectOne('/api/users/u-author')
       .flush(
@@ -83,6 +103,6 @@ describe('UserList', () => {
         { status: 403, statusText: 'Forbidden' },
       );
     await fixture.whenStable();
-    expect((rows()[1].querySelector('select') as HTMLSelectElement).value).toBe('author');
+    expect(await (await roleSelect(1)).getValueText()).toBe('Author');
   });
 });

@@ -3,7 +3,9 @@ import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@a
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
+import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelect, MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { messageOf } from '../core/api-error';
 import { InviteResponse, ROLES, Role, UserDto } from '@traceloom/shared/api';
@@ -15,7 +17,13 @@ import { UsersApi } from './users-api';
 /** The admin's table of people: invite, change a role, disable or enable an account. */
 @Component({
   selector: 'tl-user-list',
-  imports: [MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatSelectModule,
+  ],
   templateUrl: './user-list.html',
   styleUrl: './user-list.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -52,7 +60,16 @@ export class UserList {
       });
   }
 
-  protected changeRole(user: UserDto, role: string, select: HTMLSelectElement): void {
+  /** Disabled, Invited (no password set yet) or Active. */
+  protected statusLabel(user: UserDto): string {
+    return user.disabled ? 'Disabled' : user.invited ? 'Invited' : 'Active';
+  }
+
+  protected statusIcon(user: UserDto): string {
+    return user.disabled ? 'block' : user.invited ? 'mail' : 'check_circle';
+  }
+
+  protected changeRole(user: UserDto, role: string, select: MatSelect): void {
     if (role === user.role) return;
     // Put the old value back until the server agrees; the answer then updates the row.
     select.value = user.role;

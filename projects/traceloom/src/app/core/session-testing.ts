@@ -30,6 +30,7 @@ export function testUser(role: Role, overrides: Partial<UserDto> = {}): UserDto 
     displayName: `Test ${role}`,
     role,
     disabled: false,
+    invited: false,
     createdAt: '2026-01-01T00:00:00.000Z',
     ...overrides,
   };

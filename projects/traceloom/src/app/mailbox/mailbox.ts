@@ -6,6 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
 import type { MailboxMessage } from '../datasets/datasets-api';
+import { mailParts } from './mail-links';
 
 /** The local mail fake's messages (admin; demo and test mode), newest first. */
 @Component({
@@ -25,6 +26,8 @@ export class Mailbox {
       ? 'Mail goes to a real relay here; the local mailbox is only on in demo and test mode.'
       : messageOf(e);
   });
+
+  protected readonly parts = mailParts;
 
   protected toggle(id: number): void {
     this.openId.update((current) => (current === id ? null : id));

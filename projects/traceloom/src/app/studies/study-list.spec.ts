@@ -12,6 +12,8 @@ const RING: StudyDto = {
   members: [{ id: 'm1', displayName: 'Ilse Varga', email: 'ilse@example.test', role: 'reviewer' }],
   createdAt: '2026-02-01T10:00:00.000Z',
   updatedAt: '2026-02-03T10:00:00.000Z',
+  memberCount: 2,
+  lastChangeAt: '2026-02-03T10:00:00.000Z',
 };
 
 describe('StudyList', () => {
@@ -79,9 +81,10 @@ describe('StudyList', () => {
 
   it('lists each study with its owner, member count and a link to its page', async () => {
     render();
-    httpTesting
-      .expectOne('/api/studies')
-      .flush([RING, { ...RING, id: 'x2', title: 'Harmonic trap', members: [] }]);
+    httpTesting.expectOne('/api/studies').flush([
+      { ...RING, lastChangeAt: '2026-02-09T10:00:00.000Z' },
+      { ...RING, id: 'x2', title: 'Harmonic trap', members: [], memberCount: 1 },
+    ]);
     await fixture.whenStable();
     const rows = [...el.querySelectorAll('[data-testid="study-row"]')];
     expect(rows.map((r) => r.querySelector('a')?.textContent?.trim())).toEqual([
@@ -89,7 +92,12 @@ describe('StudyList', () => {
       'Harmonic trap',
     ]);
     expect(rows[0].textContent).toContain('Noor Halloran');
-    expect(rows[0].querySelector('.num')?.textContent?.trim()).toBe('1');
+    // The owner and one member: two people; the date is the latest change inside the study.
+    expect(rows[0].querySelector('.num')?.textContent?.trim()).toBe('2');
+    expect(rows[1].querySelector('.num')?.textContent?.trim()).toBe('1');
+    expect(rows[0].querySelector('time')?.getAttribute('datetime')).toBe(
+      '2026-02-09T10:00:00.000Z',
+    );
     expect(rows[0].querySelector('a')?.getAttribute('href')).toBe(`/studies/${RING.id}`);
   });
 

@@ -16,6 +16,8 @@ const STUDY: StudyDto = {
   ],
   createdAt: '2026-02-01T10:00:00.000Z',
   updatedAt: '2026-02-01T10:00:00.000Z',
+  memberCount: 2,
+  lastChangeAt: '2026-02-01T10:00:00.000Z',
 };
 
 describe('StudyPage', () => {

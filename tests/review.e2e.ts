@@ -1,0 +1,84 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { launchBrowser, signInPage, type TestBrowser } from './support/browser.js';
+import { apiCall, signInApi } from './support/api.js';
+import { startServer, type TestServer } from './support/server.js';
+
+/**
+ * The admin's and the reviewer's screens as a person reads them: an invited account says
+ * "Invited", roles are changed with the Material select, a toast stays on its page, mailbox
+ * addresses are links, the study list counts people and dates the latest change.
+ */
+const PASSWORD = 'traceloom-demo';
+
+let server: TestServer;
+let browser: TestBrowser;
+
+beforeAll(async () => {
+  server = await startServer();
+  browser = await launchBrowser(server.baseUrl);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+const call = (token: string | null, method: string, path: string, body?: unknown) =>
+  apiCall(server.baseUrl, token, method, path, body);
+const tokenOf = async (email: string): Promise<string> =>
+  (await signInApi(server.baseUrl, email, PASSWORD)).token;
+
+const signIn = (page: Page, email: string) => signInPage(page, email, PASSWORD);
+
+describe('admin screens', () => {
+  it('shows an invited person as Invited, changes a role, and the toast stays on its page', async () => {
+    const admin = await tokenOf('admin@demo.test');
+    const email = `invitee-${Date.now()}@example.test`;
+    const invite = await call(admin, 'POST', '/users', {
+      email,
+      displayName: 'Wren Achterberg',
+      role: 'author',
+    });
+    expect(invite.status).toBe(201);
+    const { page, context } = await browser.newPage();
+    await signIn(page, 'admin@demo.test');
+    await page.getByTestId('nav-users').click();
+    const row = page.getByTestId('user-row').filter({ hasText: email });
+    await expect(row.getByTestId('user-status').innerText()).resolves.toContain('Invited');
+    const steward = page.getByTestId('user-row').filter({ hasText: 'steward@demo.test' });
+    await expect(steward.getByTestId('user-status').innerText()).resolves.toContain('Active');
+    expect(await page.locator('select').count()).toBe(0);
+    await page.getByRole('combobox', { name: 'Role of Wren Achterberg' }).click();
+    await page.getByRole('option', { name: 'Reviewer' }).click();
+    await page.getByText('Wren Achterberg is now Reviewer.').waitFor();
+    await browser.screenshot(page, 'review-admin-users');
+    await page.waitForTimeout(600);
+    await page.getByTestId('nav-mailbox').click();
+    await page.getByTestId('mail-row').first().waitFor();
+    await expect.poll(() => page.getByText('Wren Achterberg is now Reviewer.').count()).toBe(0);
+    await page.getByTestId('mail-row').filter({ hasText: email }).getByRole('button').click();
+    const link = page.getByTestId('mail-text').getByRole('link').first();
+    expect(await link.getAttribute('href')).toMatch(/^http:\/\/[^/]+\/welcome\/\S+$/);
+    await browser.screenshot(page, 'review-admin-mailbox');
+    await context.close();
+  });
+
+  it('counts the owner with the members and dates a study by its latest change', async () => {
+    const { page, context } = await browser.newPage();
+    await signIn(page, 'author@demo.test');
+    await page.getByTestId('nav-studies').click();
+    const row = page.getByTestId('study-row').filter({ hasText: 'Fermions on a ring' });
+    const cells = await row.locator('td').allInnerTexts();
+    await browser.screenshot(page, 'review-study-list');
+    await row.getByTestId('study-link').click();
+    await page.getByTestId('study-heading').waitFor();
+    const members = await page.getByTestId('member-row').count();
+    expect(Number(cells[2])).toBe(members + 1);
+    await context.close();
+  });
+
+  it('no request went to another host', () => {
+    expect(browser.foreignRequests()).toEqual([]);
+  });
+});
