@@ -181,3 +181,50 @@ describe('class row text', () => {
     expect(JSON.parse(classRowText(exact))).toEqual(exact);
   });
 });
+
+describe('traceloom compute, sector sums', () => {
+  const ring = (sectors: object) =>
+    JSON.stringify({
+      format: 'traceloom.gas/1',
+      statistics: 'fermion',
+      step: '1/2',
+      order: '6',
+      nMax: 3,
+      weights: { kind: 'spectrum', expression: 'q^((abs(p) + abs(p + n))/2)' },
+      sectors,
+    });
+
+  it('prints the sector summary under the canonical table', () => {
+    const r = run(
+      ['compute', '-', '--format', 'table'],
+      ring({ index: ['n'], from: [null], to: [null] }),
+    );
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/sectors over n: \d+ computed, \d+ contributed/);
+    expect(r.out).toMatch(/Z\(0\) = 1 by convention/);
+    expect(r.out).toMatch(/sectors per row: N=1: \d+, N=2: \d+, N=3: \d+/);
+    // sector n = 0 is the ring q^|p|: Z_0(1..3) start at q^0, q^1, q^2
+    expect(r.out).toMatch(/\(n=0\)\s+yes\s+0 1 2/);
+  });
+
+  it('lists every sector in csv and refuses a divergent sum naming sectors', () => {
+    const csv = run(
+      ['compute', '-', '--format', 'csv'],
+      ring({ index: ['n'], from: [-2], to: [2] }),
+    );
+    expect(csv.code).toBe(0);
+    expect(csv.out).toMatch(/\nn,contributed,val Z_n\(1\),val Z_n\(2\),val Z_n\(3\)\n/);
+    expect(csv.out.split('\n').filter((l) => /^-?\d,(true|false),/.test(l))).toHaveLength(5);
+    const flat = JSON.stringify({
+      format: 'traceloom.gas/1',
+      statistics: 'fermion',
+      order: '6',
+      nMax: 2,
+      weights: { kind: 'spectrum', expression: 'q^abs(p)' },
+      sectors: { index: ['n'], from: [null], to: [null] },
+    });
+    const bad = run(['compute', '-'], flat);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/^sectors: the sector sum does not converge/);
+  });
+});

@@ -1,5 +1,6 @@
 import { classRowJsonText } from '@traceloom/shared';
 import { largeNTableLines } from './largen-render.js';
+import { sectorCsvLines, sectorTableLines } from './sectors-render.js';
 import type { ClassRowJson, ComputeResult, ValueJson } from '@traceloom/shared';
 import {
   isNumericResult,
@@ -134,6 +135,7 @@ export function renderTable(r: ComputeResult): string {
       );
     }
   }
+  lines.push(...sectorTableLines(r));
   lines.push(...largeNTableLines(r.largeN, (v) => valueText(v, x)));
   const checks = checkLines(r);
   if (checks.length) lines.push('', ...checks);
@@ -165,6 +167,7 @@ export function renderCsv(r: ComputeResult): string {
       );
     }
   }
+  lines.push(...sectorCsvLines(r, csvCell));
   return lines.join('\n') + '\n';
 }
 

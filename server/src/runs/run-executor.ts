@@ -5,6 +5,7 @@ import { recordAudit } from '../audit/record-audit.js';
 import type { WorkerPools } from '../compute/pools.js';
 import type { RunLimits } from '../config.js';
 import { Run, type RunStatus } from '../db/entities/index.js';
+import { isSectorSpec, runSectorsOnPool } from './sector-runs.js';
 import type { RunOutput, WorkerRefusal } from './worker.js';
 
 /** Stored progress is written at most this often (the live value is kept in memory). */
@@ -150,7 +151,7 @@ export class RunExecutor {
     // Until the worker says it has begun (a fresh worker first loads the engine), only a
     // generous start-up limit applies; the run's own wall-clock limit starts with the work.
     let timer = setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
-    channel.port1.on('message', (p: Progress | { started: number }) => {
+    const onMessage = (p: Progress | { started: number }): void => {
       if ('started' in p) {
         clearTimeout(timer);
         timer = setTimeout(limit, this.limits.wallClockMs);
@@ -168,13 +169,18 @@ export class RunExecutor {
         { id: runId, status: 'running' },
         { progressDone: p.done, progressTotal: p.total, progressPhase: p.phase },
       ).catch((err: unknown) => this.log(err));
-    });
+    };
+    channel.port1.on('message', onMessage);
     let outcome: Partial<Run> & { status: RunStatus };
     try {
-      const output = (await this.pools.runs.run(
-        { kind: 'run', spec: JSON.parse(run.gasVersion.spec), port: channel.port2 },
-        { transferList: [channel.port2], signal: active.controller.signal },
-      )) as RunOutput | WorkerRefusal;
+      const spec: unknown = JSON.parse(run.gasVersion.spec);
+      const signal = active.controller.signal;
+      const output = isSectorSpec(spec)
+        ? await runSectorsOnPool(this.pools.runs, this.limits.threads, spec, signal, onMessage)
+        : ((await this.pools.runs.run(
+            { kind: 'run', spec, port: channel.port2 },
+            { transferList: [channel.port2], signal },
+          )) as RunOutput | WorkerRefusal);
       outcome = output.ok
         ? {
             status: 'done',
@@ -218,7 +224,9 @@ export class RunExecutor {
 
   /** One conditional update of a run, in its own (serialized) transaction. */
   private update(where: { id: string; status: RunStatus }, changes: Partial<Run>) {
-    return this.dataSource.transaction((manager) => manager.getRepository(Run).update(where, changes));
+    return this.dataSource.transaction((manager) =>
+      manager.getRepository(Run).update(where, changes),
+    );
   }
 
   private stoppedOutcome(active: ActiveRun, err: unknown): Partial<Run> & { status: RunStatus } {

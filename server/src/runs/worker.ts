@@ -11,11 +11,19 @@ import { AppError } from '../http/app-error.js';
 import { productTask, type ProductTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
+import {
+  sectorAssembleTask,
+  sectorPartsTask,
+  type SectorAssembleTask,
+  type SectorPartsTask,
+} from './sector-tasks.js';
 
 /** A task for the worker pool. */
 export type WorkerTask =
   | { kind: 'run'; spec: unknown; port: MessagePort }
   | { kind: 'preview'; spec: unknown }
+  | SectorPartsTask
+  | SectorAssembleTask
   | ({ kind: 'compare' } & CompareTask)
   | ({ kind: 'compareNumeric' } & NumericCompareTask)
   | ({ kind: 'productForm' } & ProductTask)
@@ -93,6 +101,18 @@ export default function work(task: WorkerTask): unknown {
   switch (task.kind) {
     case 'run':
       return runTask(task.spec, task.port);
+    case 'sectorParts':
+      try {
+        return sectorPartsTask(task);
+      } catch (e) {
+        return refusal(e);
+      }
+    case 'sectorAssemble':
+      try {
+        return sectorAssembleTask(task);
+      } catch (e) {
+        return refusal(e);
+      }
     case 'preview':
       try {
         return { ok: true, result: compute(task.spec) };

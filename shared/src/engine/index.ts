@@ -10,7 +10,16 @@ export type {
   ComputeResult,
   Progress,
   Route,
+  SectorRowJson,
+  SectorsJson,
 } from './result.js';
+export { sectorsSchema, MAX_SECTOR_INDICES } from './sectors/schema.js';
+export type { SectorsSpec } from './sectors/schema.js';
+export { assembleSectors, sectorContext } from './sectors/compute-sectors.js';
+export { sectorPart } from './sectors/sector.js';
+export { SectorWalk } from './sectors/walk.js';
+export { partFromData, partToData } from './sectors/transfer.js';
+export type { SectorPartData } from './sectors/transfer.js';
 export { EngineCancelled, EngineError, describeError, withField } from './errors.js';
 export * from './limits.js';
 export {

@@ -121,6 +121,19 @@ export class SectorWalk {
       );
   }
 
+  /**
+   * The walk a sequence of computed shells makes (e.g. shells computed elsewhere, in worker
+   * threads): each shell is accepted in order, so the stopping decisions are the same.
+   */
+  static replay(spec: GasSpec, cap: Fraction | null, shells: SectorPart[][]): SectorWalk {
+    const walk = new SectorWalk(spec, cap);
+    for (const parts of shells) {
+      if (walk.next() === null) break;
+      walk.accept(parts);
+    }
+    return walk;
+  }
+
   /** Shells walked so far. */
   get shells(): number {
     return this.r;

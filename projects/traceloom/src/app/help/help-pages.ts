@@ -16,6 +16,7 @@ export const HELP_PAGES: readonly HelpPage[] = [
   { slug: 'methods', title: 'Methods and cautions' },
   { slug: 'numeric', title: 'Numeric mode' },
   { slug: 'large-n', title: 'Large N' },
+  { slug: 'sectors', title: 'Sector sums' },
   { slug: 'conventions', title: 'Conventions' },
   { slug: 'checks', title: 'Checks and reference tables' },
   { slug: 'datasets', title: 'Datasets' },

@@ -1,0 +1,91 @@
+import { MessageChannel } from 'node:worker_threads';
+import {
+  EngineError,
+  parseGasSpec,
+  partFromData,
+  SectorWalk,
+  type Progress,
+  type SectorPartData,
+} from '@traceloom/shared/engine';
+import Fraction from 'fraction.js';
+import type { Piscina } from 'piscina';
+import type { RunOutput, WorkerRefusal } from './worker.js';
+
+/** Sectors one pool task computes at most (several tasks per shell keep every thread busy). */
+const CHUNK = 16;
+
+/** True when a stored spec asks for a sector sum (the run is then spread over the pool). */
+export function isSectorSpec(spec: unknown): boolean {
+  return (
+    typeof spec === 'object' &&
+    spec !== null &&
+    'sectors' in spec &&
+    !!(spec as { sectors: unknown }).sectors
+  );
+}
+
+/** The shell's sectors cut into about `threads` tasks of at most CHUNK sectors. */
+function chunks(list: number[][], threads: number): number[][][] {
+  const size = Math.max(1, Math.min(CHUNK, Math.ceil(list.length / threads)));
+  const out: number[][][] = [];
+  for (let i = 0; i < list.length; i += size) out.push(list.slice(i, i + size));
+  return out;
+}
+
+/**
+ * A sector run on the worker pool: the walk stays on this thread (it only weighs and compares),
+ * each shell's sectors are computed by pool tasks in parallel, progress counts sectors, and the
+ * computed shells go to one last task that sums them into the result. Aborting `signal` stops the
+ * pool tasks (their workers are terminated) and rejects.
+ */
+export async function runSectorsOnPool(
+  pool: Piscina,
+  threads: number,
+  spec: unknown,
+  signal: AbortSignal,
+  onMessage: (m: Progress | { started: number }) => void,
+): Promise<RunOutput | WorkerRefusal> {
+  onMessage({ started: Date.now() });
+  const t0 = performance.now();
+  const shells: SectorPartData[][] = [];
+  try {
+    const gas = parseGasSpec(spec);
+    const cap = gas.order == null ? null : new Fraction(gas.order);
+    const walk = new SectorWalk(gas, cap);
+    let done = 0;
+    for (let list = walk.next(); list !== null; list = walk.next()) {
+      const answers = await Promise.all(
+        chunks(list, threads).map(async (sectors) => {
+          const r = (await pool.run({ kind: 'sectorParts', spec, sectors }, { signal })) as
+            { ok: true; parts: SectorPartData[] } | WorkerRefusal;
+          if (r.ok) onMessage({ phase: 'sectors', done: (done += r.parts.length), total: 0 });
+          return r;
+        }),
+      );
+      const refused = answers.find((a): a is WorkerRefusal => !a.ok);
+      if (refused) return refused;
+      const shell = answers.flatMap((a) => (a as { parts: SectorPartData[] }).parts);
+      shells.push(shell);
+      walk.accept(shell.map(partFromData));
+    }
+  } catch (e) {
+    if (e instanceof EngineError) return { ok: false, message: e.message, field: e.field };
+    throw e;
+  }
+  const channel = new MessageChannel();
+  channel.port1.on('message', (p: Progress) => onMessage(p));
+  try {
+    return (await pool.run(
+      {
+        kind: 'sectorAssemble',
+        spec,
+        shells,
+        sectorsMs: performance.now() - t0,
+        port: channel.port2,
+      },
+      { transferList: [channel.port2], signal },
+    )) as RunOutput | WorkerRefusal;
+  } finally {
+    channel.port1.close();
+  }
+}
