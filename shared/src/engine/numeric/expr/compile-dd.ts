@@ -41,6 +41,23 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
   }
   let slots = 0;
   const slot = (): number => 2 * slots++;
+  // which of the caller's values each compiled part reads (bit i: names[i])
+  const reads = new Map<Code, number>();
+  const readsOf = (c: Code): number => reads.get(c) ?? 0;
+  const scratch = new Float64Array(2 * names.length);
+  /** A part reading nothing is evaluated once; one reading a single value of several is memoised. */
+  const finish = (c: Code | null, mask: number): Code | null => {
+    if (!c) return null;
+    if (mask === 0) {
+      const probe = new Float64Array(2 * (slots + 1));
+      const k = c(scratch, probe);
+      if (Number.isNaN(probe[k]!)) return c;
+      return constant(probe[k]!, probe[k + 1]!, slot());
+    }
+    const out = names.length >= 2 && (mask & (mask - 1)) === 0 ? memo(c, Math.log2(mask), slot()) : c;
+    reads.set(out, mask);
+    return out;
+  };
   const compile = (n: MathNode): Code | null => {
     // each compiled node writes its value at r[k], r[k + 1] and returns k
     switch (n.type) {
@@ -58,11 +75,13 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
         const i = names.indexOf(name);
         if (i >= 0) {
           const k = slot();
-          return (v, r) => {
+          const c: Code = (v, r) => {
             r[k] = v[2 * i]!;
             r[k + 1] = v[2 * i + 1]!;
             return k;
           };
+          reads.set(c, 1 << i);
+          return c;
         }
         if (name === 'pi') ddFromReal(pi(220));
         else if (name === 'e') ddFromReal(expReal(ONE, 220));
@@ -74,22 +93,23 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
         const parts = op.args.map(compile);
         if (parts.some((p) => p === null)) return null;
         const [ca, cb] = parts as Code[];
+        const mask = (parts as Code[]).reduce((m, p) => m | readsOf(p), 0);
         const k = slot();
         switch (op.fn) {
           case 'add':
           case 'subtract':
           case 'multiply':
           case 'divide':
-            return binary(op.fn, ca!, cb!, k);
+            return finish(binary(op.fn, ca!, cb!, k), mask);
           case 'pow':
-            return power(ca!, cb!, k);
+            return finish(power(ca!, cb!, k), mask);
           case 'unaryMinus':
-            return (v, r) => {
+            return finish((v, r) => {
               const i = ca!(v, r);
               r[k] = -r[i]!;
               r[k + 1] = -r[i + 1]!;
               return k;
-            };
+            }, mask);
           case 'unaryPlus':
             return ca!;
           default:
@@ -102,7 +122,7 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
         if (!UNARY.has(name) || fn.args.length !== 1) return null;
         const a = compile(fn.args[0]!);
         if (!a) return null;
-        return unary(name, a, slot());
+        return finish(unary(name, a, slot()), readsOf(a));
       }
       default:
         return null;
@@ -117,6 +137,30 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
       out[0] = regs[k]!;
       out[1] = regs[k + 1]!;
     },
+  };
+}
+
+/** Most values one memoised part keeps (a Nystrom grid has far fewer distinct points). */
+const MEMO_LIMIT = 8192;
+
+/** c's value kept per value of the one caller's value it reads (slot `i`), copied to slot k. */
+function memo(c: Code, i: number, k: number): Code {
+  const cache = new Map<number, Float64Array>();
+  return (v, r) => {
+    const xh = v[2 * i]!;
+    const xl = v[2 * i + 1]!;
+    const hit = cache.get(xh);
+    if (hit !== undefined && hit[0] === xl) {
+      r[k] = hit[1]!;
+      r[k + 1] = hit[2]!;
+      return k;
+    }
+    const j = c(v, r);
+    if (cache.size >= MEMO_LIMIT) cache.clear();
+    cache.set(xh, Float64Array.of(xl, r[j]!, r[j + 1]!));
+    r[k] = r[j]!;
+    r[k + 1] = r[j + 1]!;
+    return k;
   };
 }
 

@@ -4,7 +4,7 @@ import { add, bitsFor, fromNumber, ldexp, Real, sub, toNumber } from '../real.js
 import { type Arithmetic, levelResult, type LevelResult, nystromBlocks } from './level.js';
 import type { FastCompiled } from '../expr/compile-dd.js';
 import { pace } from './matrix.js';
-import { fastAgrees, fastKernel, nystromBlocksDD } from './nystrom-dd.js';
+import { type FastAt, fastAgrees, fastKernel, nystromBlocksDD } from './nystrom-dd.js';
 import {
   circleFamily,
   halfLineFamily,
@@ -138,7 +138,7 @@ export function kernelTraces(
   let F = bitsFor(D, 32) + 2 * Math.ceil(Math.log2(4 * m + 8));
   let cache = new Map<string, Real>();
   let arithmetic: Arithmetic = 'fixed';
-  let fastAt: ((x: Real, y: Real) => void) | null = null;
+  let fastAt: FastAt | null = null;
   let entryBits = 0;
   const run = (mm: number): LevelResult => {
     const rule = family.at(mm);

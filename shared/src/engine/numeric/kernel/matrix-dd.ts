@@ -37,6 +37,11 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
   const ul = new Float64Array(n);
   const wh = new Float64Array(n);
   const wl = new Float64Array(n);
+  // Dekker splits of u and w (hi parts), shared by the inner loops
+  const u1 = new Float64Array(n);
+  const u2 = new Float64Array(n);
+  const w1 = new Float64Array(n);
+  const w2 = new Float64Array(n);
   for (let k = 0; k < n - 2; k++) {
     let sh = 0;
     let sl = 0;
@@ -73,24 +78,11 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
       ul[i] = R[1];
     }
     // w = 2 A u, then w - (u.w) u
+    splitInto(uh, k + 1, n, u1, u2);
     for (let i = k + 1; i < n; i++) {
-      let s1 = 0;
-      let s2 = 0;
-      const ri = i * n;
-      for (let j = k + 1; j <= i; j++) {
-        ddMul(ah[ri + j]!, al[ri + j]!, uh[j]!, ul[j]!);
-        ddAdd(s1, s2, R[0], R[1]);
-        s1 = R[0];
-        s2 = R[1];
-      }
-      for (let j = i + 1; j < n; j++) {
-        ddMul(ah[j * n + i]!, al[j * n + i]!, uh[j]!, ul[j]!);
-        ddAdd(s1, s2, R[0], R[1]);
-        s1 = R[0];
-        s2 = R[1];
-      }
-      wh[i] = 2 * s1;
-      wl[i] = 2 * s2;
+      rowDot(ah, al, uh, ul, u1, u2, i, n, k + 1);
+      wh[i] = 2 * R[0];
+      wl[i] = 2 * R[1];
     }
     let ph = 0;
     let pl = 0;
@@ -106,23 +98,8 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
       wh[i] = R[0];
       wl[i] = R[1];
     }
-    for (let i = k + 1; i < n; i++) {
-      const ri = i * n;
-      const uih = uh[i]!;
-      const uil = ul[i]!;
-      const wih = wh[i]!;
-      const wil = wl[i]!;
-      for (let j = k + 1; j <= i; j++) {
-        ddMul(uih, uil, wh[j]!, wl[j]!);
-        const th = R[0];
-        const tl = R[1];
-        ddMul(wih, wil, uh[j]!, ul[j]!);
-        ddAdd(th, tl, R[0], R[1]);
-        ddAdd(ah[ri + j]!, al[ri + j]!, -R[0], -R[1]);
-        ah[ri + j] = R[0];
-        al[ri + j] = R[1];
-      }
-    }
+    splitInto(wh, k + 1, n, w1, w2);
+    for (let i = k + 1; i < n; i++) rankTwoRow(ah, al, uh, ul, u1, u2, wh, wl, w1, w2, i, n, k + 1);
     pace(p);
   }
   if (n >= 2) {
@@ -136,6 +113,109 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
     d.lo[n - 1] = al[(n - 1) * n + n - 1]!;
   }
   return { d, e };
+}
+
+const SPLIT = 134217729; // 2^27 + 1
+
+/** Dekker splits x = x1 + x2 (26 + 27 bits) of x[from..to). */
+function splitInto(x: Float64Array, from: number, to: number, x1: Float64Array, x2: Float64Array): void {
+  for (let j = from; j < to; j++) {
+    const v = x[j]!;
+    const t = SPLIT * v;
+    const a = t - (t - v);
+    x1[j] = a;
+    x2[j] = v - a;
+  }
+}
+
+/**
+ * sum_j A_ij u_j over j >= from (A symmetric, lower triangle) into R: the double-double products
+ * and sums written out (the hot loop of the reduction), u's splits precomputed.
+ */
+function rowDot(
+  ah: Float64Array,
+  al: Float64Array,
+  uh: Float64Array,
+  ul: Float64Array,
+  u1: Float64Array,
+  u2: Float64Array,
+  i: number,
+  n: number,
+  from: number,
+): void {
+  let sh = 0;
+  let sl = 0;
+  for (let j = from; j < n; j++) {
+    const idx = j <= i ? i * n + j : j * n + i;
+    const xh = ah[idx]!;
+    const xl = al[idx]!;
+    const yh = uh[j]!;
+    const t = SPLIT * xh;
+    const x1 = t - (t - xh);
+    const x2 = xh - x1;
+    const y1 = u1[j]!;
+    const y2 = u2[j]!;
+    const ph = xh * yh;
+    const pl = x1 * y1 - ph + x1 * y2 + x2 * y1 + x2 * y2 + (xh * ul[j]! + xl * yh);
+    // (sh, sl) += (ph, pl)
+    const s = sh + ph;
+    const v = s - sh;
+    const e = sh - (s - v) + (ph - v) + sl + pl;
+    sh = s + e;
+    sl = e - (sh - s);
+  }
+  R[0] = sh;
+  R[1] = sl;
+}
+
+/** Row i of A -= u w^T + w u^T over from <= j <= i, written out like rowDot. */
+function rankTwoRow(
+  ah: Float64Array,
+  al: Float64Array,
+  uh: Float64Array,
+  ul: Float64Array,
+  u1: Float64Array,
+  u2: Float64Array,
+  wh: Float64Array,
+  wl: Float64Array,
+  w1: Float64Array,
+  w2: Float64Array,
+  i: number,
+  n: number,
+  from: number,
+): void {
+  const ri = i * n;
+  const uih = uh[i]!;
+  const uil = ul[i]!;
+  const ui1 = u1[i]!;
+  const ui2 = u2[i]!;
+  const wih = wh[i]!;
+  const wil = wl[i]!;
+  const wi1 = w1[i]!;
+  const wi2 = w2[i]!;
+  for (let j = from; j <= i; j++) {
+    const wjh = wh[j]!;
+    const ujh = uh[j]!;
+    const p1 = uih * wjh;
+    const e1 =
+      ui1 * w1[j]! - p1 + ui1 * w2[j]! + ui2 * w1[j]! + ui2 * w2[j]! + (uih * wl[j]! + uil * wjh);
+    const p2 = wih * ujh;
+    const e2 =
+      wi1 * u1[j]! - p2 + wi1 * u2[j]! + wi2 * u1[j]! + wi2 * u2[j]! + (wih * ul[j]! + wil * ujh);
+    // t = p1 + p2 + e1 + e2, then a - t
+    const s = p1 + p2;
+    const v = s - p1;
+    const te = p1 - (s - v) + (p2 - v) + e1 + e2;
+    const th = s + te;
+    const tl = te - (th - s);
+    const xh = ah[ri + j]!;
+    const z = xh - th;
+    const b = z - xh;
+    const ze = xh - (z - b) + (-th - b) + al[ri + j]! - tl;
+    const hi = z + ze;
+    ah[ri + j] = hi;
+    al[ri + j] = ze - (hi - z);
+  }
 }
 
 /** Tr T^L, L = 1..nMax, of the tridiagonal T = (d, e) by banded powers (see matrix.ts). */

@@ -13,26 +13,34 @@ export interface DDMatrix extends DD {
 }
 
 /**
- * rho in double-double at points given as Reals; a value the fast evaluator cannot give (NaN:
- * a pole or domain error) is asked of the Real evaluator, which names the fault.
+ * rho in double-double at a point given in double-double (x = xh + xl, y = yh + yl) into R; a
+ * value the fast evaluator cannot give (NaN: a pole or domain error) is asked of the Real
+ * evaluator, which names the fault.
  */
-export function fastKernel(fast: FastCompiled, rho: KernelAt): (x: Real, y: Real) => void {
+export type FastAt = (xh: number, xl: number, yh: number, yl: number) => void;
+
+export function fastKernel(fast: FastCompiled, rho: KernelAt): FastAt {
   const v = new Float64Array(4);
   const out = new Float64Array(2);
-  return (x, y) => {
-    ddFromReal(x);
-    v[0] = R[0];
-    v[1] = R[1];
-    ddFromReal(y);
-    v[2] = R[0];
-    v[3] = R[1];
+  return (xh, xl, yh, yl) => {
+    v[0] = xh;
+    v[1] = xl;
+    v[2] = yh;
+    v[3] = yl;
     fast.evaluate(v, out);
     if (Number.isNaN(out[0]) || !Number.isFinite(out[0]!)) {
-      ddFromReal(rho(x, y));
+      ddFromReal(rho(ddToReal(xh, xl), ddToReal(yh, yl)));
       return;
     }
-    ddAdd(out[0]!, out[1]!, 0, 0);
+    R[0] = out[0]!;
+    R[1] = out[1]!;
   };
+}
+
+/** A Real as a double-double pair. */
+function pair(x: Real): [number, number] {
+  ddFromReal(x);
+  return [R[0]!, R[1]!];
 }
 
 /**
@@ -51,7 +59,9 @@ export function fastAgrees(
   for (const x of pts)
     for (const y of pts) {
       const ref = rho(x, y);
-      at(x, y);
+      const [xh, xl] = pair(x);
+      const [yh, yl] = pair(y);
+      at(xh, xl, yh, yl);
       const d = abs(sub(ddToReal(R[0], R[1]), ref, 240));
       scale = Math.max(scale, magnitude(ref));
       diffs.push(d.m === 0n ? -Infinity : magnitude(d));
@@ -65,7 +75,7 @@ export function fastAgrees(
  */
 export function nystromBlocksDD(
   rule: Rule,
-  at: (x: Real, y: Real) => void,
+  at: FastAt,
   parity: boolean,
   prec: number,
   entryBits: number,
@@ -74,11 +84,13 @@ export function nystromBlocksDD(
   const n = rule.nodes.length;
   const swh = new Float64Array(n);
   const swl = new Float64Array(n);
+  const xh = new Float64Array(n);
+  const xl = new Float64Array(n);
   rule.weights.forEach((w, i) => {
-    ddFromReal(sqrt(w, prec));
-    swh[i] = R[0];
-    swl[i] = R[1];
+    [swh[i], swl[i]] = pair(sqrt(w, prec));
+    [xh[i], xl[i]] = pair(rule.nodes[i]!);
   });
+  const node = (i: number, j: number): void => at(xh[i]!, xl[i]!, xh[j]!, xl[j]!);
   // entry = sw_i sw_j f rho into R
   const entry = (i: number, j: number, vh: number, vl: number, f: number): void => {
     ddMul(swh[i]!, swl[i]!, swh[j]!, swl[j]!);
@@ -89,7 +101,7 @@ export function nystromBlocksDD(
     const M = block(n);
     for (let i = 0; i < n; i++) {
       for (let j = i; j < n; j++) {
-        at(rule.nodes[i]!, rule.nodes[j]!);
+        node(i, j);
         entry(i, j, R[0], R[1], 1);
         set(M, i, j);
       }
@@ -108,7 +120,7 @@ export function nystromBlocksDD(
     const i = reps[a]!;
     for (let b = a; b < reps.length; b++) {
       const j = reps[b]!;
-      at(rule.nodes[i]!, rule.nodes[j]!);
+      node(i, j);
       const sh = R[0];
       const sl = R[1];
       const fi = mirror[i] === i;
@@ -118,7 +130,7 @@ export function nystromBlocksDD(
         set(even, a, b);
         continue;
       }
-      at(rule.nodes[i]!, rule.nodes[mirror[j]!]!);
+      node(i, mirror[j]!);
       const th = R[0];
       const tl = R[1];
       ddAdd(sh, sl, th, tl);
