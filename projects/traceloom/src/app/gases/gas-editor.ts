@@ -26,6 +26,7 @@ import { GasRuns } from '../runs/gas-runs';
 import { errorText } from './field-error';
 import { applyFieldErrors, controlPathFor, fillGasForm, gasForm, specFromForm } from './gas-form';
 import { GasNumericFields } from './gas-numeric-fields';
+import { GasSectorsFields } from './gas-sectors-fields';
 import { GasPreview } from './gas-preview';
 import { specProblems } from './gas-validation';
 import { GasVersions } from './gas-versions';
@@ -48,6 +49,7 @@ import { GasWeights } from './gas-weights';
     MatSelectModule,
     RouterLink,
     GasNumericFields,
+    GasSectorsFields,
     GasPreview,
     GasRuns,
     GasVersions,

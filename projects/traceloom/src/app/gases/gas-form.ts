@@ -1,6 +1,12 @@
 import { AbstractControl, FormArray, FormControl, FormGroup, Validators } from '@angular/forms';
 import type { GasSpecInput } from '@traceloom/shared/engine';
 import { numericFormPart, numericSpecPart, kernelWeights } from './gas-numeric';
+import {
+  fillSectorsForm,
+  sectorsControlPath,
+  sectorsFormGroup,
+  sectorsSpecPart,
+} from './gas-sectors';
 
 /** The weight sources a gas may use (a kernel only in numeric mode). */
 export type WeightsKind = 'values' | 'formula' | 'spectrum' | 'kernel';
@@ -43,6 +49,7 @@ export function gasForm() {
     grandKind: new FormControl<GrandKind>('none', { nonNullable: true }),
     grandValues: text(''),
     grandExpression: text(''),
+    sectors: sectorsFormGroup(),
   });
 }
 
@@ -86,6 +93,7 @@ export function specFromForm(v: GasFormValue): GasSpecInput {
     nMax: v.nMax as number,
     classTable: v.classTable ?? 0,
     weights,
+    ...sectorsSpecPart(v.sectors),
   };
   if (v.grandKind === 'coefficients') {
     spec.grand = { kind: 'coefficients', values: splitLines(v.grandValues) };
@@ -125,6 +133,7 @@ export function fillGasForm(form: GasForm, spec: GasSpecInput): void {
     grandValues: grand?.kind === 'coefficients' ? grand.values.join('\n') : '',
     grandExpression: grand?.kind === 'expression' ? grand.expression : '',
   });
+  fillSectorsForm(form.controls.sectors, spec);
 }
 
 /**
@@ -148,6 +157,7 @@ export function controlPathFor(field: string, kind: WeightsKind): string | null 
     return kind === 'values' ? 'values.0' : kind === 'formula' ? 'formula' : 'spectrum.expression';
   }
   if (head === 'grand') return second === 'expression' ? 'grandExpression' : 'grandValues';
+  if (head === 'sectors') return sectorsControlPath(path.split('.').slice(1));
   const direct = ['title', 'statistics', 'variable', 'step', 'order', 'nMax', 'classTable'];
   return head && direct.includes(head) ? head : null;
 }

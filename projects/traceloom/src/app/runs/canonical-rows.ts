@@ -57,6 +57,8 @@ export interface CanonicalLine {
   routes: string[];
   agrees: boolean;
   text: string;
+  /** Sector mode: how many sectors made this row (null outside sector mode). */
+  sectors: number | null;
 }
 
 /** Human names of the routes to Z(N). */
@@ -106,7 +108,22 @@ export function canonicalLines(
     routes: [...(row.routes ?? ['recursion'])],
     agrees: row.agrees ?? true,
     text: valueText(row.value, variable),
+    sectors: row.sectors ?? null,
   }));
+}
+
+/** True when the lines come from a sector sum (each says how many sectors made it). */
+export function hasSectorCounts(lines: readonly CanonicalLine[]): boolean {
+  return lines.some((l) => l.sectors !== null);
+}
+
+/** The table with a last column `sectors` (the count per row) when the run summed sectors. */
+function withSectorCounts(table: ExportTable, lines: readonly CanonicalLine[]): ExportTable {
+  if (!hasSectorCounts(lines)) return table;
+  return {
+    columns: [...table.columns, 'sectors'],
+    rows: table.rows.map((r, i) => [...r, String(lines[i]!.sectors ?? '')]),
+  };
 }
 
 /** The routes' agreement in words (the icon beside it is decoration). */
@@ -119,7 +136,11 @@ export function agreementText(line: CanonicalLine): string {
 
 /** The canonical table for the CSV/JSON exports (plain values). */
 export function canonicalExport(lines: readonly CanonicalLine[]): ExportTable {
-  if (lines.some((l) => l.numeric)) return numericExport(lines);
+  if (lines.some((l) => l.numeric)) return withSectorCounts(numericExport(lines), lines);
+  return withSectorCounts(plainExport(lines), lines);
+}
+
+function plainExport(lines: readonly CanonicalLine[]): ExportTable {
   return {
     columns: ['N', 'Z(N)', 'valuation', 'terms', 'known to', 'routes agree'],
     rows: lines.map((l) => [

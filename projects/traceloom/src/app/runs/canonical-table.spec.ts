@@ -62,6 +62,19 @@ describe('CanonicalTable', () => {
     expect(cells[6]).toContain('agree: Newton recursion, class sum');
   });
 
+  it('says how many sectors made each row of a sector sum', async () => {
+    await render([0, 1, 2].map((N) => ({ ...trapRow(N), sectors: N === 0 ? 0 : 10 + N })));
+    expect(el.querySelector('[data-testid="canonical-sectors-0"]')?.textContent).toContain(
+      'by convention',
+    );
+    expect(el.querySelector('[data-testid="canonical-sectors-2"]')?.textContent?.trim()).toBe('12');
+  });
+
+  it('has no sectors column outside sector mode', async () => {
+    await render([trapRow(0), trapRow(1)]);
+    expect(el.querySelector('[data-testid="canonical-sectors-1"]')).toBeNull();
+  });
+
   it('says in words when the routes disagree (not by colour alone)', async () => {
     await render([trapRow(0), trapRow(1), trapRow(2, false)]);
     const cell = el.querySelector('[data-testid="canonical-agree-2"]');

@@ -16,6 +16,7 @@ import {
   canonicalLatex,
   canonicalLines,
   canonicalMathColumns,
+  hasSectorCounts,
   isNumericTable,
 } from './canonical-rows';
 import { NumericRowDetail } from './numeric-row-detail';
@@ -77,11 +78,12 @@ export class CanonicalTable {
   protected readonly latexTable = computed(() => canonicalLatex(this.lines(), this.variable()));
   protected readonly numeric = computed(() => isNumericTable(this.rows()));
   protected readonly mathColumns = computed(() => canonicalMathColumns(this.lines()));
-  protected readonly columns = computed(() =>
-    this.numeric()
-      ? ['expand', 'N', 'digits', 'error', 'closed', 'agreement']
-      : ['expand', 'N', 'lead', 'valuation', 'terms', 'known', 'agreement'],
-  );
+  protected readonly columns = computed(() => {
+    const sectors = hasSectorCounts(this.lines()) ? ['sectors'] : [];
+    return this.numeric()
+      ? ['expand', 'N', 'digits', 'error', 'closed', ...sectors, 'agreement']
+      : ['expand', 'N', 'lead', 'valuation', 'terms', 'known', ...sectors, 'agreement'];
+  });
   protected readonly rowPx = ROW_PX;
   protected readonly agreementText = agreementText;
   protected readonly valueTex = valueTex;

@@ -20,6 +20,7 @@ import { CreateDataset } from '../datasets/create-dataset';
 import { canWriteGases } from '../gases/gas-roles';
 import { CanonicalTable } from './canonical-table';
 import { ClassTable } from './class-table';
+import { SectorTable } from '../sectors/sector-table';
 import { RunPlots } from '../plots/run-plots';
 import { LargeNPanel } from '../largen/large-n-panel';
 import { NumericCaution } from './numeric-caution';
@@ -39,6 +40,7 @@ import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
     RouterLink,
     CanonicalTable,
     ClassTable,
+    SectorTable,
     RunChecks,
     RunPlots,
     LargeNPanel,
