@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { keysFromEnv, type TokenKeys } from './auth/token-keys.js';
+import type { BackupSchedule } from './db/backup-schedule.js';
 
 /** How the server seeds data at start. */
 export type ServerMode = 'demo' | 'production' | 'test';
@@ -34,6 +35,8 @@ export interface ServerConfig {
   runs: RunLimits;
   /** Largest reference-table upload accepted, in bytes. */
   uploadLimitBytes: number;
+  /** Scheduled backups (`TRACELOOM_BACKUP_DIR`), or null when off. */
+  backups: BackupSchedule | null;
 }
 
 /** How background runs are executed and bounded. */
@@ -72,6 +75,7 @@ export const DEFAULT_CONFIG: ServerConfig = {
     previewMs: 1500,
   },
   uploadLimitBytes: 10 * 1024 * 1024,
+  backups: null,
 };
 
 /** A positive integer from the environment, or `fallback` when unset. */
@@ -90,7 +94,8 @@ function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): nu
  * limits `TRACELOOM_RUN_WALL_MS`, `TRACELOOM_RUN_THREADS`, `TRACELOOM_RUNS_PER_USER`,
  * `TRACELOOM_UPLOAD_LIMIT`, and the signing keys `TRACELOOM_TOKEN_SECRET`,
  * `TRACELOOM_TOKEN_SECRETS_PREVIOUS`, `TRACELOOM_KEY_FILE` (default: `traceloom.key` beside the
- * database); throws a one-line message naming the variable when a value is
+ * database), scheduled backups `TRACELOOM_BACKUP_DIR`, `TRACELOOM_BACKUP_EVERY_HOURS` (24),
+ * `TRACELOOM_BACKUP_KEEP` (7); throws a one-line message naming the variable when a value is
  * unusable.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
@@ -119,5 +124,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
       perUserCap: positiveInt(env, 'TRACELOOM_RUNS_PER_USER', DEFAULT_CONFIG.runs.perUserCap),
     },
     uploadLimitBytes: positiveInt(env, 'TRACELOOM_UPLOAD_LIMIT', DEFAULT_CONFIG.uploadLimitBytes),
+    backups: env.TRACELOOM_BACKUP_DIR
+      ? {
+          dir: env.TRACELOOM_BACKUP_DIR,
+          everyHours: positiveInt(env, 'TRACELOOM_BACKUP_EVERY_HOURS', 24),
+          keep: positiveInt(env, 'TRACELOOM_BACKUP_KEEP', 7),
+        }
+      : null,
   };
 }

@@ -1,6 +1,7 @@
 import type { AddressInfo } from 'node:net';
 import { createApp } from './app.js';
 import { loadConfig } from './config.js';
+import { startBackupSchedule } from './db/backup-schedule.js';
 import { openDatabase } from './db/open-database.js';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from './db/seed-demo.js';
 
@@ -17,6 +18,11 @@ async function main(): Promise<void> {
   });
   const { port } = server.address() as AddressInfo;
   console.log(`Traceloom is serving on http://localhost:${port}`);
+  if (config.backups) {
+    startBackupSchedule(config.databasePath, config.backups);
+    const { dir, everyHours, keep } = config.backups;
+    console.log(`Backups every ${everyHours} h into ${dir}, the newest ${keep} kept.`);
+  }
   if (config.mode === 'demo') {
     const emails = DEMO_ACCOUNTS.map((account) => account.email).join(', ');
     console.log(`Demo sign-in: ${emails} — password ${DEMO_PASSWORD}`);

@@ -7,8 +7,9 @@ import { MIGRATIONS } from './migrations/index.js';
 
 /**
  * A TypeORM data source over better-sqlite3: schema only through committed migrations
- * (`synchronize: false`), WAL journal, foreign keys on (the driver enables them), a 5 s busy
- * timeout. Creates the database file's directory when missing. Not yet initialized.
+ * (`synchronize: false`), WAL journal with `synchronous = FULL` (every commit, locks and reviews
+ * included, is on disk before it is acknowledged; NORMAL can lose the last commits on power loss),
+ * foreign keys on (the driver enables them), a 5 s busy timeout. Creates the database file's directory when missing. Not yet initialized.
  */
 export function createDataSource(databasePath: string): DataSource {
   if (databasePath !== ':memory:')
@@ -22,6 +23,9 @@ export function createDataSource(databasePath: string): DataSource {
     migrationsTransactionMode: 'each',
     synchronize: false,
     enableWAL: true,
+    prepareDatabase: (db: { pragma(source: string): unknown }) => {
+      db.pragma('synchronous = FULL');
+    },
     timeout: 5000,
     logging: false,
   });
