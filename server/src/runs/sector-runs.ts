@@ -58,7 +58,8 @@ export async function runSectorsOnPool(
         chunks(list, threads).map(async (sectors) => {
           const r = (await pool.run({ kind: 'sectorParts', spec, sectors }, { signal })) as
             { ok: true; parts: SectorPartData[] } | WorkerRefusal;
-          if (r.ok) onMessage({ phase: 'sectors', done: (done += r.parts.length), total: 0 });
+          if (r.ok)
+            onMessage({ phase: 'sectors', done: (done += r.parts.length), total: walk.total });
           return r;
         }),
       );

@@ -57,12 +57,12 @@ export function computeSectors(
   const t0 = now();
   const ctx = { ...sectorContext(spec, opts), tick: progress.tick };
   const walk = new SectorWalk(spec, ctx.cap);
-  progress.phase('sectors', 0);
+  progress.phase('sectors', walk.total);
   for (let list = walk.next(); list !== null; list = walk.next()) {
     const parts: SectorPart[] = [];
     for (const n of list) {
       parts.push(sectorPart(ctx, n));
-      progress.step(walk.sectors.length + parts.length, 0);
+      progress.step(walk.sectors.length + parts.length, walk.total);
     }
     walk.accept(parts);
   }

@@ -134,6 +134,11 @@ export class SectorWalk {
     return walk;
   }
 
+  /** Sectors the walk will visit when the box is bounded; 0 (not known in advance) otherwise. */
+  get total(): number {
+    return this.bounded ? boxSize(this.box) : 0;
+  }
+
   /** Shells walked so far. */
   get shells(): number {
     return this.r;
