@@ -69,12 +69,3 @@ export async function signInPage(page: Page, email: string, password: string): P
   await page.getByTestId('sign-in-submit').click();
   await page.getByTestId('current-user').waitFor();
 }
-
-/** Signs `email` in through the sign-in page and waits for the top bar to name the user. */
-export async function signInPage(page: Page, email: string, password: string): Promise<void> {
-  await page.goto('/sign-in');
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(password);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('current-user').waitFor();
-}
