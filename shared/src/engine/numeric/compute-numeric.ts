@@ -20,9 +20,9 @@ const GUARD_DIGITS = 12;
 /** What a numeric computation reports about its method, in the result's `numeric` block. */
 export const ERROR_ESTIMATE_TEXT =
   'Each error is an estimate, not a bound: weights from expressions are evaluated at two working ' +
-  'precisions and differ by at most the error; a kernel is discretised at two resolutions that ' +
-  'must agree; the routes propagate these errors and add the rounding of every operation, so a ' +
-  'row that cancels shows the digits it lost.';
+  'precisions and differ by at most the error; a kernel is discretised at three resolutions and ' +
+  'the error of the finest is estimated from their differences; the routes propagate these ' +
+  'errors and add the rounding of every operation, so a row that cancels shows the digits it lost.';
 
 interface Progressing extends Pace {
   phase(

@@ -195,13 +195,12 @@ export function kernelTraces(
       const l3 = ls[2];
       const rule = family.at(trip[2]);
       const blocksText = parity ? `; even and odd blocks of ${l3.blocks.join(' and ')}` : '';
-      const sizes = ls.map((l) => l.points).join(', ');
       const result: KernelOutcome = {
         traces: out.traces,
         fredholm: out.fredholm,
         points: ls.map((l) => l.points),
         parity,
-        rule: `${rule.text}${blocksText}; errors from the resolutions of ${sizes} points`,
+        rule: `${rule.text}${blocksText}`,
         workingBits: arithmetic === 'dd' ? 104 : F,
       };
       if (!done) {
