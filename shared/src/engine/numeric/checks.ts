@@ -3,7 +3,8 @@ import type { Truncation } from '../expr/evaluate.js';
 import type { GasSpec } from '../spec/schema.js';
 import { formatError } from './decimal.js';
 import { agreeWithin, Estimate, NumericValueJson, size, toNumericJson, ulp } from './estimate.js';
-import { fromInt, mul, neg, Real, sub } from './real.js';
+import { fromInt, fromNumber, mul, neg, Real, sub, toNumber } from './real.js';
+import { taylorByInterpolation } from './taylor.js';
 import { twoPrecision } from './weights.js';
 
 /** A numeric verdict: computed and supplied values, their difference and the tolerance used. */
@@ -64,8 +65,9 @@ function variableBinding(spec: GasSpec, q: Real | undefined): [string[], Real[]]
 }
 
 /**
- * Grand check in numeric mode: the supplied coefficients Z(0), Z(1), ... against the table, and
- * the cycle weights they imply (Newton's identities run backwards) against the entered ones.
+ * Grand check in numeric mode: the supplied coefficients Z(0), Z(1), ... (or those of an
+ * expression in kappa) against the table, and the cycle weights they imply (Newton's identities
+ * run backwards) against the entered ones.
  */
 export function grandCheckNumeric(
   spec: GasSpec,
@@ -76,16 +78,13 @@ export function grandCheckNumeric(
   truncations: Truncation[],
 ): { rows: NumericRowVerdict[]; impliedWeights: NumericWeightVerdict[] } {
   const g = spec.grand!;
-  if (g.kind !== 'coefficients') {
-    throw new EngineError(
-      'numeric mode checks a grand function by its coefficients Z(0), Z(1), ... (kind "coefficients")',
-      'grand.kind',
-    );
-  }
   const [names, values] = variableBinding(spec, q);
-  const xi = g.values
-    .slice(0, spec.nMax + 1)
-    .map((text, j) => supplied(text, names, values, prec, `grand.values.${j}`, truncations));
+  const xi =
+    g.kind === 'coefficients'
+      ? g.values
+          .slice(0, spec.nMax + 1)
+          .map((text, j) => supplied(text, names, values, prec, `grand.values.${j}`, truncations))
+      : grandExpressionCoefficients(spec, g.expression, canonical, names, values, prec, truncations);
   const digits = spec.precision!;
   const rows = xi.map((s, N) => ({ N, ...verdict(canonical[N]!, s, digits) }));
   const implied = impliedWeightsNumeric(xi, spec.statistics === 'fermion', prec);
@@ -94,6 +93,36 @@ export function grandCheckNumeric(
     ...verdict(weights[i]!, w, digits),
   }));
   return { rows, impliedWeights };
+}
+
+/**
+ * Z(0..nMax) of a grand function given as an expression in kappa: its Taylor coefficients by
+ * interpolation on [-r, r] (taylor.ts). r keeps every computed |Z(N)| r^N at most 1, and for
+ * bosons half the radius 1 / sqrt(Z_2) below which 1/det(1 - kappa rho) has no pole.
+ */
+function grandExpressionCoefficients(
+  spec: GasSpec,
+  text: string,
+  canonical: readonly Estimate[],
+  names: string[],
+  values: Real[],
+  prec: number,
+  truncations: Truncation[],
+): Estimate[] {
+  const n = spec.nMax;
+  let radius = Infinity;
+  for (let N = 1; N <= n; N++) {
+    const z = Math.abs(toNumber(canonical[N]!.value));
+    if (z > 0) radius = Math.min(radius, z ** (-1 / N));
+  }
+  if (spec.statistics === 'boson' && n >= 2) {
+    const z2 = Math.abs(toNumber(canonical[2]!.value) * 2 - toNumber(canonical[1]!.value) ** 2);
+    if (z2 > 0) radius = Math.min(radius, 0.5 / Math.sqrt(z2));
+  }
+  if (!Number.isFinite(radius)) radius = 1;
+  const W = prec + n + 40 + 32;
+  const f = twoPrecision(text, ['kappa', ...names], W, 'grand.expression', truncations);
+  return taylorByInterpolation((k) => f([k, ...values]), n, fromNumber(radius), W);
 }
 
 /** Z_L from Z(0..n): s^(L-1) Z_L = L Z(L) - sum_(l<L) s^(l-1) Z_l Z(L-l) (Z(0) must be 1). */
