@@ -31,7 +31,7 @@ const tokenOf = async (email: string): Promise<string> =>
 
 const signIn = (page: Page, email: string) => signInPage(page, email, PASSWORD);
 
-describe('admin screens', () => {
+describe('admin and reviewer screens', () => {
   it('shows an invited person as Invited, changes a role, and the toast stays on its page', async () => {
     const admin = await tokenOf('admin@demo.test');
     const email = `invitee-${Date.now()}@example.test`;
@@ -75,6 +75,39 @@ describe('admin screens', () => {
     await page.getByTestId('study-heading').waitFor();
     const members = await page.getByTestId('member-row').count();
     expect(Number(cells[2])).toBe(members + 1);
+    await context.close();
+  });
+
+  it('a reviewer sees both series of a differing row side by side, each difference marked', async () => {
+    const { page, context } = await browser.newPage();
+    await signIn(page, 'reviewer@demo.test');
+    await page.getByTestId('nav-studies').click();
+    await page.getByTestId('study-link').filter({ hasText: 'Fermions on a ring' }).click();
+    await page
+      .getByTestId('gas-link')
+      .filter({ hasText: /^harmonic trap$/ })
+      .click();
+    await page.getByTestId('run-link').first().click();
+    await page.getByRole('tab', { name: 'Checks' }).click();
+    const side = page.getByRole('table', { name: /^N = 4, normalization/ });
+    await side.waitFor();
+    // The seeded preprint row N = 4 misprints q^5: partitions of 5 into at most 4 parts are 6
+    // (OEIS A008284), the table says 7; every other coefficient agrees.
+    const differing = side.locator('tr.is-differs');
+    expect(await differing.count()).toBe(1);
+    const cells = await differing.locator('td').allInnerTexts();
+    expect(cells.slice(0, 3)).toEqual(['q^5', '6', '7']);
+    expect(cells[3]).toContain('differs');
+    // Only the terms both sides determine are listed (1 .. q^5); the rest is one sentence.
+    expect(await side.getByTestId('side-by-side-line').count()).toBe(6);
+    await expect(
+      page
+        .getByText(/more terms lie beyond what both sides determine/)
+        .first()
+        .innerText(),
+    ).resolves.toContain('supplied to O(q^6)');
+    await side.scrollIntoViewIfNeeded();
+    await browser.screenshot(page, 'review-reviewer-side-by-side');
     await context.close();
   });
 

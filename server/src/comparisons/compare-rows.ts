@@ -7,6 +7,7 @@ import {
   evaluateSeries,
   mul,
   Series,
+  toValueJson,
   type GasSpec,
   type ValueJson,
   type Verdict,
@@ -16,6 +17,11 @@ import type { NumericVerdict } from '../compute/numeric-values.js';
 /** A series row verdict as the API gives it. */
 export interface SeriesRowVerdictDto extends Verdict {
   N: number;
+  /**
+   * A row that differs carries both sides whole, so every differing coefficient can be shown:
+   * normalization(N) * Z(N) as computed, and the table's value as supplied.
+   */
+  series?: { computed: ValueJson; supplied: ValueJson };
 }
 
 /** A numeric row verdict: computed and supplied values compared within the combined tolerance. */
@@ -74,7 +80,14 @@ export function compareReferenceRows(task: CompareTask): RowVerdictDto[] {
     const z = seriesFromJson(task.canonical[row.N]!);
     const factor = evaluateSeries(task.normalization, options('normalization', row.N));
     const found = evaluateSeries(row.value, options(`line ${row.line}`, row.N));
-    return { N: row.N, ...compareSeries(mul(factor, z, cap), found) };
+    const computed = mul(factor, z, cap);
+    const verdict = compareSeries(computed, found);
+    if (verdict.agrees) return { N: row.N, ...verdict };
+    return {
+      N: row.N,
+      ...verdict,
+      series: { computed: toValueJson(computed), supplied: toValueJson(found) },
+    };
   });
 }
 

@@ -177,8 +177,17 @@ describe('reference tables', () => {
     expect(res.body.rows).toEqual([
       { N: 1, agrees: true, agreesBelow: '4', firstMismatch: null },
       { N: 2, agrees: true, agreesBelow: '4', firstMismatch: null },
-      { N: 3, agrees: false, agreesBelow: '3', firstMismatch: { exponent: '3', expected: '3', found: '4' } },
+      expect.objectContaining({ N: 3, agrees: false, agreesBelow: '3', firstMismatch: { exponent: '3', expected: '3', found: '4' } }),
     ]);
+    // The differing row carries both sides whole; agreeing rows do not.
+    expect(res.body.rows[0].series).toBeUndefined();
+    const { computed, supplied } = res.body.rows[2].series;
+    expect(supplied).toEqual({ order: '4', terms: [['0', '1'], ['1', '1'], ['2', '2'], ['3', '4']] });
+    // 1/(q;q)_3 = sum a(n) q^n with a(n) = round((n + 3)^2 / 12): 1, 1, 2, 3, 4, 5, 7, ... (OEIS A001399)
+    computed.terms.forEach(([e, c]: [string, string]) =>
+      expect(c).toBe(String(Math.round((Number(e) + 3) ** 2 / 12))),
+    );
+    expect(computed.terms.length).toBeGreaterThanOrEqual(4);
     expect(res.body.summary).toEqual({ agreeing: 2, total: 3 });
     const grand = await request(t.app)
       .post(`/api/runs/${runId}/comparisons`)

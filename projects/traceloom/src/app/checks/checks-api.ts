@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
+import type { SeriesJson } from './series-diff';
 import type { PersonRef } from '../gases/gases-api';
 
 /** One parsed row of a reference table (with the file line it came from). */
@@ -58,6 +59,8 @@ export interface ComparisonRow {
   agrees: boolean;
   agreesBelow: string | null;
   firstMismatch: { exponent: string; expected: string; found: string } | null;
+  /** A differing series row: normalization × Z(N) as computed and the table's value, whole. */
+  series?: { computed: SeriesJson; supplied: SeriesJson };
 }
 
 /** A stored comparison of a run with a reference table or with its grand function. */

@@ -23,6 +23,7 @@ import { plainPower, valueTex } from '../runs/value-format';
 import { ChecksApi, ComparisonDto, ReferenceDto, ReferenceSummary } from './checks-api';
 import { comparisonExport } from './comparison-export';
 import { ReferenceUpload } from './reference-upload';
+import { SeriesSideBySide } from './series-side-by-side';
 import { NumericVerdictRow, NumericVerdicts } from './numeric-verdicts';
 import { VerdictMatrix } from './verdict-matrix';
 import { VerdictLike, isNumericVerdict, verdictText } from './verdict-cells';
@@ -43,6 +44,7 @@ import { VerdictLike, isNumericVerdict, verdictText } from './verdict-cells';
     MatSelectModule,
     ExportButtons,
     ReferenceUpload,
+    SeriesSideBySide,
     Tex,
     NumericVerdicts,
     VerdictMatrix,
