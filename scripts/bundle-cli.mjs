@@ -8,8 +8,9 @@ import { root } from './lib.mjs';
 
 const entry = path.join(root, 'dist/server/cli/main.js');
 const bundle = path.join(root, 'dist/cli/traceloom.mjs');
+const parserOnly = path.join(root, 'shared/dist/engine/expr/parser-only.js');
 
-if (!existsSync(entry)) {
+if (!existsSync(entry) || !existsSync(parserOnly)) {
   console.error(
     `bundle-cli: ${entry} is missing; run npm run build:shared && npm run build:server`,
   );
@@ -27,4 +28,13 @@ await build({
     js: "import { createRequire } from 'node:module'; const require = createRequire(import.meta.url);",
   },
   logLevel: 'warning',
+  plugins: [
+    {
+      // the parser alone instead of the whole single-file build (see engine/expr/parser-only.ts)
+      name: 'parser-only',
+      setup(b) {
+        b.onResolve({ filter: /^mathjs\/lib\/browser\/math\.js$/ }, () => ({ path: parserOnly }));
+      },
+    },
+  ],
 });

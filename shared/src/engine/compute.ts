@@ -1,16 +1,12 @@
 import Fraction from 'fraction.js';
-import { classRowJsonText } from './canonical/class-text.js';
-import { classSum } from './canonical/classes.js';
-import { spectrumProduct } from './canonical/product.js';
+import { checkClassSums, checkProductRoute, RouteLedger } from './canonical/agreement.js';
 import { newtonRecursion } from './canonical/recursion.js';
 import { runLargeN, runTableChecks, tagged } from './checks/table-checks.js';
 import { EngineCancelled } from './errors.js';
 import { computeSectors } from './sectors/compute-sectors.js';
 import type { Truncation } from './expr/evaluate.js';
-import type { ClassRowJson, ComputeOptions, ComputeResult, Progress, Route } from './result.js';
-import { compareSeries } from './series/compare.js';
+import type { ComputeOptions, ComputeResult, Progress } from './result.js';
 import { toValueJson } from './series/format.js';
-import { Series } from './series/series.js';
 import { computeNumeric } from './numeric/compute-numeric.js';
 import { GasSpec, isNumericSpec, parseGasSpec } from './spec/schema.js';
 import { cycleWeights } from './weights.js';
@@ -78,27 +74,12 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   const Z = newtonRecursion(w.weights, nMax, fermion, cap, progress.step, opts.shouldStop);
   const t2 = now();
 
-  const routes: Route[][] = Z.map(() => ['recursion']);
-  const agrees: boolean[] = Z.map(() => true);
+  const ledger = new RouteLedger(Z);
   const methods: ComputeResult['methods'] = { recursion: { nMax } };
+  const routeCtx = { nMax, fermion, cap, step: progress.step, tick: progress.tick };
   if (w.spectrum) {
     progress.phase('product', w.spectrum.points.length);
-    const X = spectrumProduct(
-      w.spectrum.points,
-      nMax,
-      fermion,
-      cap,
-      w.spectrum.truncated,
-      progress.step,
-    );
-    let all = true;
-    for (let N = 0; N <= nMax; N++) {
-      routes[N]!.push('product');
-      const ok = compareSeries(Z[N]!, X[N]!).agrees;
-      agrees[N] = agrees[N]! && ok;
-      all &&= ok;
-    }
-    methods.product = { nMax, agrees: all, points: w.spectrum.points.length };
+    methods.product = checkProductRoute(w.spectrum, routeCtx, ledger);
   }
   const t3 = now();
 
@@ -123,42 +104,24 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   runTableChecks(spec, Z, w.weights, cap, result, progress.phase);
   const t4 = now();
 
-  const keep = opts.collectClasses ?? !(opts.onClass || opts.onClassText);
-  const onText = opts.onClassText;
-  const lean = onText && !keep && !opts.onClass ? onText : undefined;
   if (spec.classTable > 0) {
     progress.phase('classes', spec.classTable);
-    let all = true;
-    for (let N = 1; N <= spec.classTable; N++) {
-      const emit = (row: Parameters<NonNullable<Parameters<typeof classSum>[4]>>[0]): void => {
-        const json: ClassRowJson = {
-          N: row.N,
-          cycleType: row.cycleType,
-          size: row.size,
-          sign: row.sign,
-          contribution: toValueJson(row.contribution),
-        };
-        opts.onClass?.(json);
-        onText?.(classRowJsonText(json));
-        if (keep) result.classes.push(json);
-      };
-      const sum: Series = classSum(N, w.weights, fermion, cap, emit, progress.tick, lean);
-      routes[N]!.push('classSum');
-      const ok = compareSeries(Z[N]!, sum).agrees;
-      agrees[N] = agrees[N]! && ok;
-      all &&= ok;
-      progress.step(N, spec.classTable);
-    }
-    routes[0]!.push('classSum');
-    methods.classSum = { nMax: spec.classTable, agrees: all };
+    methods.classSum = checkClassSums(
+      w.weights,
+      spec.classTable,
+      routeCtx,
+      opts,
+      ledger,
+      result.classes,
+    );
   }
   const t5 = now();
 
   result.canonical = Z.map((value, N) => ({
     N,
     value: toValueJson(value),
-    routes: routes[N]!,
-    agrees: agrees[N]!,
+    routes: ledger.routes[N]!,
+    agrees: ledger.agrees[N]!,
   }));
   runLargeN(spec, Z, ring, result);
   result.timings.checksMs = t4 - t3;

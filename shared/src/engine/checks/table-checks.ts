@@ -52,7 +52,9 @@ export function runLargeN(
   ring: GasRing,
   result: ComputeResult,
 ): void {
-  if (spec.largeN === undefined && spec.nMax < 4) return;
+  // a table of plain numbers (every Z(N) free of the variable) has no large-N structure in it
+  const constant = Z.every((z) => z.isConstant());
+  if (spec.largeN === undefined && (spec.nMax < 4 || constant)) return;
   let normalization: Series[] | undefined;
   const text = spec.largeN?.normalization;
   if (text !== undefined) {

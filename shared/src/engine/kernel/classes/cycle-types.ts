@@ -39,11 +39,19 @@ export function foldCycleTypes<S>(
   const factorials = [1n];
   for (let i = 1; i <= n; i++) factorials.push(factorials[i - 1]! * BigInt(i));
   const factorial = factorials[n]!;
+  // lengthTimesK[L][k] = L k as a BigInt: the class size divides by it at the k-th cycle of length L
+  const lengthTimesK: bigint[][] = [];
+  for (let L = 0; L <= n; L++)
+    lengthTimesK.push(
+      Array.from({ length: L === 0 ? 0 : Math.floor(n / L) + 1 }, (_, k) => BigInt(L * k)),
+    );
   let count = 0;
   let parts = 0;
   const visit = { n, m, parts: 0, size: 0n, sign: 1 as 1 | -1 };
   // walk(L, rest, state, size): decide m_L..m_1 for the remaining `rest`
   const walk = (L: number, rest: number, state: S, size: bigint): void => {
+    // lengths above what is left have multiplicity 0: go straight to the longest possible one
+    if (L > rest) L = Math.max(rest, 1);
     if (L === 1) {
       let s = state;
       if (ones) s = ones(s, rest);
@@ -62,11 +70,11 @@ export function foldCycleTypes<S>(
     }
     let s = state;
     let z = size;
-    const big = BigInt(L);
+    const divisors = lengthTimesK[L]!;
     for (let k = 0; k * L <= rest; k++) {
       if (k > 0) {
         s = extend(s, L, k);
-        z /= big * BigInt(k);
+        z /= divisors[k]!;
         m[L] = k;
         parts++;
       }
