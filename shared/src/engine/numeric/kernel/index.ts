@@ -216,7 +216,7 @@ export function kernelTraces(
 /**
  * The next finest resolution after (mA, mB, mC): mC + r (mC - mB) for the smallest r in
  * {1, 3/2, 2} whose predicted errors (the estimate rule of `assemble` applied once more with
- * the measured convergence) meet the digits; 2 when none does.
+ * the measured convergence) meet the digits; 3/2 when none does.
  */
 function nextResolution(trip: [number, number, number], out: Assembled, D: number): number {
   const [, mB, mC] = trip;
@@ -229,9 +229,11 @@ function nextResolution(trip: [number, number, number], out: Assembled, D: numbe
     const all =
       out.traces.every((e, i) => ok(e, out.parts.traces[i]!, out.floors.traces[i]!)) &&
       out.fredholm.every((e, i) => ok(e, out.parts.fredholm[i]!, out.floors.fredholm[i]!));
-    if (all || r === 2) return mC + Math.ceil((r * (mC - mB)) / 2) * 2;
+    if (all) return mC + Math.ceil((r * (mC - mB)) / 2) * 2;
   }
-  return 2 * mC;
+  // no step is predicted to suffice (the prediction rests on the coarser, slower levels): the
+  // middle step, whose n^3 cost is less than half a doubling's
+  return mC + Math.ceil((1.5 * (mC - mB)) / 2) * 2;
 }
 
 /** A first guess of the finest resolution for D digits (refinement corrects it). */
