@@ -223,6 +223,7 @@ function numericTable(r: ComputeResult): string {
       ...alignColumns(['N', 'cycle type', 'size', 'sign', 'contribution', '± error'], classRows),
     );
   }
+  lines.push(...sectorTableLines(r));
   const airy = airyTableLines(r);
   if (airy.length) lines.push('', ...airy);
   const checks = checkLines(r);

@@ -8,8 +8,10 @@ function label(index: readonly string[], row: SectorRowJson): string {
   return `(${index.map((name, k) => `${name}=${row.index[k]}`).join(', ')})`;
 }
 
-/** Valuations of Z_n(1..nMax), "-" where no term lies below the order. */
+/** Valuations of Z_n(1..nMax), "-" where no term lies below the order (numeric: log10 sizes). */
 function valuations(row: SectorRowJson): string {
+  if (row.valuations.length === 0)
+    return row.magnitudes.map((m) => (m === null ? '-' : m.toFixed(1))).join(' ');
   return row.valuations.map((v) => v ?? '-').join(' ');
 }
 
@@ -33,7 +35,8 @@ export function sectorTableLines(r: ComputeResult): string[] {
       .join(', ')}`,
   );
   const sorted = [...s.rows].sort((a, b) => Number(b.contributed) - Number(a.contributed));
-  out.push(`  sector  contributed  valuations of Z_n(N), N = 1..${r.spec.nMax}`);
+  const what = r.numeric ? 'log10 |w(n) Z_n(N)|' : 'valuations of Z_n(N)';
+  out.push(`  sector  contributed  ${what}, N = 1..${r.spec.nMax}`);
   for (const row of sorted.slice(0, SHOWN))
     out.push(`  ${label(s.index, row)}  ${row.contributed ? 'yes' : 'no '}  ${valuations(row)}`);
   if (sorted.length > SHOWN)
@@ -41,7 +44,7 @@ export function sectorTableLines(r: ComputeResult): string[] {
   return out;
 }
 
-/** CSV lines of the sector breakdown (after a blank line): one row per sector. */
+/** CSV lines of the sector breakdown of a series result (after a blank line): one row per sector. */
 export function sectorCsvLines(r: ComputeResult, cell: (s: string) => string): string[] {
   const s = r.sectors;
   if (!s) return [];

@@ -14,13 +14,17 @@ import type { RunOutput, WorkerRefusal } from './worker.js';
 /** Sectors one pool task computes at most (several tasks per shell keep every thread busy). */
 const CHUNK = 16;
 
-/** True when a stored spec asks for a sector sum (the run is then spread over the pool). */
+/**
+ * True when a stored spec asks for a series sector sum (the run is then spread over the pool; a
+ * numeric sector sum runs as one task).
+ */
 export function isSectorSpec(spec: unknown): boolean {
   return (
     typeof spec === 'object' &&
     spec !== null &&
     'sectors' in spec &&
-    !!(spec as { sectors: unknown }).sectors
+    !!(spec as { sectors: unknown }).sectors &&
+    (spec as { precision?: unknown }).precision === undefined
   );
 }
 

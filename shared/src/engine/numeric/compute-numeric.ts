@@ -15,7 +15,7 @@ import { airyFit } from './airy-fit.js';
 import { fixedVariable, numericWeights } from './weights.js';
 
 /** Guard digits on top of the requested ones (rounding of the routes, the checks). */
-const GUARD_DIGITS = 12;
+export const GUARD_DIGITS = 12;
 
 /** What a numeric computation reports about its method, in the result's `numeric` block. */
 export const ERROR_ESTIMATE_TEXT =

@@ -54,13 +54,19 @@ export function fixedVariable(
   return twoPrecision(text, [], prec, `at.${spec.variable}`, truncations)([]).value;
 }
 
-/** Z_L for L = 1..nMax of a numeric gas. */
-export function numericWeights(spec: GasSpec, prec: number, pace?: Pace): NumericWeights {
+/** Z_L for L = 1..nMax of a numeric gas (`extra`: more bound names, e.g. sector indices). */
+export function numericWeights(
+  spec: GasSpec,
+  prec: number,
+  pace?: Pace,
+  extra: { names: string[]; values: Real[] } = { names: [], values: [] },
+): NumericWeights {
   const truncations: Truncation[] = [];
   const w = spec.weights;
   const q = fixedVariable(spec, prec, truncations);
-  const varNames = q === undefined ? [] : [spec.variable];
-  const varValues = q === undefined ? [] : [q];
+  // extra: names every expression sees besides its own index (the sector indices)
+  const varNames = [...(q === undefined ? [] : [spec.variable]), ...extra.names];
+  const varValues = [...(q === undefined ? [] : [q]), ...extra.values];
   if (w.kind === 'values') {
     if (w.values.length < spec.nMax) {
       throw new EngineError(

@@ -20,7 +20,8 @@ import { cutAt, Series } from '../series/series.js';
 import { sumSeries } from '../series/sum.js';
 import { isNumericSpec, type GasSpec } from '../spec/schema.js';
 import { sectorPart, type SectorContext, type SectorPart } from './sector.js';
-import { hasTerms, SectorWalk, type WeightedSector } from './walk.js';
+import { computeNumericSectors } from './numeric-sectors.js';
+import { hasTerms, SectorWalk, ZERO_CONVENTION, type WeightedSector } from './walk.js';
 
 /** What compute passes down: phases, throttled steps and cancellation. */
 export interface SectorProgress {
@@ -29,15 +30,10 @@ export interface SectorProgress {
   tick(): void;
 }
 
-/** Said in every sector result: the sum over sectors does not converge at N = 0. */
-export const ZERO_CONVENTION =
-  'Z(0) = 1 by convention: every sector gives Z_n(0) = 1 and their sum does not converge, so the ' +
-  'sum over sectors is taken for N >= 1 only.';
-
 /** The context every sector of a spec is computed in. */
 export function sectorContext(spec: GasSpec, opts: ComputeOptions = {}): SectorContext {
   if (isNumericSpec(spec))
-    throw new EngineError('are computed for series gases only (not with precision)', 'sectors');
+    throw new EngineError('internal: a numeric sector sum has its own path', 'sectors');
   const cap = spec.order == null ? null : new Fraction(spec.order);
   const weightNode = parseExpression(spec.sectors!.weight, 'sectors.weight');
   return { spec, cap, weightNode, ...(opts.shouldStop && { shouldStop: opts.shouldStop }) };
@@ -54,6 +50,7 @@ export function computeSectors(
   progress: SectorProgress,
   now: () => number,
 ): ComputeResult {
+  if (isNumericSpec(spec)) return computeNumericSectors(spec, opts, progress, now);
   const t0 = now();
   const ctx = { ...sectorContext(spec, opts), tick: progress.tick };
   const walk = new SectorWalk(spec, ctx.cap);

@@ -6,6 +6,11 @@ import type { GasSpec } from '../spec/schema.js';
 import { boxSize, isBounded, lastShell, sectorBox, shell, type SectorBox } from './enumerate.js';
 import type { SectorPart } from './sector.js';
 
+/** Said in every sector result: the sum over sectors does not converge at N = 0. */
+export const ZERO_CONVENTION =
+  'Z(0) = 1 by convention: every sector gives Z_n(0) = 1 and their sum does not converge, so the ' +
+  'sum over sectors is taken for N >= 1 only.';
+
 /** Most sectors one computation may use. */
 export const MAX_SECTORS = 20000;
 /** Consecutive shells without any term below the order after which an unbounded sum stops. */
