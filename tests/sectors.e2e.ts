@@ -72,6 +72,8 @@ describe('sectors in the browser', () => {
     await page.getByTestId('gas-sector-weight').click();
     await page.getByText(/kappa already has a meaning/).waitFor();
     await page.getByTestId('gas-sector-name-0').fill('n');
+    // the live preview sums the sectors too
+    await page.getByTestId('preview-z-1').waitFor({ timeout: 30_000 });
     await page.getByTestId('gas-sectors-group').scrollIntoViewIfNeeded();
     await browser.screenshot(page, 'sectors-editor');
     await page.getByTestId('gas-save').click();
@@ -93,6 +95,10 @@ describe('sectors in the browser', () => {
       );
     }
     expect(await page.getByTestId('canonical-sectors-0').innerText()).toContain('by convention');
+    // the spectrum is cut once per sector: the cautions say so once, not once per sector
+    const cuts = await page.getByTestId('run-truncation').allInnerTexts();
+    expect(cuts.length).toBeLessThan(4);
+    expect(cuts.join(' ')).toMatch(/cut off at the order \d+ times/);
     await browser.screenshot(page, 'sectors-canonical');
 
     // The breakdown: every sector with its lowest exponents, sortable.

@@ -27,6 +27,7 @@ import { NumericCaution } from './numeric-caution';
 import { RunProgressPanel } from './run-progress';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
 import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
+import { groupTruncations, truncationText } from './truncations';
 
 /** One run: status and timings, then its canonical table, class table, checks and plots. */
 @Component({
@@ -63,6 +64,8 @@ export class RunPage {
   protected readonly loading = signal(true);
   protected readonly error = signal<string | null>(null);
   protected readonly tab = signal(0);
+  protected readonly truncations = groupTruncations;
+  protected readonly truncationText = truncationText;
   protected readonly variable = computed(() => this.run()?.spec.variable ?? 'q');
   protected readonly title = computed(() => this.run()?.spec.title || 'run');
   protected readonly active = computed(() => {
