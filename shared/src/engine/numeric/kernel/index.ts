@@ -147,21 +147,28 @@ export function kernelTraces(
       : nystromBlocks(rule, rho, parity, cache, evalBits, F, paceOpts);
     return levelResult(blocks, nMax, fermion, F, arithmetic, paceOpts);
   };
+  // the coarse pass only sizes things: double-double entries when the kernel allows them
+  if (opts.fast && fastAgrees(opts.fast, rho, pts, PROBE_BITS)) {
+    fastAt = fastKernel(opts.fast, rho);
+    entryBits = PROBE_BITS;
+    arithmetic = 'dd';
+  }
   const probe = run(Math.max(2, m / 4));
   const need = requirements(probe, D, nMax, m * 4);
   // double-double when its 104 bits hold what the values need, relative to the matrix norm
   arithmetic = need.fitsDD ? 'dd' : 'fixed';
+  fastAt = null;
   F = arithmetic === 'dd' ? Math.max(F, need.relative + 8) : Math.max(F, need.fixed);
+  if (F + 24 > evalBits) {
+    evalBits = F + 32;
+    rho = guarded(source(evalBits));
+    cache = new Map();
+  }
   // entries in double-double too, when the expression is elementary and agrees with the Real
   // evaluator on the sample points to the bits the values need
   if (arithmetic === 'dd' && opts.fast && fastAgrees(opts.fast, rho, pts, need.ddBits)) {
     fastAt = fastKernel(opts.fast, rho);
     entryBits = need.ddBits;
-  }
-  if (F + 24 > evalBits) {
-    evalBits = F + 32;
-    rho = guarded(source(evalBits));
-    cache = new Map();
   }
   if (need.tail < tol && (from === null || to === null)) {
     tol = need.tail;
@@ -241,6 +248,9 @@ function initialResolution(D: number, family: RuleFamily): number {
   const m = Math.ceil((D * (family.nested ? 4.5 : 2.2)) / 4) * 4;
   return Math.max(8, m);
 }
+
+/** Bits the coarse sizing pass needs of its double-double entries. */
+const PROBE_BITS = 60;
 
 /** Largest relative precision (bits, guard included) the double-double path (104) is given. */
 const DD_BITS = 100;
