@@ -2,10 +2,10 @@ import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
 
 const sharedSrc = fileURLToPath(new URL('./shared/src/', import.meta.url));
-/** `@traceloom/shared[/api|/engine]` resolve to the library's TypeScript source in tests. */
+/** `@traceloom/shared[/api|/engine|/format]` resolve to the library's TypeScript source in tests. */
 const alias = [
   { find: /^@traceloom\/shared$/, replacement: `${sharedSrc}index.ts` },
-  { find: /^@traceloom\/shared\/(api|engine)$/, replacement: `${sharedSrc}$1/index.ts` },
+  { find: /^@traceloom\/shared\/(api|engine|format)$/, replacement: `${sharedSrc}$1/index.ts` },
 ];
 
 /** Server specs whose figures are wall-clock measurements. */

@@ -214,7 +214,7 @@ describe('workbench in the browser', () => {
     expect(await first.getByTestId('comparison-normalization').innerText()).toBe('1');
     const mismatches = await mismatchRows(page);
     expect(mismatches.length).toBeGreaterThanOrEqual(1);
-    expect(mismatches[0]).toMatch(/DIFFERS/);
+    expect(mismatches[0]).toMatch(/differs/);
     await browser.screenshot(page, 'workbench-reviewer-verdict');
     await context.close();
   });

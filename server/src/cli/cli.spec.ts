@@ -2,7 +2,8 @@ import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { classRowText, csvCell } from './render.js';
+import { classRowJsonText as classRowText } from '@traceloom/shared';
+import { csvCell } from '@traceloom/shared/format';
 
 // Runs the command line as `npm run cli` does: scripts/cli.mjs loading the bundle that
 // `npm run build:server` writes (npm test builds first; locally: npm run build:shared && npm run build:server).
@@ -32,6 +33,17 @@ const trap = JSON.stringify({
   weights: { kind: 'formula', expression: 'q^(L/2) / (1 - q^L)' },
 });
 
+function numericSpec(): string {
+  return JSON.stringify({
+    format: 'traceloom.gas/1',
+    statistics: 'fermion',
+    precision: 20,
+    at: { q: '1/10' },
+    nMax: 2,
+    weights: { kind: 'formula', expression: 'q^(L/2)/(1-q^L)' },
+  });
+}
+
 describe('traceloom compute', () => {
   it('says in one line what to build when the bundle is missing (a fresh clone), exit 2', () => {
     const r = run(['compute', '-'], trap, {
@@ -60,9 +72,12 @@ describe('traceloom compute', () => {
   });
 
   it.each([
-    ['table', /N\s+routes\s+agree\s+Z\(N\)/],
-    ['csv', /^N,Z\(N\),routes,agree\n0,1,recursion\+classSum,true/],
-    ['latex', /\\toprule[\s\S]*\\midrule[\s\S]*\\bottomrule/],
+    ['table', /N\s+routes\s+route check\s+Z\(N\)/],
+    [
+      'csv',
+      /^N,Z\(N\),lowest exponent,terms,known to,routes,route check\n0,1,0,1,exact,recursion\+classSum,agrees/,
+    ],
+    ['latex', /\\begin\{align\*\}[\s\S]*\\begin\{longtable\}\{rlrrl\}/],
   ])('--format %s', (format, pattern) => {
     const r = run(['compute', '-', '--format', format], trap);
     expect(r.code).toBe(0);
@@ -82,6 +97,7 @@ describe('traceloom compute', () => {
       /^weights\.expression: unknown function zeta/,
     ],
     [['frobnicate'], undefined, /^unknown command frobnicate/],
+    [['compute', '-', '--format', 'matrix'], numericSpec(), /^--format matrix needs a series gas/],
   ])('bad input %j: exit 2, one line on stderr, no stack trace', (args, input, message) => {
     const r = run(args, input);
     expect(r.code).toBe(2);
@@ -107,14 +123,17 @@ const numericTrap = JSON.stringify({
 describe('traceloom compute, numeric mode', () => {
   // 10/891 = 0.011223344556677890011223... (exact); 20 digits, correctly rounded
   it.each([
-    ['table', /^2\s+recursion\s+yes\s+1\.1223344556677890011e-2\s+\S+\s+10\/891 \(height 891/m],
+    [
+      'table',
+      /^2\s+recursion\s+one route\s+0\.011223344556677890011\s+\S+\s+10\/891 \(height 891/m,
+    ],
     [
       'csv',
-      /^N,Z\(N\),error,routes,agree,closed form\n[\s\S]*^2,1\.1223344556677890011e-2,[\d.e-]+,recursion,true,10\/891$/m,
+      /^N,Z\(N\),error,routes,route check,closed form\n[\s\S]*^2,0\.011223344556677890011,[\d.e-]+,recursion,one route,10\/891$/m,
     ],
     [
       'latex',
-      /^2 & \$1\.1223344556677890011\\times 10\^\{-2\}\$ & \$[^$]+\$ & \$\\frac\{10\}\{891\}\$ \\\\$/m,
+      /^Z\(2\) &= 0\.01122\\,33445\\,56677\\,89001\\,1 \\pm [^&]+ && \\frac\{10\}\{891\} \\\\$/m,
     ],
   ])(
     '--format %s shows the determined digits, the error and the closed form',

@@ -1,6 +1,7 @@
 #!/usr/bin/env node
 /**
- * Traceloom command line: `traceloom compute SPEC.json [--format json|table|csv|latex]`.
+ * Traceloom command line: `traceloom compute SPEC.json [--format json|table|csv|latex|matrix]`
+ * (`matrix`: the coefficient matrix N x exponent of a series table, as CSV).
  * `-` reads the spec from stdin. The JSON result streams its class rows as they are produced.
  * Bad input: exit 2 with one line on stderr naming the field; never a stack trace.
  */
@@ -13,9 +14,16 @@ import {
   parseGasSpec,
   type ComputeResult,
 } from '@traceloom/shared';
-import { renderCsv, renderLatex, renderTable } from './render.js';
+import { renderCsv, renderLatex, renderMatrix, renderTable } from '@traceloom/shared/format';
 
-const USAGE = 'usage: traceloom compute SPEC.json|- [--format json|table|csv|latex]';
+const USAGE = 'usage: traceloom compute SPEC.json|- [--format json|table|csv|latex|matrix]';
+
+const RENDERERS = {
+  table: renderTable,
+  csv: renderCsv,
+  latex: renderLatex,
+  matrix: renderMatrix,
+} as const;
 
 class UsageError extends Error {}
 
@@ -106,17 +114,20 @@ function main(argv: string[]): number {
   if (!file) throw new UsageError(`compute needs a spec file or - (${USAGE})`);
   if (extra.length) throw new UsageError(`unexpected argument ${extra[0]} (${USAGE})`);
   const format = parsed.values.format;
-  if (!['json', 'table', 'csv', 'latex'].includes(format)) {
-    throw new UsageError(`--format must be json, table, csv or latex, not ${format}`);
+  if (format !== 'json' && !(format in RENDERERS)) {
+    throw new UsageError(`--format must be json, table, csv, latex or matrix, not ${format}`);
   }
   const input = readSpec(file);
   if (format === 'json') {
     streamJson(input);
     return 0;
   }
+  const numeric = typeof input === 'object' && input !== null && 'precision' in input;
+  if (format === 'matrix' && numeric) {
+    throw new UsageError('--format matrix needs a series gas: a numeric table has no coefficients');
+  }
   const result = compute(input);
-  const render = format === 'table' ? renderTable : format === 'csv' ? renderCsv : renderLatex;
-  process.stdout.write(render(result));
+  process.stdout.write(RENDERERS[format as keyof typeof RENDERERS](result));
   return 0;
 }
 

@@ -1,8 +1,13 @@
 import { compute } from '@traceloom/shared/engine';
 import { describe, expect, it } from 'vitest';
-import { renderCsv, renderLatex, renderTable } from './render.js';
 import { parseDecimal, shownDigits } from '../compute/numeric-values.js';
-import { decimalLatex, withUncertainty } from './render-numeric.js';
+import {
+  decimalLatex,
+  renderCsv,
+  renderLatex,
+  renderTable,
+  withUncertainty,
+} from '@traceloom/shared/format';
 
 /**
  * The harmonic trap at q = 1/10: Z(N) = q^(N^2/2) / (q;q)_N (Andrews 1976, Cor. 2.2), so
@@ -42,15 +47,13 @@ function correctlyRounded(shown: string, exact: string): boolean {
 describe('numeric result in the CLI renderers', () => {
   it('shows each Z(N) with its determined digits (all correct) and an error column', () => {
     const csv = renderCsv(trap).split('\n');
-    expect(csv[0]).toBe('N,Z(N),error,routes,agree,closed form');
+    expect(csv[0]).toBe('N,Z(N),error,routes,route check,closed form');
     for (let N = 0; N <= 4; N++) {
       const [n, real, error] = csv[N + 1]!.split(',');
       expect(n).toBe(String(N));
-      expect(real).toBe(
-        trap.canonical[N]!.value.hasOwnProperty('real')
-          ? (trap.canonical[N]!.value as { real: string }).real
-          : '',
-      );
+      // the same decimal as the result's digits, written positionally where that is shorter
+      const digits = (trap.canonical[N]!.value as { real: string }).real;
+      expect(Number(real)).toBe(Number(digits));
       expect(shownDigits({ real: real!, error: error! })).toBeLessThanOrEqual(20);
       expect(shownDigits({ real: real!, error: error! })).toBeGreaterThanOrEqual(N === 0 ? 1 : 20);
       expect(correctlyRounded(real!, MPMATH[N]!)).toBe(true);
@@ -60,12 +63,12 @@ describe('numeric result in the CLI renderers', () => {
 
   it('puts the closed forms found beside their rows (10/891 and 100/8900199891)', () => {
     const csv = renderCsv(trap);
-    expect(csv).toMatch(/\n2,1\.1223344556677890011e-2,[^,]+,recursion\+classSum,true,10\/891\n/);
-    expect(csv).toMatch(/\n4,[^,]+,[^,]+,recursion,true,100\/8900199891\n/);
+    expect(csv).toMatch(/\n2,0\.011223344556677890011,[^,]+,recursion\+classSum,agrees,10\/891\n/);
+    expect(csv).toMatch(/\n4,[^,]+,[^,]+,recursion,one route,100\/8900199891\n/);
     const table = renderTable(trap);
-    expect(table).toMatch(/^2 .*1\.1223344556677890011e-2 .*10\/891 \(height 891/m);
+    expect(table).toMatch(/^2 .*0\.011223344556677890011 .*10\/891 \(height 891/m);
     expect(table).toMatch(/^1 .*no relation of height <= \d+ at this precision$/m);
-    expect(renderLatex(trap)).toContain('& $\\frac{10}{891}$ \\\\');
+    expect(renderLatex(trap)).toMatch(/^Z\(2\) &= .* && \\frac\{10\}\{891\} \\\\$/m);
   });
 
   it('states how the errors were estimated, and the Airy fit as a small table', () => {
@@ -83,7 +86,9 @@ describe('numeric result in the CLI renderers', () => {
   });
 
   it('writes LaTeX numbers with \\times 10^{k}', () => {
-    expect(renderLatex(trap)).toContain('2 & $1.1223344556677890011\\times 10^{-2}$ & $');
+    expect(renderLatex(trap)).toContain(
+      'Z(4) &= 1.12357\\,02706\\,08431\\,2146 \\times 10^{-8} \\pm',
+    );
   });
 });
 

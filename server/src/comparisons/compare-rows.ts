@@ -1,13 +1,9 @@
 import Fraction from 'fraction.js';
 import {
-  add,
-  compareSeries,
+  compareReferenceRows,
   compute,
   EngineError,
-  evaluateSeries,
-  mul,
-  Series,
-  toValueJson,
+  fromValueJson,
   type GasSpec,
   type ValueJson,
   type Verdict,
@@ -49,46 +45,23 @@ export interface CompareTask {
   rows: ReferenceRow[];
 }
 
-/** Rebuilds an engine series from its result-format JSON. */
-export function seriesFromJson(value: ValueJson): Series {
-  let s =
-    value.order === null
-      ? Series.constant(new Fraction(0))
-      : Series.bigO(new Fraction(value.order));
-  for (const [exponent, coefficient] of value.terms) {
-    s = add(s, Series.monomial(new Fraction(coefficient), new Fraction(exponent)));
-  }
-  return s;
-}
-
 /**
- * Row-by-row verdicts: normalization(N) * Z(N) (expected) against each row's value (found), only
- * where both are determined — the same rule as the engine's reference check. Errors are
- * EngineErrors whose field names the row's line (`line 4`) or `normalization`.
+ * Row-by-row verdicts by the engine's reference check: normalization(N) * Z(N) (computed)
+ * against each row's value (supplied), only where both are determined. Errors are EngineErrors
+ * whose field names the row's line (`line 4`) or `normalization`.
  */
-export function compareReferenceRows(task: CompareTask): RowVerdictDto[] {
-  const cap = task.order === null ? null : new Fraction(task.order);
-  const nMax = task.canonical.length - 1;
-  const options = (field: string, N: number) => ({
-    variable: task.variable,
-    cap,
-    nMax,
-    bindings: { N },
-    field,
-  });
-  return task.rows.map((row) => {
-    const z = seriesFromJson(task.canonical[row.N]!);
-    const factor = evaluateSeries(task.normalization, options('normalization', row.N));
-    const found = evaluateSeries(row.value, options(`line ${row.line}`, row.N));
-    const computed = mul(factor, z, cap);
-    const verdict = compareSeries(computed, found);
-    if (verdict.agrees) return { N: row.N, ...verdict };
-    return {
-      N: row.N,
-      ...verdict,
-      series: { computed: toValueJson(computed), supplied: toValueJson(found) },
-    };
-  });
+export function compareSeriesRows(task: CompareTask): RowVerdictDto[] {
+  return compareReferenceRows(
+    task.canonical.map(fromValueJson),
+    task.normalization,
+    task.rows.map((row) => ({ N: row.N, value: row.value, field: `line ${row.line}` })),
+    {
+      variable: task.variable,
+      cap: task.order === null ? null : new Fraction(task.order),
+      nMax: task.canonical.length - 1,
+    },
+    { normalizationField: 'normalization', withSeries: true },
+  );
 }
 
 /** What the worker needs to compare a numeric run with a reference table. */

@@ -2,7 +2,7 @@ import type { ValueJson } from '@traceloom/shared/engine';
 import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
-import { isNumericResult, isNumericVerdict } from '../compute/numeric-values.js';
+import { isNumericResult, isNumericVerdict, readVerdict } from '@traceloom/shared/format';
 import { computeServices } from '../compute/services.js';
 import { Comparison } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
@@ -38,7 +38,7 @@ const comparisonBodySchema = z.union(
 );
 
 function toDto(c: Comparison, runId: string): ComparisonDto {
-  const rows = JSON.parse(c.verdicts) as RowVerdictDto[];
+  const rows = (JSON.parse(c.verdicts) as RowVerdictDto[]).map(readVerdict);
   return {
     id: c.id,
     runId,

@@ -1,6 +1,7 @@
 import { compute } from '@traceloom/shared/engine';
 import { describe, expect, it } from 'vitest';
-import { agreeWithinError, knownSentence, parseDecimal, shownDigits } from './numeric-values.js';
+import { knownSentence } from '@traceloom/shared/format';
+import { agreeWithinError, parseDecimal, shownDigits } from './numeric-values.js';
 
 describe('parseDecimal (exact scaled integers)', () => {
   it.each([

@@ -1,37 +1,7 @@
 import type { DatasetCheckDto } from '@traceloom/shared/api';
 import type { DatasetWaiver } from '../db/entities/index.js';
-import { isNumericVerdict, type NumericVerdict } from '../compute/numeric-values.js';
+import { routeName, verdictText } from '@traceloom/shared/format';
 import type { DatasetSnapshot } from './snapshot.js';
-
-interface SeriesVerdictLike {
-  agrees: boolean;
-  agreesBelow: string | null;
-  firstMismatch: { exponent: string; expected: string; found: string } | null;
-}
-
-/** A verdict's detail: where a series agrees, or within which tolerance a number does. */
-function verdictDetail(v: SeriesVerdictLike | NumericVerdict): string {
-  if (isNumericVerdict(v)) {
-    return v.agrees
-      ? `agrees within ${v.tolerance} (difference ${v.difference})`
-      : `differs by ${v.difference}, beyond the tolerance ${v.tolerance}: computed ${v.computed.real} ± ${v.computed.error}, supplied ${v.supplied.real} ± ${v.supplied.error}`;
-  }
-  if (v.agrees) {
-    return v.agreesBelow === null ? 'agrees exactly' : `agrees below exponent ${v.agreesBelow}`;
-  }
-  const m = v.firstMismatch;
-  return m
-    ? `differs at exponent ${m.exponent}: expected ${m.expected}, found ${m.found}`
-    : 'does not agree';
-}
-
-/** Human names of the routes to Z(N). */
-const ROUTE_NAMES: Record<string, string> = {
-  recursion: 'Newton recursion',
-  classSum: 'class sum',
-  product: 'product form',
-  fredholm: 'Fredholm determinant',
-};
 
 type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean };
 
@@ -43,12 +13,14 @@ type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean }
 function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
   const r = snapshot.result;
   const numeric = r.numeric !== undefined;
+  const verdictDetail = (v: Parameters<typeof verdictText>[0]): string =>
+    verdictText(v, r.spec.variable);
   const rows: CheckRow[] = [];
   for (const c of r.canonical) {
     if (c.routes.length < 2) continue;
     rows.push({
       check: 'routes',
-      label: `Z(N) by ${c.routes.map((r) => ROUTE_NAMES[r] ?? r).join(', ')}`,
+      label: `Z(N) by ${c.routes.map(routeName).join(', ')}`,
       N: c.N,
       agrees: c.agrees,
       detail: numeric
@@ -57,7 +29,7 @@ function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
           : 'the routes differ by more than their errors'
         : c.agrees
           ? 'the routes agree term by term'
-          : 'the routes disagree',
+          : 'the routes differ',
     });
   }
   for (const v of r.grandCheck ?? []) {
@@ -103,7 +75,7 @@ function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
   return rows;
 }
 
-/** The check rows of a snapshot with their status: green, red, or waived by a matching waiver. */
+/** The check rows of a snapshot with their status: passes, fails, or waived by a matching waiver. */
 export function datasetChecks(
   snapshot: DatasetSnapshot,
   waivers: readonly DatasetWaiver[],
@@ -114,7 +86,7 @@ export function datasetChecks(
       : waivers.find((w) => w.check === row.check && (w.rowN === null || w.rowN === row.N));
     return {
       ...row,
-      status: agrees ? 'green' : waiver ? 'waived' : 'red',
+      status: agrees ? 'passes' : waiver ? 'waived' : 'fails',
       waiver: waiver
         ? {
             reason: waiver.reason,

@@ -1,8 +1,7 @@
 import { createHash } from 'node:crypto';
 import canonicalizeModule from 'canonicalize';
 import type { DatasetCheckDto, DatasetPersonDto } from '@traceloom/shared/api';
-import { csvCell, renderCsv, renderLatex } from '../cli/render.js';
-import { knownSentence } from '../compute/numeric-values.js';
+import { csvRow, knownSentence, renderCsv, renderLatex } from '@traceloom/shared/format';
 import type { Dataset } from '../db/entities/index.js';
 import { datasetChecks } from './dataset-checks.js';
 import { person, type DatasetChildren } from './dataset-dto.js';
@@ -85,14 +84,6 @@ export function sha256Hex(text: string): string {
   return createHash('sha256').update(text, 'utf8').digest('hex');
 }
 
-function latexEscape(text: string): string {
-  return text
-    .replace(/[\\{}$&#^_%~]/g, (c) =>
-      c === '\\' ? '\\textbackslash{}' : c === '^' ? '\\^{}' : c === '~' ? '\\~{}' : `\\${c}`,
-    )
-    .replace(/[\r\n]+/g, ' ');
-}
-
 /** What the CSV and LaTeX exports name besides the tables. */
 export interface ExportHeading {
   title: string;
@@ -115,17 +106,15 @@ export function datasetCsv(h: ExportHeading, result: DatasetSnapshot['result']):
     ['sha256', h.hash ?? 'not locked'],
     ['values', knownSentence(result)],
   ];
-  const head = meta.map((row) => row.map(csvCell).join(',')).join('\n');
+  const head = meta.map(csvRow).join('\n');
   return `${head}\n\n${renderCsv(result)}`;
 }
 
-/** LaTeX (booktabs) tables of a dataset, after comment lines naming it and its hash. */
+/** The LaTeX export of a dataset: the run layout, after comment lines naming it and its hash. */
 export function datasetLatex(h: ExportHeading, result: DatasetSnapshot['result']): string {
-  return [
-    `% ${latexEscape(h.title)}, version ${h.version}, ${h.lockedAt ? `locked ${h.lockedAt}` : 'not locked'}`,
-    `% SHA-256 ${h.hash ?? '(not locked)'}`,
-    `% values: ${latexEscape(knownSentence(result))}`,
-    '% needs \\usepackage{booktabs}',
-    renderLatex(result),
-  ].join('\n');
+  return renderLatex(result, [
+    `${h.title}, version ${h.version}, ${h.lockedAt ? `locked ${h.lockedAt}` : 'not locked'}`,
+    `SHA-256 ${h.hash ?? '(not locked)'}`,
+    `values: ${knownSentence(result)}`,
+  ]);
 }

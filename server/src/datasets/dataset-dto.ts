@@ -10,7 +10,7 @@ import {
 } from '../db/entities/index.js';
 import type { Actor } from '../http/route-table.js';
 import { datasetChecks } from './dataset-checks.js';
-import { knownSentence } from '../compute/numeric-values.js';
+import { knownSentence } from '@traceloom/shared/format';
 import { canonicalRows, readSnapshot, snapshotOrder } from './snapshot.js';
 
 /** A person as datasets name them (no e-mail: exports and the public page carry these). */
@@ -102,7 +102,7 @@ export function citationOf(
 export const APPROVER_CANNOT_LOCK = 'you approved it, so another steward must lock it';
 
 /**
- * Why the dataset cannot be locked now by `lockerId` (state, approvals, red checks, and
+ * Why the dataset cannot be locked now by `lockerId` (state, approvals, checks that fail, and
  * separation of duties: the steward who approved may not lock); empty when it can.
  */
 export function lockBlockers(d: Dataset, children: DatasetChildren, lockerId: string): string[] {
@@ -112,10 +112,10 @@ export function lockBlockers(d: Dataset, children: DatasetChildren, lockerId: st
   if (verdicts.get(lockerId) === 'approve') out.push(APPROVER_CANNOT_LOCK);
   const approvals = [...verdicts].filter(([id, v]) => v === 'approve' && id !== lockerId);
   if (approvals.length === 0) out.push('no other reviewer has approved it yet');
-  const red = datasetChecks(readSnapshot(d.snapshot), children.waivers).filter(
-    (c) => c.status === 'red',
+  const failing = datasetChecks(readSnapshot(d.snapshot), children.waivers).filter(
+    (c) => c.status === 'fails',
   );
-  if (red.length > 0) out.push(`${red.length} check row(s) are red and not waived`);
+  if (failing.length > 0) out.push(`${failing.length} check row(s) fail and are not waived`);
   return out;
 }
 

@@ -71,7 +71,7 @@ describe('the review flow', () => {
       ['3/2', '1'],
     ]);
     expect(created.checks.length).toBeGreaterThan(0);
-    expect(created.checks.every((c: { status: string }) => c.status === 'green')).toBe(true);
+    expect(created.checks.every((c: { status: string }) => c.status === 'passes')).toBe(true);
 
     const before = (await mailsTo(reviewer)).length;
     const inReviewDto = await api(
@@ -150,7 +150,7 @@ describe('the review flow', () => {
     const red = await finishedRunOf(t, await tokenFor(t, steward), studyId, RED_SPEC);
     const id = await draftOf(t, steward, red);
     const dto = await api(t, steward, 'get', `/datasets/${id}`, undefined, 200);
-    const redRows = dto.checks.filter((c: { status: string }) => c.status === 'red');
+    const redRows = dto.checks.filter((c: { status: string }) => c.status === 'fails');
     expect(redRows).toEqual([expect.objectContaining({ check: 'reference', N: 1 })]);
     await inReview(t, steward, id, reviewer);
     const byAdmin = await request(t.app)
@@ -173,7 +173,7 @@ describe('the review flow', () => {
       .set('Authorization', bearer(await tokenFor(t, steward)));
     expect(notReady.status).toBe(409);
     expect(notReady.body.error).toMatchObject({ code: 'not_ready' });
-    expect(notReady.body.error.message).toContain('1 check row(s) are red');
+    expect(notReady.body.error.message).toContain('1 check row(s) fail');
     const green = await request(t.app)
       .post(`/api/datasets/${id2}/waivers`)
       .set('Authorization', bearer(await tokenFor(t, steward)))
@@ -358,13 +358,21 @@ describe('exports and verify', () => {
     const lines = res.text.split('\n');
     expect(lines[0]).toBe(`dataset,"'=HYPERLINK(""http://x.test"",""open"")"`);
     expect(lines[1]).toBe('version,1');
-    expect(res.text).toContain('\nN,Z(N),routes,agree\n0,1,');
+    expect(res.text).toContain('\nN,Z(N),lowest exponent,terms,known to,routes,route check\n0,1,');
     for (const line of lines) expect(line).not.toMatch(/(^|,)[=+@\t\r]/);
     const tex = await request(t.app)
       .get(`/api/datasets/${id}/export?format=latex`)
       .set('Authorization', bearer(await tokenFor(t, author)));
-    expect(tex.text).toContain('\\toprule');
-    expect(tex.text).toContain('\\bottomrule');
+    expect(tex.text).toContain('% needs \\usepackage{amsmath,longtable}');
+    expect(tex.text).toMatch(/\\begin\{align\*\}\nZ\(0\) &= 1 \\\\\n/);
+    const matrix = await request(t.app)
+      .get(`/api/datasets/${id}/export?format=matrix`)
+      .set('Authorization', bearer(await tokenFor(t, author)));
+    expect(matrix.status).toBe(200);
+    expect(matrix.headers['content-type']).toMatch(/^text\/csv/);
+    expect(matrix.headers['content-disposition']).toMatch(/-v1\.matrix\.csv"$/);
+    expect(matrix.text).toMatch(/^N,q\^0,/);
+    expect(matrix.text.split('\n')[1]).toMatch(/^0,1(,0)*$/);
     const json = await request(t.app)
       .get(`/api/datasets/${id}/export?format=json`)
       .set('Authorization', bearer(await tokenFor(t, author)));

@@ -1,4 +1,5 @@
 import type { Response } from 'express';
+import { isNumericResult, renderMatrix } from '@traceloom/shared/format';
 import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { Dataset } from '../db/entities/index.js';
@@ -10,7 +11,7 @@ import { canonicalHash, DATASET_FORMAT, datasetCsv, datasetLatex } from './datas
 import { citationOf, supersededBy, toSummary } from './dataset-dto.js';
 import { readSnapshot } from './snapshot.js';
 
-const FORMATS = ['json', 'csv', 'latex'] as const;
+const FORMATS = ['json', 'csv', 'latex', 'matrix'] as const;
 
 /** A file name from a title: letters, digits and dashes only. */
 function fileStem(d: Pick<Dataset, 'title' | 'version'>): string {
@@ -27,8 +28,9 @@ function send(res: Response, d: Dataset, format: (typeof FORMATS)[number], body:
     json: 'application/json',
     csv: 'text/csv',
     latex: 'application/x-latex',
+    matrix: 'text/csv',
   } as const;
-  const ext = { json: 'json', csv: 'csv', latex: 'tex' } as const;
+  const ext = { json: 'json', csv: 'csv', latex: 'tex', matrix: 'matrix.csv' } as const;
   res
     .status(200)
     .set('Content-Type', `${types[format]}; charset=utf-8`)
@@ -38,12 +40,18 @@ function send(res: Response, d: Dataset, format: (typeof FORMATS)[number], body:
 
 /**
  * Writes the export of `d` to `res`. JSON (locked only) is exactly the canonical bytes that were
- * hashed, so SHA-256 of the body equals the lock hash; CSV and LaTeX carry the tables.
+ * hashed, so SHA-256 of the body equals the lock hash; CSV and LaTeX carry the tables, `matrix`
+ * the coefficient matrix (N x exponent) of a series table as CSV.
  */
 export function writeExport(res: Response, d: Dataset, formatParam: unknown): void {
   const format = (formatParam ?? 'json') as (typeof FORMATS)[number];
   if (!FORMATS.includes(format)) {
-    throw new AppError(400, 'invalid_input', 'format: must be json, csv or latex.', 'format');
+    throw new AppError(
+      400,
+      'invalid_input',
+      'format: must be json, csv, latex or matrix.',
+      'format',
+    );
   }
   if (format === 'json') {
     if (d.state !== 'locked' || d.canonical === null) {
@@ -56,6 +64,17 @@ export function writeExport(res: Response, d: Dataset, formatParam: unknown): vo
     return send(res, d, format, d.canonical);
   }
   const result = readSnapshot(d.snapshot).result;
+  if (format === 'matrix') {
+    if (isNumericResult(result)) {
+      throw new AppError(
+        400,
+        'invalid_input',
+        'format: a numeric table has no coefficient matrix; export CSV instead.',
+        'format',
+      );
+    }
+    return send(res, d, format, renderMatrix(result));
+  }
   const heading = { title: d.title, version: d.version, lockedAt: d.lockedAt, hash: d.hash };
   send(
     res,
@@ -65,7 +84,7 @@ export function writeExport(res: Response, d: Dataset, formatParam: unknown): vo
   );
 }
 
-/** `GET /datasets/:id/export?format=json|csv|latex`. */
+/** `GET /datasets/:id/export?format=json|csv|latex|matrix`. */
 export async function exportDataset(
   ctx: AppContext,
   actor: Actor,

@@ -83,7 +83,7 @@ function confirmedTime(lockedAt: string): string {
 
 /**
  * `POST /datasets/:id/lock` (a steward who is not the dataset's author): needs the dataset in
- * review, at least one approval (latest verdict per reviewer) and every check green or waived.
+ * review, at least one approval (latest verdict per reviewer) and every check passing or waived.
  * Hashes the RFC 8785 canonical JSON of snapshot + metadata with SHA-256, stores both, and mails
  * the author and the reviewers. From then on the database triggers refuse any change. With a
  * confirmed preview (`{lockedAt, hash}`) the lock uses that time and must give that hash.

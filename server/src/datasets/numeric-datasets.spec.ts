@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
+import { numericCells } from '@traceloom/shared/format';
 import { agreeWithinError } from '../compute/numeric-values.js';
 import {
   api,
@@ -100,12 +101,19 @@ describe('a numeric gas from creation to a verified, locked dataset', () => {
       .set('Authorization', bearer(await tokenFor(t, author)));
     expect(csv.status).toBe(200);
     expect(csv.text).toMatch(/\nvalues,"numeric at q = 1\/10, 20 digits requested/);
-    expect(csv.text).toContain(`\nN,Z(N),error,routes,agree\n0,`);
-    expect(csv.text).toContain(`\n2,${canonical[2]!.value.real},${canonical[2]!.value.error},`);
+    expect(csv.text).toContain(`\nN,Z(N),error,routes,route check\n0,`);
+    const [real, error] = numericCells(canonical[2]!.value);
+    expect(Number(real)).toBe(Number(canonical[2]!.value.real));
+    expect(csv.text).toContain(`\n2,${real},${error},`);
     const tex = await request(t.app)
       .get(`/api/datasets/${id}/export?format=latex`)
       .set('Authorization', bearer(await tokenFor(t, author)));
-    expect(tex.text).toContain('$N$ & $Z(N)$ & error \\\\');
+    expect(tex.text).toMatch(/^Z\(2\) &= 0\.01122\\,33445/m);
+    const matrix = await request(t.app)
+      .get(`/api/datasets/${id}/export?format=matrix`)
+      .set('Authorization', bearer(await tokenFor(t, author)));
+    expect(matrix.status).toBe(400);
+    expect(matrix.body.error.message).toMatch(/^format: a numeric table has no coefficient matrix/);
     expect(tex.text).toContain('% caution: Each error is an estimate, not a bound');
   });
 
@@ -237,7 +245,7 @@ describe('a kernel gas', () => {
     const routes = d.checks.filter((r: { check: string }) => r.check === 'routes');
     expect(routes[1]).toMatchObject({
       label: 'Z(N) by Newton recursion, Fredholm determinant',
-      status: 'green',
+      status: 'passes',
       detail: 'the routes agree within their errors',
     });
     const verify = await api(t, author, 'post', `/datasets/${id}/verify`, undefined, 200);
@@ -266,10 +274,10 @@ describe('numeric grand check', () => {
     const id = await draftOf(t, author, runId);
     const d = await api(t, author, 'get', `/datasets/${id}`, undefined, 200);
     const grand = d.checks.filter((r: { check: string }) => r.check === 'grand');
-    expect(grand.map((r: { status: string }) => r.status)).toEqual(['green', 'green', 'red']);
+    expect(grand.map((r: { status: string }) => r.status)).toEqual(['passes', 'passes', 'fails']);
     expect(grand[1].detail).toMatch(/^agrees within \S+ \(difference \S+\)$/);
     expect(grand[2].detail).toMatch(
-      /^differs by 1\.\de-4, beyond the tolerance \S+: computed 1\.12233/,
+      /^differs by 1\.\de-4, beyond the tolerance \S+: computed 0\.011223344/,
     );
   });
 });

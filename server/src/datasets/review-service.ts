@@ -225,7 +225,7 @@ export async function addReview(
   return getDataset(ctx, actor, datasetId);
 }
 
-/** `POST /datasets/:id/waivers` (steward): a written reason accepts a red check row (or check). */
+/** `POST /datasets/:id/waivers` (steward): a written reason accepts a failing check row (or check). */
 export async function addWaiver(
   ctx: AppContext,
   actor: Actor,
@@ -245,13 +245,13 @@ export async function addWaiver(
         `check: this dataset has no check "${check}".`,
         'check',
       );
-    const red = rows.filter((c) => c.status === 'red' && (N === undefined || c.N === N));
-    if (red.length === 0) {
+    const failing = rows.filter((c) => c.status === 'fails' && (N === undefined || c.N === N));
+    if (failing.length === 0) {
       const where = N === undefined ? '' : ` at N = ${N}`;
       throw new AppError(
         400,
         'invalid_input',
-        `${N === undefined ? 'check' : 'N'}: the check is green${where}; only a red check can be waived.`,
+        `${N === undefined ? 'check' : 'N'}: the check passes${where}; only a check that fails can be waived.`,
         N === undefined ? 'check' : 'N',
       );
     }

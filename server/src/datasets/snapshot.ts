@@ -1,5 +1,6 @@
 import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
-import { seriesOrder, type AnyValue } from '../compute/numeric-values.js';
+import { readResultVerdicts, readVerdict, seriesOrder } from '@traceloom/shared/format';
+import type { AnyValue } from '../compute/numeric-values.js';
 import type { ComparisonDto } from '../comparisons/comparison-service.js';
 
 /** What a dataset freezes of its run: stored as JSON text in `dataset.snapshot`. */
@@ -12,9 +13,17 @@ export interface DatasetSnapshot {
   comparisons: Array<Pick<ComparisonDto, 'id' | 'referenceId' | 'kind' | 'normalization' | 'rows'>>;
 }
 
-/** Parses the stored snapshot text. */
+/**
+ * Parses the stored snapshot text; verdicts stored under the older side names (expected/found)
+ * read as computed/supplied.
+ */
 export function readSnapshot(text: string): DatasetSnapshot {
-  return JSON.parse(text) as DatasetSnapshot;
+  const s = JSON.parse(text) as DatasetSnapshot;
+  return {
+    ...s,
+    result: readResultVerdicts(s.result),
+    comparisons: s.comparisons.map((c) => ({ ...c, rows: c.rows.map(readVerdict) })),
+  };
 }
 
 /** Z(N) rows of a snapshot, as the dataset page shows them (series or numeric values). */

@@ -21,7 +21,7 @@ describe('demo gases', () => {
     const rows = JSON.parse(comparison!.verdicts);
     // 1/(q;q)_4 = 1 + q + 2q^2 + 3q^3 + 5q^4 + 6q^5 + ... (partitions into at most 4 parts, OEIS A008284).
     expect(rows.map((r: { agrees: boolean }) => r.agrees)).toEqual([true, true, true, false]);
-    expect(rows[3].firstMismatch).toEqual({ exponent: '5', expected: '6', found: '7' });
+    expect(rows[3].firstMismatch).toEqual({ exponent: '5', computed: '6', supplied: '7' });
     expect(rows[0].agreesBelow).toBe('6');
   });
 });

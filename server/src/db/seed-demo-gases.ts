@@ -3,7 +3,7 @@ import { gzipSync } from 'node:zlib';
 import { compute, type GasSpecInput, type ValueJson } from '@traceloom/shared/engine';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/record-audit.js';
-import { compareReferenceRows } from '../comparisons/compare-rows.js';
+import { compareSeriesRows } from '../comparisons/compare-rows.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
 import { Comparison, Gas, GasVersion, ReferenceTable, Run, type User } from './entities/index.js';
 
@@ -44,7 +44,13 @@ const DEFORMED_RING: GasSpecInput = {
   order: '30',
   nMax: 6,
   classTable: 5,
-  weights: { kind: 'spectrum', expression: 'q^abs(p)/(1+q^(2*abs(p)))', offset: '1/2', from: null, to: null },
+  weights: {
+    kind: 'spectrum',
+    expression: 'q^abs(p)/(1+q^(2*abs(p)))',
+    offset: '1/2',
+    from: null,
+    to: null,
+  },
 };
 
 /**
@@ -61,7 +67,13 @@ const PREPRINT_CSV = [
   '',
 ].join('\n');
 
-async function seedGas(manager: EntityManager, studyId: string, author: User, spec: GasSpecInput, now: string) {
+async function seedGas(
+  manager: EntityManager,
+  studyId: string,
+  author: User,
+  spec: GasSpecInput,
+  now: string,
+) {
   const gas = await manager.getRepository(Gas).save({
     study: { id: studyId },
     title: spec.title!,
@@ -102,7 +114,13 @@ async function seedGas(manager: EntityManager, studyId: string, author: User, sp
     ['run.create', 'run', run.id],
     ['run.finish', 'run', run.id],
   ] as const) {
-    await recordAudit(manager, { actorId: author.id, action, targetType, targetId, detail: { seeded: true } });
+    await recordAudit(manager, {
+      actorId: author.id,
+      action,
+      targetType,
+      targetId,
+      detail: { seeded: true },
+    });
   }
   return { runId: run.id, result };
 }
@@ -112,7 +130,12 @@ async function seedGas(manager: EntityManager, studyId: string, author: User, sp
  * computed here through the engine, and the preprint reference table with its stored comparison
  * against the trap's run (one mismatch). Idempotent: does nothing when the study has gases.
  */
-export async function seedDemoGases(dataSource: DataSource, studyId: string, author: User, reviewer: User): Promise<void> {
+export async function seedDemoGases(
+  dataSource: DataSource,
+  studyId: string,
+  author: User,
+  reviewer: User,
+): Promise<void> {
   if (await dataSource.getRepository(Gas).existsBy({ study: { id: studyId } })) return;
   await dataSource.transaction(async (manager) => {
     const now = new Date().toISOString();
@@ -137,7 +160,7 @@ export async function seedDemoGases(dataSource: DataSource, studyId: string, aut
       createdBy: { id: reviewer.id },
       createdAt: now,
     });
-    const rows = compareReferenceRows({
+    const rows = compareSeriesRows({
       canonical: trap.result.canonical.map((row) => row.value as ValueJson),
       variable: 'q',
       order: trap.result.spec.order ?? null,
@@ -153,7 +176,19 @@ export async function seedDemoGases(dataSource: DataSource, studyId: string, aut
       createdBy: { id: reviewer.id },
       createdAt: now,
     });
-    await recordAudit(manager, { actorId: reviewer.id, action: 'reference.create', targetType: 'reference', targetId: table.id, detail: { seeded: true } });
-    await recordAudit(manager, { actorId: reviewer.id, action: 'comparison.create', targetType: 'comparison', targetId: comparison.id, detail: { seeded: true } });
+    await recordAudit(manager, {
+      actorId: reviewer.id,
+      action: 'reference.create',
+      targetType: 'reference',
+      targetId: table.id,
+      detail: { seeded: true },
+    });
+    await recordAudit(manager, {
+      actorId: reviewer.id,
+      action: 'comparison.create',
+      targetType: 'comparison',
+      targetId: comparison.id,
+      detail: { seeded: true },
+    });
   });
 }

@@ -3,7 +3,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
 import { ReferenceTable } from '../db/entities/index.js';
 import { bearer, finishedRun } from '../testing/gas-fixtures.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 
 const LIMIT = 4096;
 let t: TestApp;
@@ -22,8 +28,15 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const upload = (bytes: Buffer, filename: string, fields: Record<string, string> = {}, query = '') => {
-  let req = request(t.app).post(`/api/studies/${studyId}/references${query}`).set('Authorization', bearer(token));
+const upload = (
+  bytes: Buffer,
+  filename: string,
+  fields: Record<string, string> = {},
+  query = '',
+) => {
+  let req = request(t.app)
+    .post(`/api/studies/${studyId}/references${query}`)
+    .set('Authorization', bearer(token));
   for (const [k, v] of Object.entries(fields)) req = req.field(k, v);
   return req.attach('file', bytes, filename);
 };
@@ -40,13 +53,29 @@ const TRAP_TABLE = [
 describe('reference tables', () => {
   it('stores a CSV as uploaded, with its rows, hash and normalization (a reviewer may upload)', async () => {
     const bytes = Buffer.from(TRAP_TABLE);
-    const res = await upload(bytes, 'preprint.csv', { title: 'Preprint table 2', normalization: 'q^(-N^2/2)' });
+    const res = await upload(bytes, 'preprint.csv', {
+      title: 'Preprint table 2',
+      normalization: 'q^(-N^2/2)',
+    });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body).toMatchObject({ title: 'Preprint table 2', normalization: 'q^(-N^2/2)', variable: 'q', filename: 'preprint.csv' });
-    expect(res.body.rows.map((r: { line: number; N: number }) => [r.line, r.N])).toEqual([[2, 1], [3, 2], [4, 3]]);
-    const row = await t.dataSource.getRepository(ReferenceTable).findOneByOrFail({ id: res.body.id });
+    expect(res.body).toMatchObject({
+      title: 'Preprint table 2',
+      normalization: 'q^(-N^2/2)',
+      variable: 'q',
+      filename: 'preprint.csv',
+    });
+    expect(res.body.rows.map((r: { line: number; N: number }) => [r.line, r.N])).toEqual([
+      [2, 1],
+      [3, 2],
+      [4, 3],
+    ]);
+    const row = await t.dataSource
+      .getRepository(ReferenceTable)
+      .findOneByOrFail({ id: res.body.id });
     expect(row.fileBytes.equals(bytes)).toBe(true);
-    const list = await request(t.app).get(`/api/studies/${studyId}/references`).set('Authorization', bearer(token));
+    const list = await request(t.app)
+      .get(`/api/studies/${studyId}/references`)
+      .set('Authorization', bearer(token));
     expect(list.body.find((r: { id: string }) => r.id === res.body.id).rowCount).toBe(3);
   });
 
@@ -65,7 +94,11 @@ describe('reference tables', () => {
   });
 
   it.each([
-    ['a PNG named .csv', Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0]), 'table.csv'],
+    [
+      'a PNG named .csv',
+      Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0]),
+      'table.csv',
+    ],
     ['a ZIP named .csv', Buffer.from('PK\u0003\u0004rest-of-archive'), 'table.csv'],
     ['binary with NUL bytes', Buffer.from([0x4e, 0x2c, 0x00, 0x01, 0x02]), 'table.csv'],
     ['Latin-1 bytes that are not UTF-8', Buffer.from([0x4e, 0x2c, 0x76, 0xe9, 0x0a]), 'table.csv'],
@@ -147,7 +180,12 @@ describe('reference tables', () => {
 
   it('previews with ?dryRun=1: rows and every error, nothing stored', async () => {
     const before = await stored();
-    const res = await upload(Buffer.from('N,value,note\n1,1,\nx,1,\n3,"q^",\n'), 'draft.csv', {}, '?dryRun=1');
+    const res = await upload(
+      Buffer.from('N,value,note\n1,1,\nx,1,\n3,"q^",\n'),
+      'draft.csv',
+      {},
+      '?dryRun=1',
+    );
     expect(res.status).toBe(200);
     expect(res.body.rows).toHaveLength(1);
     expect(res.body.errors.map((e: { line: number }) => e.line)).toEqual([3, 4]);
@@ -155,18 +193,34 @@ describe('reference tables', () => {
   });
 
   it('reads the JSON layout, taking title and normalization from the file', async () => {
-    const json = { title: 'Table from JSON', normalization: 'q^(-N^2/2)', rows: [{ N: 1, value: '1 + q + O(q^2)' }] };
+    const json = {
+      title: 'Table from JSON',
+      normalization: 'q^(-N^2/2)',
+      rows: [{ N: 1, value: '1 + q + O(q^2)' }],
+    };
     const res = await upload(Buffer.from(JSON.stringify(json)), 'table.json');
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ title: 'Table from JSON', normalization: 'q^(-N^2/2)' });
-    const bad = await upload(Buffer.from(JSON.stringify({ rows: [{ N: 1, value: '1' }, { N: 2, value: 'q +' }] })), 't.json');
+    const bad = await upload(
+      Buffer.from(
+        JSON.stringify({
+          rows: [
+            { N: 1, value: '1' },
+            { N: 2, value: 'q +' },
+          ],
+        }),
+      ),
+      't.json',
+    );
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toMatch(/^line 2: value/);
   });
 
   it('compares a finished run row by row and finds the wrong coefficient', async () => {
     const runId = await finishedRun(t, authorToken, studyId);
-    const table = await upload(Buffer.from(TRAP_TABLE), 'preprint.csv', { normalization: 'q^(-N^2/2)' });
+    const table = await upload(Buffer.from(TRAP_TABLE), 'preprint.csv', {
+      normalization: 'q^(-N^2/2)',
+    });
     const res = await request(t.app)
       .post(`/api/runs/${runId}/comparisons`)
       .set('Authorization', bearer(token))
@@ -177,7 +231,7 @@ describe('reference tables', () => {
     expect(res.body.rows).toEqual([
       { N: 1, agrees: true, agreesBelow: '4', firstMismatch: null },
       { N: 2, agrees: true, agreesBelow: '4', firstMismatch: null },
-      expect.objectContaining({ N: 3, agrees: false, agreesBelow: '3', firstMismatch: { exponent: '3', expected: '3', found: '4' } }),
+      expect.objectContaining({ N: 3, agrees: false, agreesBelow: '3', firstMismatch: { exponent: '3', computed: '3', supplied: '4' } }),
     ]);
     // The differing row carries both sides whole; agreeing rows do not.
     expect(res.body.rows[0].series).toBeUndefined();
@@ -195,7 +249,43 @@ describe('reference tables', () => {
       .send({ grand: true });
     expect(grand.status).toBe(201);
     expect(grand.body.summary.agreeing).toBe(grand.body.summary.total);
-    const list = await request(t.app).get(`/api/runs/${runId}/comparisons`).set('Authorization', bearer(token));
+    const list = await request(t.app)
+      .get(`/api/runs/${runId}/comparisons`)
+      .set('Authorization', bearer(token));
     expect(list.body.map((c: { kind: string }) => c.kind)).toEqual(['reference', 'grand']);
+  });
+
+  it('reads comparisons stored under the older side names (expected/found) as computed/supplied', async () => {
+    const runId = await finishedRun(t, authorToken, studyId);
+    const table = await upload(Buffer.from(TRAP_TABLE), 'older.csv', {
+      normalization: 'q^(-N^2/2)',
+    });
+    const made = await request(t.app)
+      .post(`/api/runs/${runId}/comparisons`)
+      .set('Authorization', bearer(token))
+      .send({ referenceId: table.body.id });
+    // what a comparison stored before the vocabulary was settled looks like
+    const older = made.body.rows.map((r: { firstMismatch: null | Record<string, string> }) =>
+      r.firstMismatch
+        ? {
+            ...r,
+            firstMismatch: {
+              exponent: r.firstMismatch['exponent'],
+              expected: r.firstMismatch['computed'],
+              found: r.firstMismatch['supplied'],
+            },
+          }
+        : r,
+    );
+    await t.dataSource.query(`UPDATE "comparison" SET "verdicts" = ? WHERE "id" = ?`, [
+      JSON.stringify(older),
+      made.body.id,
+    ]);
+    const list = await request(t.app)
+      .get(`/api/runs/${runId}/comparisons`)
+      .set('Authorization', bearer(token));
+    const read = list.body.find((c: { id: string }) => c.id === made.body.id);
+    expect(read.rows).toEqual(made.body.rows);
+    expect(read.rows[2].firstMismatch).toEqual({ exponent: '3', computed: '3', supplied: '4' });
   });
 });

@@ -1,5 +1,6 @@
 import { gunzipSync } from 'node:zlib';
 import type { ComputeResult } from '@traceloom/shared/engine';
+import { readResultVerdicts } from '@traceloom/shared/format';
 import { In } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
@@ -32,7 +33,8 @@ export async function loadVisibleRun(ctx: AppContext, actor: Actor, runId: strin
 
 /** The unpacked result JSON of a finished run. */
 export function unpackResult(run: Run): ComputeResult | null {
-  return run.result ? (JSON.parse(gunzipSync(run.result).toString('utf8')) as ComputeResult) : null;
+  if (!run.result) return null;
+  return readResultVerdicts(JSON.parse(gunzipSync(run.result).toString('utf8')) as ComputeResult);
 }
 
 /**

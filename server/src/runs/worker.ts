@@ -2,7 +2,7 @@ import { gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
 import { compute, EngineError, type Progress } from '@traceloom/shared/engine';
 import {
-  compareReferenceRows,
+  compareSeriesRows,
   compareReferenceRowsNumeric,
   type CompareTask,
   type NumericCompareTask,
@@ -121,7 +121,7 @@ export default function work(task: WorkerTask): unknown {
       }
     case 'compare':
       try {
-        return { ok: true, rows: compareReferenceRows(task) };
+        return { ok: true, rows: compareSeriesRows(task) };
       } catch (e) {
         return refusal(e);
       }

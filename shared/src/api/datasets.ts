@@ -117,13 +117,13 @@ export interface DatasetPersonDto {
   displayName: string;
 }
 
-/** One row of one check of a dataset, with its waiver when a steward accepted it red. */
+/** One row of one check of a dataset, with its waiver when a steward accepted it failing. */
 export interface DatasetCheckDto {
   /** `class-sum`, `product`, `grand`, `implied-weights`, `reference`, or `comparison:<id>`. */
   check: string;
   label: string;
   N: number | null;
-  status: 'green' | 'red' | 'waived';
+  status: 'passes' | 'fails' | 'waived';
   detail: string;
   waiver: { reason: string; by: DatasetPersonDto; at: string } | null;
 }

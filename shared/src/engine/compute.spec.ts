@@ -45,7 +45,7 @@ describe('grand check', () => {
       agrees: false,
       agreesBelow: '1',
       // fermions Z(2) = q^2/((1-q)(1-q^2)) starts at q^2; bosons q/((1-q)(1-q^2)) at q (Andrews Cor. 2.2)
-      firstMismatch: { exponent: '1', expected: '0', found: '1' },
+      firstMismatch: { exponent: '1', computed: '0', supplied: '1' },
     });
     // the implied weights show which Z_L is wrong: Z_1 agrees, Z_2 does not
     expect(r.impliedWeights![0]!.agrees).toBe(true);
@@ -80,7 +80,7 @@ describe('reference check', () => {
       N: 3,
       agrees: false,
       agreesBelow: '3',
-      firstMismatch: { exponent: '3', expected: '3', found: '4' },
+      firstMismatch: { exponent: '3', computed: '3', supplied: '4' },
     });
   });
 });

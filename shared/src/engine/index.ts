@@ -35,7 +35,7 @@ export { add, sub, neg, mul, div, inverse, powInt, scale, shift } from './series
 export { exp, log, powRational } from './series/transcendental.js';
 export { compareSeries } from './series/compare.js';
 export type { Mismatch, Verdict } from './series/compare.js';
-export { toValueJson, toText, toLatex } from './series/format.js';
+export { fromValueJson, toValueJson, toText, toLatex } from './series/format.js';
 export type { ValueJson } from './series/format.js';
 export { substitute } from './series/substitute.js';
 export { KSeries } from './grand/kseries.js';
@@ -49,6 +49,13 @@ export type { ClassRow } from './canonical/classes.js';
 export { classRowJsonText } from './canonical/class-text.js';
 export { spectrumProduct } from './canonical/product.js';
 export type { RowVerdict, WeightVerdict } from './checks/grand.js';
+export { compareReferenceRows } from './checks/reference.js';
+export type {
+  CompareRowsOptions,
+  ReferenceRing,
+  ReferenceRowVerdict,
+  SuppliedRow,
+} from './checks/reference.js';
 export {
   grandProductForm,
   largeNAnalysis,

@@ -53,8 +53,8 @@ export function suppliedGrand(
 }
 
 /**
- * Compare a supplied grand function with the computed canonical table (expected = computed,
- * found = supplied), and the weights implied by its logarithm, Z_L = L s^(L-1) [kappa^L] log Xi,
+ * Compare a supplied grand function with the computed canonical table (computed
+ * against supplied), and the weights implied by its logarithm, Z_L = L s^(L-1) [kappa^L] log Xi,
  * with the entered ones.
  */
 export function grandCheck(

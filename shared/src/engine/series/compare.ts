@@ -1,10 +1,10 @@
 import { align, Series } from './series.js';
 
-/** First coefficient where two values differ, as exact rational strings. */
+/** First coefficient where the computed and the supplied value differ, as rational strings. */
 export interface Mismatch {
   exponent: string;
-  expected: string;
-  found: string;
+  computed: string;
+  supplied: string;
 }
 
 /** Outcome of comparing two values within their common known range. */
@@ -16,10 +16,11 @@ export interface Verdict {
 }
 
 /**
- * Compare `found` with `expected` coefficient by coefficient, only where both are determined.
+ * Compare the `supplied` value with the `computed` one coefficient by coefficient, only where
+ * both are determined.
  */
-export function compareSeries(expected: Series, found: Series): Verdict {
-  const [a, b] = align(expected, found);
+export function compareSeries(computed: Series, supplied: Series): Verdict {
+  const [a, b] = align(computed, supplied);
   const order =
     a.order === null ? b.order : b.order === null ? a.order : Math.min(a.order, b.order);
   const lo = Math.min(
@@ -38,8 +39,8 @@ export function compareSeries(expected: Series, found: Series): Verdict {
         agreesBelow: a.step.mul(i).toFraction(),
         firstMismatch: {
           exponent: a.step.mul(i).toFraction(),
-          expected: x.toFraction(),
-          found: y.toFraction(),
+          computed: x.toFraction(),
+          supplied: y.toFraction(),
         },
       };
     }

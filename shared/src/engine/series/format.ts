@@ -1,5 +1,6 @@
 import Fraction from 'fraction.js';
 import { frac } from '../rational.js';
+import { add } from './arith.js';
 import { Series } from './series.js';
 
 /** A value in the result format: exponent/coefficient pairs as exact rational strings. */
@@ -23,6 +24,18 @@ export function toValueJson(s: Series): ValueJson {
     if (c !== 0n) terms.push([exponent(s.start + i), coefficient(c)]);
   }
   return { order: s.order === null ? null : exponent(s.order), terms };
+}
+
+/** The series of a result-format value (the inverse of `toValueJson`). */
+export function fromValueJson(value: ValueJson): Series {
+  let s =
+    value.order === null
+      ? Series.constant(new Fraction(0))
+      : Series.bigO(new Fraction(value.order));
+  for (const [exponent, coefficient] of value.terms) {
+    s = add(s, Series.monomial(new Fraction(coefficient), new Fraction(exponent)));
+  }
+  return s;
 }
 
 /** Non-zero terms as [exponent, coefficient] fractions. */

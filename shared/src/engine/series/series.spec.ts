@@ -74,7 +74,7 @@ describe('series arithmetic and honest precision', () => {
     expect(v).toEqual({
       agrees: false,
       agreesBelow: '3',
-      firstMismatch: { exponent: '3', expected: '8', found: '4' },
+      firstMismatch: { exponent: '3', computed: '8', supplied: '4' },
     });
     expect(compareSeries(ser('1 + q + O(q^3)'), ser('1 + q + 5*q^3')).agreesBelow).toBe('3');
     expect(compareSeries(ser('1 + q'), ser('1 + q'))).toEqual({

@@ -1,3 +1,4 @@
+import type { MismatchJson } from '@traceloom/shared/format';
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
@@ -58,7 +59,7 @@ export interface ComparisonRow {
   N: number;
   agrees: boolean;
   agreesBelow: string | null;
-  firstMismatch: { exponent: string; expected: string; found: string } | null;
+  firstMismatch: MismatchJson | null;
   /** A differing series row: normalization × Z(N) as computed and the table's value, whole. */
   series?: { computed: SeriesJson; supplied: SeriesJson };
 }

@@ -1,17 +1,30 @@
-import type { ExportTable } from '../exports/export-files';
+import { readMismatch, tableLatex, toCsv, type ExportTable } from '@traceloom/shared/format';
 import type { ComparisonDto } from './checks-api';
 
-/** A comparison's rows for the CSV/LaTeX exports. */
+/** A comparison's rows for the CSV/LaTeX exports: both sides of the first mismatch. */
 export function comparisonExport(comparison: ComparisonDto): ExportTable {
   return {
-    columns: ['N', 'agrees', 'agrees below', 'first mismatch at', 'computed', 'table'],
-    rows: comparison.rows.map((r) => [
-      String(r.N),
-      r.agrees ? 'yes' : 'no',
-      r.agreesBelow ?? 'exact',
-      r.firstMismatch?.exponent ?? '',
-      r.firstMismatch?.expected ?? '',
-      r.firstMismatch?.found ?? '',
-    ]),
+    columns: ['N', 'verdict', 'agrees below', 'first mismatch at', 'computed', 'supplied'],
+    rows: comparison.rows.map((r) => {
+      const m = readMismatch(r.firstMismatch);
+      return [
+        String(r.N),
+        r.agrees ? 'agrees' : 'differs',
+        r.agreesBelow ?? 'exact',
+        m?.exponent ?? '',
+        m?.computed ?? '',
+        m?.supplied ?? '',
+      ];
+    }),
   };
+}
+
+/** The comparison as CSV (called on click). */
+export function comparisonCsv(comparison: ComparisonDto): () => string {
+  return () => toCsv(comparisonExport(comparison));
+}
+
+/** The comparison as LaTeX in the export layout (called on click). */
+export function comparisonTex(comparison: ComparisonDto, title: string): () => string {
+  return () => tableLatex(comparisonExport(comparison), [], `comparison ${title}`);
 }

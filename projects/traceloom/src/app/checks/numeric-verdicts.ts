@@ -1,7 +1,10 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { NumericValueJson, numericText } from '../runs/numeric-value';
-import { NumericVerdictLike, numericVerdictText } from './verdict-cells';
+import { NumericValueJson, numericText } from '@traceloom/shared/format';
+import {
+  numericVerdictText,
+  type NumericVerdictJson as NumericVerdictLike,
+} from '@traceloom/shared/format';
 
 /** One numeric verdict row of a grand or reference check. */
 export type NumericVerdictRow = NumericVerdictLike & {

@@ -19,14 +19,15 @@ import { Session } from '../core/session';
 import { ExportButtons } from '../exports/export-buttons';
 import type { RunDto } from '../runs/runs-api';
 import { Tex } from '../runs/tex';
-import { plainPower, valueTex } from '../runs/value-format';
+import { plainPower, valueTex } from '@traceloom/shared/format';
 import { ChecksApi, ComparisonDto, ReferenceDto, ReferenceSummary } from './checks-api';
-import { comparisonExport } from './comparison-export';
+import { comparisonCsv, comparisonTex } from './comparison-export';
 import { ReferenceUpload } from './reference-upload';
 import { SeriesSideBySide } from './series-side-by-side';
 import { NumericVerdictRow, NumericVerdicts } from './numeric-verdicts';
 import { VerdictMatrix } from './verdict-matrix';
-import { VerdictLike, isNumericVerdict, verdictText } from './verdict-cells';
+import { isNumericVerdict, verdictText } from '@traceloom/shared/format';
+import type { VerdictLike } from './verdict-cells';
 
 /**
  * Everything checked about a run: the grand check matrix with the implied weights, the spec's own
@@ -83,7 +84,8 @@ export class RunChecks {
     return this.run().spec.precision !== undefined || rows.some(isNumericVerdict);
   });
   protected readonly valueTex = valueTex;
-  protected readonly comparisonExport = comparisonExport;
+  protected readonly comparisonCsv = comparisonCsv;
+  protected readonly comparisonTex = comparisonTex;
 
   constructor() {
     effect(() => this.load(this.run()));
@@ -91,9 +93,7 @@ export class RunChecks {
 
   /** An implied-weight verdict in words (numeric ones state their tolerance). */
   protected weightText(w: unknown): string {
-    if (isNumericVerdict(w)) return verdictText(w);
-    const v = w as Omit<VerdictLike, 'N'> & { L: number };
-    return verdictText({ ...v, N: v.L }, this.variable());
+    return verdictText(w as Parameters<typeof verdictText>[0], this.variable());
   }
 
   protected asNumeric(rows: readonly unknown[]): NumericVerdictRow[] {

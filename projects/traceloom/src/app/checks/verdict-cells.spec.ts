@@ -1,4 +1,5 @@
-import { cellState, matrixExponents, verdictText } from './verdict-cells';
+import { verdictText } from '@traceloom/shared/format';
+import { cellState, matrixExponents } from './verdict-cells';
 
 describe('check matrix cells', () => {
   const agreeing = { N: 2, agrees: true, agreesBelow: '4', firstMismatch: null };
@@ -6,7 +7,7 @@ describe('check matrix cells', () => {
     N: 3,
     agrees: false,
     agreesBelow: '3/2',
-    firstMismatch: { exponent: '3/2', expected: '8', found: '4' },
+    firstMismatch: { exponent: '3/2', computed: '8', supplied: '4' },
   };
 
   it('marks coefficients below the agreed order as agreeing and the rest as unchecked', () => {
@@ -34,8 +35,8 @@ describe('check matrix cells', () => {
   });
 
   it('says the verdict in words', () => {
-    expect(verdictText(differing)).toBe('differs at q^(3/2): expected 8, found 4');
-    expect(verdictText(agreeing)).toBe('agrees to O(q^4)');
+    expect(verdictText(differing)).toBe('differs at q^(3/2): computed 8, supplied 4');
+    expect(verdictText(agreeing)).toBe('agrees below q^4');
   });
 
   it('states the tolerance of a numeric verdict', () => {
@@ -48,7 +49,7 @@ describe('check matrix cells', () => {
       [{ agrees: true, tolerance: '3e-28' }, 'agrees within 3e-28'],
       [
         { agrees: false, tolerance: '3e-28', difference: '2e-5' },
-        'DIFFERS: difference 2e-5 exceeds the tolerance 3e-28',
+        'differs by 2e-5, beyond the tolerance 3e-28',
       ],
     ];
     for (const [row, want] of table) expect(verdictText(row)).toBe(want);

@@ -1,4 +1,4 @@
-import { plainPower, rationalNumber } from '../runs/value-format';
+import { rationalNumber, type MismatchJson } from '@traceloom/shared/format';
 
 /** What one cell of a check matrix says about one coefficient. */
 export type CellState = 'agrees' | 'differs' | 'unchecked';
@@ -8,7 +8,7 @@ export interface VerdictLike {
   N: number;
   agrees: boolean;
   agreesBelow: string | null;
-  firstMismatch: { exponent: string; expected: string; found: string } | null;
+  firstMismatch: MismatchJson | null;
 }
 
 const EPS = 1e-9;
@@ -61,36 +61,4 @@ function stepMultiple(num: number, den: number, k: number): string {
 
 function gcd(a: number, b: number): number {
   return b === 0 ? Math.abs(a) || 1 : gcd(b, a % b);
-}
-
-/** A numeric verdict (numeric mode): computed and supplied values compared within a tolerance. */
-export interface NumericVerdictLike {
-  agrees: boolean;
-  tolerance: string;
-  difference?: string;
-}
-
-/** True for a numeric verdict, which carries the tolerance it was compared within. */
-export function isNumericVerdict(row: unknown): row is NumericVerdictLike {
-  return typeof (row as { tolerance?: unknown } | null)?.tolerance === 'string';
-}
-
-/** A numeric verdict in words, stating the tolerance: `agrees within 3e-28 (difference 1e-30)`. */
-export function numericVerdictText(row: NumericVerdictLike): string {
-  const diff = row.difference ? `difference ${row.difference}` : '';
-  return row.agrees
-    ? `agrees within ${row.tolerance}${diff ? ` (${diff})` : ''}`
-    : `DIFFERS: ${diff || 'difference'} exceeds the tolerance ${row.tolerance}`;
-}
-
-/** A row's verdict in words: `agrees to O(q^40)`, `exact agreement`, `differs at q^3: 8 vs 4`. */
-export function verdictText(row: VerdictLike | NumericVerdictLike, variable = 'q'): string {
-  if (isNumericVerdict(row)) return numericVerdictText(row);
-  if (row.firstMismatch) {
-    const m = row.firstMismatch;
-    return `differs at ${plainPower(variable, m.exponent) || '1'}: expected ${m.expected}, found ${m.found}`;
-  }
-  return row.agreesBelow === null
-    ? 'agrees exactly'
-    : `agrees to O(${plainPower(variable, row.agreesBelow) || '1'})`;
 }

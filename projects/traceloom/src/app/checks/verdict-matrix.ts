@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { CellState, VerdictLike, cellState, matrixExponents, verdictText } from './verdict-cells';
+import { verdictText } from '@traceloom/shared/format';
+import { CellState, VerdictLike, cellState, matrixExponents } from './verdict-cells';
 
 const SYMBOL: Record<CellState, string> = { agrees: '✓', differs: '✗', unchecked: '·' };
 const WORD: Record<CellState, string> = {

@@ -25,7 +25,7 @@ import { DatasetsApi } from './datasets-api';
           (click)="open.set(true)"
           data-testid="dataset-create-open"
         >
-          <mat-icon>inventory_2</mat-icon> Make a dataset
+          <mat-icon aria-hidden="true" fontIcon="inventory_2" /> Make a dataset
         </button>
       } @else {
         <form class="create" (submit)="$event.preventDefault(); create()">

@@ -53,7 +53,7 @@ function dataset(over: Partial<DatasetDto> = {}): DatasetDto {
         check: 'reference',
         label: 'reference',
         N: 1,
-        status: 'red',
+        status: 'fails',
         detail: 'differs at exponent 2',
         waiver: null,
       },
@@ -70,7 +70,7 @@ function dataset(over: Partial<DatasetDto> = {}): DatasetDto {
       lock: false,
       withdraw: true,
     },
-    lockBlockers: ['1 check row(s) are red and not waived'],
+    lockBlockers: ['1 check row(s) fail and are not waived'],
     ...over,
   };
 }
@@ -103,7 +103,7 @@ describe('DatasetPage', () => {
     await render('steward', dataset());
     expect(testId('dataset-state')?.textContent).toContain('In review');
     expect(testId('dataset-canonical')?.textContent).toContain('2*q - 1/2*q^2 + O(q^6)');
-    expect(testId('dataset-lock-blockers')?.textContent).toContain('red and not waived');
+    expect(testId('dataset-lock-blockers')?.textContent).toContain('fail and are not waived');
     expect((testId('dataset-lock') as HTMLButtonElement).disabled).toBe(true);
     expect(testId('dataset-citation')).toBeNull();
     expect(testId('dataset-export-json')).toBeNull();

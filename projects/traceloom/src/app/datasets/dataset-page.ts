@@ -21,7 +21,7 @@ import type { DatasetCheckDto, DatasetDto, StudyDto } from '@traceloom/shared/ap
 import type { Observable } from 'rxjs';
 import { ApiError, messageOf } from '../core/api-error';
 import { downloadText, fileStem } from '../exports/export-files';
-import { valueText } from '../runs/value-format';
+import { valueText } from '@traceloom/shared/format';
 import { DatasetReviewPanel } from './dataset-review-panel';
 import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswer } from './datasets-api';
@@ -72,8 +72,8 @@ export class DatasetPage {
   protected readonly stateLabel = stateLabel;
   protected readonly stateIcon = stateIcon;
   protected readonly valueText = valueText;
-  protected readonly redCount = computed(
-    () => this.dataset()?.checks.filter((c) => c.status === 'red').length ?? 0,
+  protected readonly failCount = computed(
+    () => this.dataset()?.checks.filter((c) => c.status === 'fails').length ?? 0,
   );
   protected readonly publicPath = computed(() => {
     const hash = this.dataset()?.hash;

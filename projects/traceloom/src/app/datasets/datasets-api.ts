@@ -116,7 +116,7 @@ export class DatasetsApi {
     return this.http.post<DatasetDto>(`/api/datasets/${enc(id)}/reviews`, { verdict, comment });
   }
 
-  /** A steward's written waiver of a red check row. */
+  /** A steward's written waiver of a failing check row. */
   waive(id: string, check: string, N: number | null, reason: string): Observable<DatasetDto> {
     const body = N === null ? { check, reason } : { check, N, reason };
     return this.http.post<DatasetDto>(`/api/datasets/${enc(id)}/waivers`, body);

@@ -1,9 +1,13 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { ExportTable, downloadText, fileStem, toCsv, toJson, toLatexTable } from './export-files';
+import { downloadText, fileStem, toJson } from './export-files';
 
-/** CSV, JSON and LaTeX download buttons for the table on screen. */
+/**
+ * CSV, JSON and LaTeX download buttons for the table on screen (and the coefficient matrix when
+ * the table has one). The texts come from `@traceloom/shared/format` through the callers, so a
+ * download from the screen is the same file as from the CLI or the dataset export.
+ */
 @Component({
   selector: 'tl-export-buttons',
   imports: [MatButtonModule, MatIconModule],
@@ -16,7 +20,7 @@ import { ExportTable, downloadText, fileStem, toCsv, toJson, toLatexTable } from
         (click)="csv()"
         [attr.data-testid]="testId() + '-csv'"
       >
-        <mat-icon aria-hidden="true">table_view</mat-icon> CSV
+        <mat-icon aria-hidden="true" fontIcon="table_view" /> CSV
       </button>
       <button
         mat-stroked-button
@@ -24,7 +28,7 @@ import { ExportTable, downloadText, fileStem, toCsv, toJson, toLatexTable } from
         (click)="json()"
         [attr.data-testid]="testId() + '-json'"
       >
-        <mat-icon aria-hidden="true">data_object</mat-icon> JSON
+        <mat-icon aria-hidden="true" fontIcon="data_object" /> JSON
       </button>
       <button
         mat-stroked-button
@@ -32,8 +36,18 @@ import { ExportTable, downloadText, fileStem, toCsv, toJson, toLatexTable } from
         (click)="latex()"
         [attr.data-testid]="testId() + '-latex'"
       >
-        <mat-icon aria-hidden="true">functions</mat-icon> LaTeX
+        <mat-icon aria-hidden="true" fontIcon="functions" /> LaTeX
       </button>
+      @if (matrix(); as m) {
+        <button
+          mat-stroked-button
+          type="button"
+          (click)="download(m(), 'matrix.csv', 'text/csv')"
+          [attr.data-testid]="testId() + '-matrix'"
+        >
+          <mat-icon aria-hidden="true" fontIcon="grid_on" /> Coefficient matrix
+        </button>
+      }
     </div>
   `,
   styles: `
@@ -55,27 +69,29 @@ export class ExportButtons {
   readonly label = input.required<string>();
   /** The base of the file names. */
   readonly title = input.required<string>();
-  readonly table = input.required<ExportTable>();
+  /** The CSV text of the table (called on click). */
+  readonly csvText = input.required<() => string>();
+  /** The LaTeX text of the table (called on click). */
+  readonly latexText = input.required<() => string>();
+  /** The coefficient matrix N x exponent as CSV, when the table has one. */
+  readonly matrix = input<(() => string) | null>(null);
   /** What the JSON download holds (the result itself, not the screen's text). */
   readonly data = input.required<unknown>();
-  /** Columns that hold LaTeX maths in `latexTable`. */
-  readonly latexTable = input<ExportTable | null>(null);
-  readonly mathColumns = input<number[]>([]);
   readonly testId = input('export');
 
   protected csv(): void {
-    downloadText(toCsv(this.table()), `${fileStem(this.title())}.csv`, 'text/csv');
+    this.download(this.csvText()(), 'csv', 'text/csv');
   }
 
   protected json(): void {
-    downloadText(toJson(this.data()), `${fileStem(this.title())}.json`, 'application/json');
+    this.download(toJson(this.data()), 'json', 'application/json');
   }
 
   protected latex(): void {
-    const text = toLatexTable(this.latexTable() ?? this.table(), {
-      caption: this.title(),
-      mathColumns: this.mathColumns(),
-    });
-    downloadText(text, `${fileStem(this.title())}.tex`, 'application/x-tex');
+    this.download(this.latexText()(), 'tex', 'application/x-tex');
+  }
+
+  protected download(text: string, extension: string, type: string): void {
+    downloadText(text, `${fileStem(this.title())}.${extension}`, type);
   }
 }

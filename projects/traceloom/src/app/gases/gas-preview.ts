@@ -15,7 +15,7 @@ import {
 } from 'rxjs';
 import { ApiError, messageOf } from '../core/api-error';
 import { Tex } from '../runs/tex';
-import { valueTex } from '../runs/value-format';
+import { valueTex } from '@traceloom/shared/format';
 import { GasesApi } from './gases-api';
 import { previewSpec } from './gas-validation';
 

@@ -22,9 +22,9 @@ import { GasDto } from './gases-api';
               [attr.data-testid]="'gas-version-' + v.version"
             >
               @if (v.version === shown()) {
-                <mat-icon aria-hidden="true">radio_button_checked</mat-icon>
+                <mat-icon aria-hidden="true" fontIcon="radio_button_checked" />
               } @else {
-                <mat-icon aria-hidden="true">radio_button_unchecked</mat-icon>
+                <mat-icon aria-hidden="true" fontIcon="radio_button_unchecked" />
               }
               Version {{ v.version }}{{ v.version === gas().version ? ' (latest)' : '' }}
             </button>

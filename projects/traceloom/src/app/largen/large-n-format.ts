@@ -1,6 +1,6 @@
 import type { LargeNClassJson, LargeNJson } from '@traceloom/shared/engine';
-import type { ExportTable } from '../exports/export-files';
-import { valueTex, valueText } from '../runs/value-format';
+import type { ExportTable } from '@traceloom/shared/format';
+import { valueTex, valueText } from '@traceloom/shared/format';
 
 /** `x^(...)` groups of an expression turned into `x^{...}` (balanced parentheses). */
 function bracePowers(s: string): string {

@@ -1,8 +1,9 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { LargeNClassJson, LargeNJson } from '@traceloom/shared/engine';
+import { tableLatex, toCsv } from '@traceloom/shared/format';
 import { ExportButtons } from '../exports/export-buttons';
 import { Tex } from '../runs/tex';
-import { valueTex } from '../runs/value-format';
+import { valueTex } from '@traceloom/shared/format';
 import { classRows, formulaTex, largeNExportTable, productTex } from './large-n-format';
 import { LargeNPlots } from './large-n-plots';
 import { ProductExponents } from './product-exponents';
@@ -54,6 +55,14 @@ export class LargeNPanel {
   protected readonly latexTable = computed(() => {
     const b = this.block();
     return b ? largeNExportTable(b, true) : { columns: [], rows: [] };
+  });
+  protected readonly csvText = computed(() => {
+    const table = this.csvTable();
+    return () => toCsv(table);
+  });
+  protected readonly latexText = computed(() => {
+    const table = this.latexTable();
+    return () => tableLatex(table, [2, 3], `${this.title()} large N`);
   });
 
   protected readonly formulaTex = formulaTex;

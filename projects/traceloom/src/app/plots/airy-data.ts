@@ -1,6 +1,6 @@
 import type { Point } from './plot-data';
 import { airyLogZ } from './airy';
-import { isNumericValue, numericLog } from '../runs/numeric-value';
+import { isNumericValue, numericLog } from '@traceloom/shared/format';
 
 /** The Airy fit of a numeric table, `result.largeN.airy`. */
 export interface AiryFit {

@@ -1,6 +1,5 @@
 import type { CanonicalRowJson } from '@traceloom/shared/engine';
-import { isNumericValue } from '../runs/numeric-value';
-import { rationalNumber } from '../runs/value-format';
+import { isNumericValue, rationalNumber } from '@traceloom/shared/format';
 
 /** A point of a plot. */
 export interface Point {

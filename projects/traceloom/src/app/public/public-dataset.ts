@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
 import { DatasetsApi, PublicDataset } from '../datasets/datasets-api';
-import { valueText } from '../runs/value-format';
+import { valueText } from '@traceloom/shared/format';
 import { LogoMark } from '../shell/logo-mark';
 
 /**

@@ -1,25 +1,27 @@
-import type { CanonicalRowJson } from '@traceloom/shared/engine';
-import type { ExportTable } from '../exports/export-files';
+import type { CanonicalRowJson, ValueJson } from '@traceloom/shared/engine';
 import {
+  AnyValue,
+  LATEX_PACKAGES,
   NumericRoute,
   NumericRowExtras,
   NumericValueJson,
   RecognizedJson,
+  canonicalLatex,
+  canonicalTable,
+  coefficientMatrixCsv,
   isNumericValue,
-  numericDigits,
-  numericError,
-  numericTex,
-  errorTex,
-} from './numeric-value';
-import {
-  AnyValue,
   knownTo,
+  latexComment,
   leadingTerm,
   leadingTermTex,
+  numericDigits,
+  numericError,
+  routeCheckText,
+  routeName,
+  toCsv,
   valuation,
-  valueTex,
   valueText,
-} from './value-format';
+} from '@traceloom/shared/format';
 
 /** A canonical row as the client reads it: series or numeric value, numeric extras optional. */
 export type CanonicalRowView = Omit<CanonicalRowJson, 'value' | 'routes' | 'agrees'> & {
@@ -61,14 +63,6 @@ export interface CanonicalLine {
   sectors: number | null;
 }
 
-/** Human names of the routes to Z(N). */
-export const ROUTE_NAMES: Record<string, string> = {
-  recursion: 'Newton recursion',
-  classSum: 'class sum',
-  product: 'product form',
-  fredholm: 'Fredholm determinant',
-};
-
 const ROUTE_ORDER: NumericRoute[] = ['recursion', 'fredholm', 'product', 'classSum'];
 
 function routeValueLines(row: CanonicalRowView): RouteValueLine[] {
@@ -76,7 +70,7 @@ function routeValueLines(row: CanonicalRowView): RouteValueLine[] {
   return ROUTE_ORDER.flatMap((route) => {
     const value = values[route];
     return value
-      ? [{ route, name: ROUTE_NAMES[route] ?? route, value, digits: numericDigits(value, true) }]
+      ? [{ route, name: routeName(route), value, digits: numericDigits(value, true) }]
       : [];
   });
 }
@@ -117,90 +111,62 @@ export function hasSectorCounts(lines: readonly CanonicalLine[]): boolean {
   return lines.some((l) => l.sectors !== null);
 }
 
-/** The table with a last column `sectors` (the count per row) when the run summed sectors. */
-function withSectorCounts(table: ExportTable, lines: readonly CanonicalLine[]): ExportTable {
-  if (!hasSectorCounts(lines)) return table;
-  return {
-    columns: [...table.columns, 'sectors'],
-    rows: table.rows.map((r, i) => [...r, String(lines[i]!.sectors ?? '')]),
-  };
-}
-
 /** The routes' agreement in words (the icon beside it is decoration). */
 export function agreementText(line: CanonicalLine): string {
-  if (line.routes.length < 2)
-    return `one route (${ROUTE_NAMES[line.routes[0] ?? 'recursion'] ?? line.routes[0]})`;
-  const names = line.routes.map((r) => ROUTE_NAMES[r] ?? r).join(', ');
-  return line.agrees ? `agree: ${names}` : `DISAGREE: ${names}`;
+  if (line.routes.length < 2) return `one route (${routeName(line.routes[0] ?? 'recursion')})`;
+  const names = line.routes.map(routeName).join(', ');
+  return `${routeCheckText(line)}: ${names}`;
 }
 
-/** The canonical table for the CSV/JSON exports (plain values). */
-export function canonicalExport(lines: readonly CanonicalLine[]): ExportTable {
-  if (lines.some((l) => l.numeric)) return withSectorCounts(numericExport(lines), lines);
-  return withSectorCounts(plainExport(lines), lines);
+/** The rows on screen as the renderers read them. */
+function exportRows(lines: readonly CanonicalLine[]) {
+  return lines.map((l) => ({
+    N: l.N,
+    value: l.value,
+    routes: l.routes as CanonicalRowJson['routes'],
+    agrees: l.agrees,
+    ...(l.recognized ? { recognized: l.recognized } : {}),
+    ...(l.recognizeNote ? { recognizeNote: l.recognizeNote } : {}),
+    ...(l.sectors !== null ? { sectors: l.sectors } : {}),
+  }));
 }
 
-function plainExport(lines: readonly CanonicalLine[]): ExportTable {
-  return {
-    columns: ['N', 'Z(N)', 'valuation', 'terms', 'known to', 'routes agree'],
-    rows: lines.map((l) => [
-      String(l.N),
-      l.text,
-      l.valuation ?? '',
-      String(l.termCount),
-      l.knownTo,
-      l.routes.length < 2 ? 'single route' : l.agrees ? 'yes' : 'no',
-    ]),
-  };
+/** The canonical table as CSV, the same columns as the CLI and the dataset exports. */
+export function canonicalCsv(lines: readonly CanonicalLine[], variable: string): string {
+  return toCsv(
+    canonicalTable(
+      exportRows(lines),
+      variable,
+      lines.some((l) => l.numeric),
+    ),
+  );
 }
 
-/** The same table with Z(N) in LaTeX, for the booktabs export (column 1 is maths). */
-export function canonicalLatex(lines: readonly CanonicalLine[], variable: string): ExportTable {
-  if (lines.some((l) => l.numeric)) return numericLatex(lines);
-  return {
-    columns: ['N', 'Z(N)', 'known to'],
-    rows: lines.map((l) => [String(l.N), valueTex(l.value, variable), l.knownTo]),
-  };
+/** The canonical table as LaTeX, the layout of the CLI and the dataset exports. */
+export function canonicalTex(
+  lines: readonly CanonicalLine[],
+  variable: string,
+  title: string,
+): string {
+  return (
+    [
+      latexComment(title),
+      latexComment(`needs ${LATEX_PACKAGES}`),
+      ...canonicalLatex(exportRows(lines), variable),
+    ].join('\n') + '\n'
+  );
 }
 
-function agreeCell(l: CanonicalLine): string {
-  return l.routes.length < 2 ? 'single route' : l.agrees ? 'yes' : 'no';
-}
-
-/**
- * A numeric table for CSV: only determined digits (ungrouped, so a spreadsheet reads them), the
- * error in its own column, the closed form when one was recognized.
- */
-function numericExport(lines: readonly CanonicalLine[]): ExportTable {
-  return {
-    columns: ['N', 'Z(N)', 'error', 'closed form', 'routes agree'],
-    rows: lines.map((l) => [
-      String(l.N),
-      isNumericValue(l.value) ? numericDigits(l.value) : l.text,
-      l.error,
-      l.recognized?.expression ?? '',
-      agreeCell(l),
-    ]),
-  };
-}
-
-/** Columns of the LaTeX export that hold maths, series or numeric. */
-export function canonicalMathColumns(lines: readonly CanonicalLine[]): number[] {
-  return lines.some((l) => l.numeric) ? [1, 2, 3] : [1];
-}
-
-/**
- * The same for LaTeX: determined digits of Z(N) (thin spaces between groups of five), the error
- * and the closed form, each as maths.
- */
-function numericLatex(lines: readonly CanonicalLine[]): ExportTable {
-  return {
-    columns: ['N', 'Z(N)', 'error', 'closed form'],
-    rows: lines.map((l) => [
-      String(l.N),
-      isNumericValue(l.value) ? numericTex(l.value, Infinity, false) : valueTex(l.value),
-      l.error === '' || l.error === '0' ? '0' : errorTex(l.error),
-      l.recognized ? l.recognized.latex : '{}',
-    ]),
-  };
+/** The coefficient matrix (N x exponent) of a series table as CSV; null for a numeric one. */
+export function canonicalMatrix(
+  lines: readonly CanonicalLine[],
+  variable: string,
+  step: string,
+): string | null {
+  if (lines.some((l) => l.numeric)) return null;
+  return coefficientMatrixCsv(
+    lines.map((l) => ({ N: l.N, value: l.value as ValueJson })),
+    step,
+    variable,
+  );
 }

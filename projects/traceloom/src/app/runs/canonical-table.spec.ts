@@ -59,7 +59,7 @@ describe('CanonicalTable', () => {
     expect(cells[3]).toBe('9/2');
     expect(cells[4]).toBe('3');
     expect(cells[5]).toBe('O(q^20)');
-    expect(cells[6]).toContain('agree: Newton recursion, class sum');
+    expect(cells[6]).toContain('agrees: Newton recursion, class sum');
   });
 
   it('says how many sectors made each row of a sector sum', async () => {
@@ -78,8 +78,12 @@ describe('CanonicalTable', () => {
   it('says in words when the routes disagree (not by colour alone)', async () => {
     await render([trapRow(0), trapRow(1), trapRow(2, false)]);
     const cell = el.querySelector('[data-testid="canonical-agree-2"]');
-    expect(cell?.textContent).toContain('DISAGREE');
-    expect(cell?.querySelector('mat-icon')?.textContent?.trim()).toBe('report');
+    expect(cell?.textContent).toContain('differs: Newton recursion');
+    // the icon is decoration drawn from its fontIcon attribute: no ligature name in the text
+    const icon = cell?.querySelector('mat-icon');
+    expect(icon?.getAttribute('fontIcon')).toBe('report');
+    expect(icon?.getAttribute('aria-hidden')).toBe('true');
+    expect(icon?.textContent?.trim()).toBe('');
   });
 
   it('expands a row to the full series, typeset and as plain text', async () => {
@@ -170,7 +174,7 @@ describe('CanonicalTable in numeric mode', () => {
     expect(rec?.querySelector('.katex')).not.toBeNull();
     expect(rec?.textContent).toContain('height 16, 24 digits to spare');
     expect(text('canonical-recognized-2')).toContain('no relation of height <= 1000000');
-    expect(text('canonical-agree-2')).toContain('DISAGREE');
+    expect(text('canonical-agree-2')).toContain('differs: Newton recursion');
   });
 
   it("expands a row to each route's value and error and their agreement", async () => {

@@ -12,16 +12,16 @@ import {
   CanonicalLine,
   CanonicalRowView,
   agreementText,
-  canonicalExport,
-  canonicalLatex,
+  canonicalCsv,
   canonicalLines,
-  canonicalMathColumns,
+  canonicalMatrix,
+  canonicalTex,
   hasSectorCounts,
   isNumericTable,
 } from './canonical-rows';
 import { NumericRowDetail } from './numeric-row-detail';
 import { Tex } from './tex';
-import { valueTex } from './value-format';
+import { valueTex } from '@traceloom/shared/format';
 
 /** Height of one collapsed row, the virtual scroll step. */
 const ROW_PX = 52;
@@ -74,10 +74,17 @@ export class CanonicalTable {
   protected readonly viewportHeight = computed(
     () => Math.min(this.lines().length, VISIBLE_ROWS) * ROW_PX + ROW_PX + 4,
   );
-  protected readonly exportTable = computed(() => canonicalExport(this.lines()));
-  protected readonly latexTable = computed(() => canonicalLatex(this.lines(), this.variable()));
+  protected readonly csvText = computed(() => () => canonicalCsv(this.lines(), this.variable()));
+  protected readonly latexText = computed(
+    () => () => canonicalTex(this.lines(), this.variable(), this.title()),
+  );
+  protected readonly matrixText = computed(() => {
+    const lines = this.lines();
+    if (this.numeric() || this.normalized()) return null;
+    const step = (this.result() as { spec?: { step?: string } } | null)?.spec?.step ?? '1';
+    return () => canonicalMatrix(lines, this.variable(), step) ?? '';
+  });
   protected readonly numeric = computed(() => isNumericTable(this.rows()));
-  protected readonly mathColumns = computed(() => canonicalMathColumns(this.lines()));
   protected readonly columns = computed(() => {
     const sectors = hasSectorCounts(this.lines()) ? ['sectors'] : [];
     return this.numeric()

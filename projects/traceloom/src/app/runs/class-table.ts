@@ -19,18 +19,23 @@ import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import type { ClassRowJson } from '@traceloom/shared/engine';
 import { messageOf } from '../core/api-error';
 import { ExportButtons } from '../exports/export-buttons';
-import { ExportTable } from '../exports/export-files';
-import { isNumericValue, numericNumber } from './numeric-value';
 import { RunsApi } from './runs-api';
 import { Tex } from './tex';
 import {
+  LATEX_PACKAGES,
+  classLatex,
+  classTable,
   cycleTypeTex,
   cycleTypeText,
+  isNumericValue,
+  latexComment,
+  numericNumber,
   rationalNumber,
+  toCsv,
   valuation,
   valueTex,
   valueText,
-} from './value-format';
+} from '@traceloom/shared/format';
 
 /** One class-table row as shown. */
 export interface ClassLine {
@@ -102,15 +107,19 @@ export class ClassTable {
   protected readonly lines = computed(() => classLines(this.rows(), this.variable()));
   protected readonly source = new MatTableDataSource<ClassLine>([]);
   protected readonly columns = ['cycleType', 'size', 'sign', 'contribution'];
-  protected readonly exportTable = computed<ExportTable>(() => ({
-    columns: ['cycle type', 'size', 'sign', 'contribution'],
-    rows: this.lines().map((l) => [
-      l.cycleType,
-      l.size,
-      l.sign > 0 ? '+1' : '-1',
-      l.contributionText,
-    ]),
-  }));
+  protected readonly csvText = computed(() => {
+    const rows = this.rows();
+    return () => toCsv(classTable(rows, this.variable()));
+  });
+  protected readonly latexText = computed(() => {
+    const rows = this.rows();
+    return () =>
+      [
+        latexComment(`${this.title()} N=${this.chosen()}`),
+        latexComment(`needs ${LATEX_PACKAGES}`),
+        ...classLatex(rows, this.variable()),
+      ].join('\n') + '\n';
+  });
 
   private readonly sort = viewChild(MatSort);
   private readonly paginator = viewChild(MatPaginator);

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { NumericInfoJson } from './numeric-value';
+import { NumericInfoJson } from '@traceloom/shared/format';
 
 /** `result.numeric` of a numeric run, or null (series runs). */
 export function numericInfo(result: unknown): NumericInfoJson | null {
@@ -19,7 +19,7 @@ export function numericInfo(result: unknown): NumericInfoJson | null {
   imports: [MatIconModule],
   template: `
     <p data-testid="run-numeric-caution">
-      <mat-icon aria-hidden="true">warning</mat-icon>
+      <mat-icon aria-hidden="true" fontIcon="warning" />
       <span>
         Numeric run: {{ precision() }} significant digits asked for; each value shows only its
         determined digits, ± its estimated absolute error.

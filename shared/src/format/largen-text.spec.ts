@@ -4,11 +4,11 @@ import {
   newtonRecursion,
   cycleWeights,
   parseGasSpec,
-} from '@traceloom/shared';
+} from '../engine/index.js';
 import Fraction from 'fraction.js';
 import { describe, expect, it } from 'vitest';
-import { largeNTableLines } from './largen-render.js';
-import { valueText } from './render.js';
+import { largeNTableLines } from './largen-text.js';
+import { valueText } from './values.js';
 
 describe('large-N summary for --format table', () => {
   it('harmonic trap: normalization, limit, law N + 1 and the first wall -q^(N+1)', () => {

@@ -1,3 +1,4 @@
+import { describe, expect, it } from 'vitest';
 import {
   isNumericValue,
   numericDigits,
@@ -5,7 +6,7 @@ import {
   numericNumber,
   numericTex,
   numericText,
-} from './numeric-value';
+} from './numeric.js';
 
 // 1/(16 pi) = 0.01989436788648691697111047042156... (mpmath 1.3, independent; mp.dps = 40).
 const ONE_OVER_16PI = { real: '1.98943678864869169711104704e-2', error: '3e-30' };

@@ -1,5 +1,5 @@
-import type { ValueJson } from '@traceloom/shared/engine';
-import { NumericValueJson, isNumericValue, numericTex, numericText } from './numeric-value';
+import type { ValueJson } from '../engine/series/format.js';
+import { NumericValueJson, isNumericValue, numericTex, numericText } from './numeric.js';
 
 /** A value of the result: a series `{order, terms}` or (numeric mode) a number `{real, error}`. */
 export type AnyValue = ValueJson | NumericValueJson;
@@ -46,7 +46,7 @@ function texPower(variable: string, exponent: string): string {
 }
 
 /** Joins signed parts (`+ a`, `- b`) into `a - b`, or `-a - b`. */
-function joinSigned(parts: string[]): string {
+export function joinSigned(parts: string[]): string {
   if (parts.length === 0) return '0';
   const text = parts.join(' ');
   return text.startsWith('+ ') ? text.slice(2) : `-${text.slice(2)}`;
@@ -76,6 +76,14 @@ export function valueText(value: AnyValue, variable = 'q'): string {
 export function valueTex(value: AnyValue, variable = 'q', maxTerms = Infinity): string {
   if (isNumericValue(value))
     return numericTex(value, maxTerms === Infinity ? Infinity : 5 * maxTerms);
+  return joinSigned(texTerms(value, variable, maxTerms));
+}
+
+/**
+ * The signed LaTeX terms of a series (`+ q^{2}`, `- \tfrac{3}{4}q^{3}`, ..., `+ O(q^{8})`), for
+ * layouts that break a long series across lines; `maxTerms` elides the middle with `\cdots`.
+ */
+export function texTerms(value: ValueJson, variable = 'q', maxTerms = Infinity): string[] {
   const shown = value.terms.length > maxTerms ? value.terms.slice(0, maxTerms) : value.terms;
   const parts = shown.map(([e, c]) => {
     const r = rational(c);
@@ -85,7 +93,7 @@ export function valueTex(value: AnyValue, variable = 'q', maxTerms = Infinity): 
   });
   if (shown.length < value.terms.length) parts.push('+ \\cdots');
   if (value.order !== null) parts.push(`+ O(${texPower(variable, value.order) || '1'})`);
-  return joinSigned(parts);
+  return parts;
 }
 
 /** The lowest-order term alone (`q^(9/2)`), or `0` when every known coefficient vanishes. */

@@ -1,3 +1,4 @@
+import { describe, expect, it } from 'vitest';
 import {
   cycleTypeText,
   knownTo,
@@ -6,7 +7,7 @@ import {
   valuation,
   valueTex,
   valueText,
-} from './value-format';
+} from './values.js';
 
 // Harmonic trap, fermions: Z(2) = q^2/((1-q)(1-q^2)) = q^2 + q^3 + 2q^4 + 2q^5 + 3q^6 + ...
 // (Andrews, The Theory of Partitions, Cor. 2.2: Z(N) = q^(N^2/2)/(q;q)_N; the coefficients of

@@ -1,4 +1,5 @@
-import type { LargeNClassJson, LargeNJson, ValueJson } from '@traceloom/shared';
+import type { LargeNClassJson, LargeNJson } from '../engine/largen/types.js';
+import type { ValueJson } from '../engine/series/format.js';
 
 const list = (ns: readonly number[]): string => (ns.length ? ns.join(', ') : 'none');
 

@@ -1,18 +1,19 @@
-import type { ComputeResult } from '@traceloom/shared';
-import {
-  isNumericValue,
-  knownSentence,
-  type AnyValue,
-  type NumericValue,
-  type NumericVerdict,
-} from '../compute/numeric-values.js';
+import type { ComputeResult } from '../engine/result.js';
+import { errorTex, isNumericValue, numericDigits, numericError } from './numeric.js';
+import type { AnyValue } from './values.js';
+import { alignColumns } from './tables.js';
 
 type AiryFit = NonNullable<NonNullable<ComputeResult['largeN']>['airy']>;
 type CanonicalRow = ComputeResult['canonical'][number];
 
-/** A numeric value's determined digits and its error, as two cells. */
+/** True when a result was computed in numeric mode. */
+export function isNumericResult(r: Pick<ComputeResult, 'spec' | 'numeric'>): boolean {
+  return r.numeric !== undefined || r.spec.precision !== undefined;
+}
+
+/** A numeric value's determined digits (ungrouped, for pasting) and its error, as two cells. */
 export function numericCells(v: AnyValue): [real: string, error: string] {
-  return isNumericValue(v) ? [v.real, v.error] : ['', ''];
+  return isNumericValue(v) ? [numericDigits(v), numericError(v)] : ['', ''];
 }
 
 /** LaTeX of a decimal text: `1.25e-3` -> `1.25\times 10^{-3}`. */
@@ -23,15 +24,8 @@ export function decimalLatex(text: string): string {
   return m[1] === '1' ? `10^{${exp}}` : `${m[1]}\\times 10^{${exp}}`;
 }
 
-/** LaTeX of a numeric value: digits, then `\pm` error when it is not 0. */
-export function numericLatex(v: NumericValue): string {
-  return v.error === '0'
-    ? decimalLatex(v.real)
-    : `${decimalLatex(v.real)} \\pm ${decimalLatex(v.error)}`;
-}
-
 /** True when any row asked for a closed form (recognition ran). */
-export function hasRecognition(r: ComputeResult): boolean {
+export function hasRecognition(r: Pick<ComputeResult, 'canonical'>): boolean {
   return r.canonical.some((c) => c.recognized !== undefined || c.recognizeNote !== undefined);
 }
 
@@ -73,34 +67,12 @@ export function airyTitle(fit: AiryFit): string {
 }
 
 /** The numeric block's caution (how the errors were estimated), or none. */
-export function numericCaution(r: ComputeResult): string | null {
+export function numericCaution(r: Pick<ComputeResult, 'numeric'>): string | null {
   return r.numeric ? `caution: ${r.numeric.errorEstimate}` : null;
 }
 
-/** The heading of a numeric table: statistics and what is known. */
-export function numericHeading(r: ComputeResult): string {
-  return `${r.spec.title ?? 'gas'} — ${r.spec.statistics}s, ${knownSentence(r)}`;
-}
-
-/** One line for a numeric verdict: agreement within the tolerance, or the difference beyond it. */
-export function numericVerdictLine(label: string, k: number, v: NumericVerdict): string {
-  if (v.agrees) return `${label} ${k}: agrees within ${v.tolerance} (difference ${v.difference})`;
-  return `${label} ${k}: differs by ${v.difference}, beyond the tolerance ${v.tolerance}: computed ${v.computed.real} ± ${v.computed.error}, supplied ${v.supplied.real} ± ${v.supplied.error}`;
-}
-
-/** Aligned plain-text columns (every column padded but the last). */
-export function alignColumns(head: string[], rows: string[][]): string[] {
-  const w = head.map((h, i) => Math.max(h.length, ...rows.map((row) => (row[i] ?? '').length)));
-  const fmt = (row: string[]): string =>
-    row
-      .map((c, i) => (i < row.length - 1 ? c.padEnd(w[i]!) : c))
-      .join('  ')
-      .trimEnd();
-  return [fmt(head), fmt(w.map((n) => '-'.repeat(n))), ...rows.map(fmt)];
-}
-
 /** Plain-text lines of a numeric result's Airy fit (empty when there is none). */
-export function airyTableLines(r: ComputeResult): string[] {
+export function airyTableLines(r: Pick<ComputeResult, 'largeN'>): string[] {
   const fit = r.largeN?.airy;
   if (!fit) return [];
   const { params, residuals } = airyRows(fit);
@@ -110,4 +82,9 @@ export function airyTableLines(r: ComputeResult): string[] {
     '',
     ...alignColumns(['N', 'residual'], residuals),
   ];
+}
+
+/** LaTeX of an error text (`3e-30` -> `3 \times 10^{-30}`; `0` stays `0`). */
+export function errorLatex(error: string): string {
+  return error === '' || error === '0' ? '0' : errorTex(error);
 }
