@@ -1,4 +1,5 @@
 import {
+  fromValueJson,
   grandProductForm,
   seriesProductForm,
   type GrandProductJson,
@@ -6,7 +7,6 @@ import {
   type ValueJson,
 } from '@traceloom/shared/engine';
 import Fraction from 'fraction.js';
-import { seriesFromJson } from '../comparisons/compare-rows.js';
 
 /** What the worker needs for one product form: the series (or the whole table, for Xi). */
 export type ProductTask =
@@ -17,7 +17,7 @@ export type ProductTask =
 export function productTask(task: ProductTask): SeriesProductJson | GrandProductJson {
   if (task.target === 'grand') {
     const cap = task.order === null ? null : new Fraction(task.order);
-    return grandProductForm(task.canonical.map(seriesFromJson), cap);
+    return grandProductForm(task.canonical.map(fromValueJson), cap);
   }
-  return seriesProductForm(seriesFromJson(task.value), task.label);
+  return seriesProductForm(fromValueJson(task.value), task.label);
 }

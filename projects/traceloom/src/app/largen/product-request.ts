@@ -9,9 +9,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { messageOf } from '../core/api-error';
 import { ExportButtons } from '../exports/export-buttons';
-import type { ExportTable } from '../exports/export-files';
 import { Tex } from '../runs/tex';
-import { valueTex, valueText } from '../runs/value-format';
+import { tableLatex, toCsv, valueTex, valueText, type ExportTable } from '@traceloom/shared/format';
 import { productTex } from './large-n-format';
 import { ProductApi, type ProductFormDto, type ProductTarget } from './product-api';
 import { ProductExponents } from './product-exponents';
@@ -119,6 +118,14 @@ export class ProductRequest {
       };
     }
     return { columns: ['n', 'a_n'], rows: a.product.exponents.map((e) => [e.n, e.a]) };
+  }
+  /** The answer as CSV (called on click). */
+  protected csvText(a: ProductFormDto): () => string {
+    return () => toCsv(this.exportTable(a));
+  }
+  /** The answer as LaTeX in the export layout (called on click). */
+  protected latexText(a: ProductFormDto): () => string {
+    return () => tableLatex(this.exportTable(a), [], this.exportTitle(a));
   }
   /** File name base of the exports. */
   protected exportTitle(a: ProductFormDto): string {
