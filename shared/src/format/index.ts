@@ -11,6 +11,7 @@ export * from './numeric.js';
 export * from './numeric-render.js';
 export * from './render.js';
 export * from './render-latex.js';
+export * from './sectors-text.js';
 export * from './tables.js';
 export * from './values.js';
 export * from './verdicts.js';

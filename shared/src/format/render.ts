@@ -3,6 +3,7 @@ import type { ValueJson } from '../engine/series/format.js';
 import { knownSentence } from './known.js';
 import { largeNTableLines } from './largen-text.js';
 import { coefficientMatrixCsv } from './matrix.js';
+import { sectorCsvLines, sectorTableLines } from './sectors-text.js';
 import { isNumericValue } from './numeric.js';
 import {
   airyRows,
@@ -147,6 +148,7 @@ export function renderTable(r: ComputeResult): string {
     const t = classTable(r.classes, x);
     lines.push('', 'class table', ...alignColumns(t.columns, t.rows));
   }
+  lines.push(...sectorTableLines(r));
   lines.push(...largeNTableLines(r.largeN, (v: ValueJson) => valueText(v, x)));
   const airy = airyTableLines(r);
   if (airy.length) lines.push('', ...airy);
@@ -166,6 +168,7 @@ export function renderCsv(r: ComputeResult): string {
   const numeric = isNumericResult(r);
   const lines = csvLines(canonicalTable(r.canonical, x, numeric));
   if (r.classes.length > 0) lines.push('', ...csvLines(classTable(r.classes, x)));
+  if (!numeric) lines.push(...sectorCsvLines(r));
   const fit = r.largeN?.airy;
   if (fit) {
     const { params, residuals } = airyRows(fit);

@@ -1,6 +1,5 @@
 import type { SectorRowJson, SectorsJson } from '@traceloom/shared/engine';
-import type { ExportTable } from '../exports/export-files';
-import { valueText, type AnyValue } from '../runs/value-format';
+import { valueText, type AnyValue, type ExportTable } from '@traceloom/shared/format';
 
 /** One line of the Sectors tab. */
 export interface SectorLine {

@@ -4,6 +4,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import type { SectorsJson } from '@traceloom/shared/engine';
+import { tableLatex, toCsv } from '@traceloom/shared/format';
 import { ExportButtons } from '../exports/export-buttons';
 import {
   sectorExport,
@@ -55,6 +56,14 @@ export class SectorTable {
     'contributed',
   ]);
   protected readonly exportTable = computed(() => sectorExport(this.block(), this.lines()));
+  protected readonly csvText = computed(() => {
+    const table = this.exportTable();
+    return () => toCsv(table);
+  });
+  protected readonly latexText = computed(() => {
+    const table = this.exportTable();
+    return () => tableLatex(table, [], `${this.title()} sectors`);
+  });
   protected readonly viewportHeight = computed(
     () => Math.min(this.lines().length, VISIBLE_ROWS) * ROW_PX + ROW_PX + 4,
   );

@@ -1,4 +1,5 @@
-import type { ComputeResult, SectorRowJson } from '@traceloom/shared';
+import type { ComputeResult, SectorRowJson } from '../engine/result.js';
+import { csvRow } from './tables.js';
 
 /** Sectors listed one per line in the plain-text table before the rest is summarized. */
 const SHOWN = 40;
@@ -45,7 +46,7 @@ export function sectorTableLines(r: ComputeResult): string[] {
 }
 
 /** CSV lines of the sector breakdown of a series result (after a blank line): one row per sector. */
-export function sectorCsvLines(r: ComputeResult, cell: (s: string) => string): string[] {
+export function sectorCsvLines(r: ComputeResult): string[] {
   const s = r.sectors;
   if (!s) return [];
   const head = [
@@ -53,12 +54,14 @@ export function sectorCsvLines(r: ComputeResult, cell: (s: string) => string): s
     'contributed',
     ...s.rows[0]!.valuations.map((_, i) => `val Z_n(${i + 1})`),
   ];
-  const out = ['', head.map(cell).join(',')];
+  const out = ['', csvRow(head)];
   for (const row of s.rows)
     out.push(
-      [...row.index.map(String), String(row.contributed), ...row.valuations.map((v) => v ?? '')]
-        .map(cell)
-        .join(','),
+      csvRow([
+        ...row.index.map(String),
+        String(row.contributed),
+        ...row.valuations.map((v) => v ?? ''),
+      ]),
     );
   return out;
 }
