@@ -1,4 +1,4 @@
-import { rationalNumber } from '../runs/value-format';
+import { rationalNumber } from '@traceloom/shared/format';
 
 /** A series value of the result format: exponent/coefficient pairs, `order` null when exact. */
 export interface SeriesJson {

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import { plainPower } from '../runs/value-format';
+import { plainPower } from '@traceloom/shared/format';
 import { seriesDiff, type SeriesJson } from './series-diff';
 
 /**
