@@ -1,6 +1,6 @@
 // Bundles the compiled command line (dist/server/cli/main.js and the shared library it imports)
 // into one file, dist/cli/traceloom.mjs: one module to load instead of some 130, which is most of
-// the command's start-up (see docs/benchmarks.md). `npm run build:server` runs it after tsc.
+// the command's start-up (see bench/README.md). `npm run build:server` runs it after tsc.
 import { build } from 'esbuild';
 import { existsSync } from 'node:fs';
 import path from 'node:path';

@@ -4,7 +4,13 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Gas } from '../db/entities/index.js';
 import { bearer, TRAP_SPEC } from '../testing/gas-fixtures.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 
 let t: TestApp;
 let server: Server;
@@ -19,7 +25,10 @@ beforeAll(async () => {
   server = t.app.listen(0);
   // Warm the worker pools first: the limits are about answers, not about worker start-up.
   for (let i = 0; i < 20; i++) {
-    const res = await request(server).post('/api/compute').set('Authorization', bearer(token)).send({ spec: TRAP_SPEC });
+    const res = await request(server)
+      .post('/api/compute')
+      .set('Authorization', bearer(token))
+      .send({ spec: TRAP_SPEC });
     if (res.status === 200) break;
   }
 });
@@ -28,7 +37,10 @@ afterAll(async () => {
   await t.close();
 });
 
-const formula = (expression: string) => ({ ...TRAP_SPEC, weights: { kind: 'formula', expression } });
+const formula = (expression: string) => ({
+  ...TRAP_SPEC,
+  weights: { kind: 'formula', expression },
+});
 
 /** Adversarial expressions written by hand; each must be refused, quickly. */
 const HAND_EXPRESSIONS = [
@@ -105,7 +117,10 @@ const HAND_SPECS: unknown[] = [
   JSON.parse(`{"__proto__": ${JSON.stringify(TRAP_SPEC)}}`),
   { ...TRAP_SPEC, constructor: { prototype: { polluted: true } } },
   { ...TRAP_SPEC, weights: { kind: '__proto__' } },
-  { ...TRAP_SPEC, weights: JSON.parse('{"kind": "formula", "expression": "q", "__proto__": {"x": 1}}') },
+  {
+    ...TRAP_SPEC,
+    weights: JSON.parse('{"kind": "formula", "expression": "q", "__proto__": {"x": 1}}'),
+  },
   { ...TRAP_SPEC, nMax: 1e300 },
   { ...TRAP_SPEC, nMax: -1 },
   { ...TRAP_SPEC, nMax: 2.5 },
@@ -120,8 +135,14 @@ const HAND_SPECS: unknown[] = [
   { ...TRAP_SPEC, statistics: 'anyon' },
   { ...TRAP_SPEC, weights: { kind: 'values', values: [] } },
   { ...TRAP_SPEC, weights: { kind: 'values', values: ['1'] } },
-  { ...TRAP_SPEC, weights: { kind: 'spectrum', expression: 'q^abs(p)', offset: 'half', from: null, to: null } },
-  { ...TRAP_SPEC, weights: { kind: 'spectrum', expression: '1', offset: '0', from: null, to: null } },
+  {
+    ...TRAP_SPEC,
+    weights: { kind: 'spectrum', expression: 'q^abs(p)', offset: 'half', from: null, to: null },
+  },
+  {
+    ...TRAP_SPEC,
+    weights: { kind: 'spectrum', expression: '1', offset: '0', from: null, to: null },
+  },
   { ...TRAP_SPEC, grand: { kind: 'expression', expression: 'kappa^' } },
   { ...TRAP_SPEC, grand: { kind: 'coefficients', values: [] } },
   { ...TRAP_SPEC, reference: { normalization: '1', rows: [{ N: 99, value: '1' }] } },
@@ -130,19 +151,42 @@ const HAND_SPECS: unknown[] = [
 
 /** Malformed expressions that cannot be valid: a random text with an unclosed call appended. */
 const brokenExpression = fc
-  .tuple(fc.string({ maxLength: 60, unit: 'grapheme' }), fc.constantFrom('(', '+', '^', '*(', 'sum(', ',', '['))
+  .tuple(
+    fc.string({ maxLength: 60, unit: 'grapheme' }),
+    fc.constantFrom('(', '+', '^', '*(', 'sum(', ',', '['),
+  )
   .map(([text, tail]) => `${text}${tail}`);
 
 /** Specs with one field replaced by a value of the wrong kind. */
 const wrongField = fc
   .tuple(
-    fc.constantFrom('format', 'statistics', 'variable', 'step', 'order', 'nMax', 'classTable', 'weights', 'grand'),
-    fc.oneof(fc.integer(), fc.double(), fc.boolean(), fc.constant(null), fc.array(fc.integer(), { maxLength: 3 }), fc.string({ maxLength: 8 }).map((s) => `~${s}`), fc.object({ maxDepth: 2 })),
+    fc.constantFrom(
+      'format',
+      'statistics',
+      'variable',
+      'step',
+      'order',
+      'nMax',
+      'classTable',
+      'weights',
+      'grand',
+    ),
+    fc.oneof(
+      fc.integer(),
+      fc.double(),
+      fc.boolean(),
+      fc.constant(null),
+      fc.array(fc.integer(), { maxLength: 3 }),
+      fc.string({ maxLength: 8 }).map((s) => `~${s}`),
+      fc.object({ maxDepth: 2 }),
+    ),
   )
   .map(([key, value]) => ({ ...TRAP_SPEC, [key]: value }));
 
 /** Random JSON values as a whole spec. */
-const randomSpec = fc.jsonValue({ maxDepth: 3 }).filter((v) => !(v && typeof v === 'object' && !Array.isArray(v) && 'format' in v));
+const randomSpec = fc
+  .jsonValue({ maxDepth: 3 })
+  .filter((v) => !(v && typeof v === 'object' && !Array.isArray(v) && 'format' in v));
 
 interface Probe {
   label: string;
@@ -162,13 +206,25 @@ function cases(): Probe[] {
   }
   const seed = 20261201;
   for (const [i, e] of fc.sample(brokenExpression, { numRuns: 400, seed }).entries()) {
-    out.push({ label: `broken expression ${JSON.stringify(e)}`, method: i % 2 ? 'gas' : 'compute', spec: formula(e) });
+    out.push({
+      label: `broken expression ${JSON.stringify(e)}`,
+      method: i % 2 ? 'gas' : 'compute',
+      spec: formula(e),
+    });
   }
   for (const [i, s] of fc.sample(wrongField, { numRuns: 300, seed }).entries()) {
-    out.push({ label: `wrong field ${JSON.stringify(s).slice(0, 80)}`, method: i % 2 ? 'gas' : 'compute', spec: s });
+    out.push({
+      label: `wrong field ${JSON.stringify(s).slice(0, 80)}`,
+      method: i % 2 ? 'gas' : 'compute',
+      spec: s,
+    });
   }
   for (const [i, s] of fc.sample(randomSpec, { numRuns: 200, seed }).entries()) {
-    out.push({ label: `random spec ${JSON.stringify(s).slice(0, 60)}`, method: i % 2 ? 'gas' : 'compute', spec: s });
+    out.push({
+      label: `random spec ${JSON.stringify(s).slice(0, 60)}`,
+      method: i % 2 ? 'gas' : 'compute',
+      spec: s,
+    });
   }
   return out;
 }
@@ -183,13 +239,22 @@ describe('fuzz: malformed and adversarial specs', () => {
     for (const probe of all) {
       const path = probe.method === 'compute' ? '/api/compute' : `/api/studies/${studyId}/gases`;
       const t0 = performance.now();
-      const res = await request(server).post(path).set('Authorization', bearer(token)).send({ spec: probe.spec });
+      const res = await request(server)
+        .post(path)
+        .set('Authorization', bearer(token))
+        .send({ spec: probe.spec });
       const ms = performance.now() - t0;
       slowest = Math.max(slowest, ms);
-      const ok = res.status >= 400 && res.status < 500 && typeof res.body?.error?.field === 'string';
-      if (!ok || ms >= 2000) failures.push(`${probe.method} ${probe.label}: ${res.status} ${ms.toFixed(0)} ms ${JSON.stringify(res.body).slice(0, 160)}`);
+      const ok =
+        res.status >= 400 && res.status < 500 && typeof res.body?.error?.field === 'string';
+      if (!ok || ms >= 2000)
+        failures.push(
+          `${probe.method} ${probe.label}: ${res.status} ${ms.toFixed(0)} ms ${JSON.stringify(res.body).slice(0, 160)}`,
+        );
     }
-    console.log(`fuzz: ${all.length} inputs, slowest answer ${slowest.toFixed(0)} ms, ${failures.length} failures`);
+    console.log(
+      `fuzz: ${all.length} inputs, slowest answer ${slowest.toFixed(0)} ms, ${failures.length} failures`,
+    );
     expect(failures).toEqual([]);
     expect(await t.dataSource.getRepository(Gas).count()).toBe(gasesBefore);
     const health = await request(server).get('/api/health');

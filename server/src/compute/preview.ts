@@ -1,3 +1,4 @@
+import { fieldLabel } from '@traceloom/shared/format';
 import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
 import Fraction from 'fraction.js';
 import type { AppContext } from '../app-context.js';
@@ -13,7 +14,7 @@ export const PREVIEW_LIMITS = { nMax: 12, orderSteps: 200, classTable: 8 } as co
 export const NUMERIC_PREVIEW_LIMITS = { precision: 20, nMax: 6, classTable: 3 } as const;
 
 function tooBig(field: string, message: string): never {
-  throw new AppError(400, 'invalid_spec', `${field}: ${message}.`, field);
+  throw new AppError(400, 'invalid_spec', `${fieldLabel(field)}: ${message}.`, field);
 }
 
 /** Refuses a numeric spec beyond the numeric preview's caps (digits, N, class table). */

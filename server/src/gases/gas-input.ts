@@ -1,3 +1,4 @@
+import { fieldLabel } from '@traceloom/shared/format';
 import { EngineError, parseGasSpec, type GasSpec } from '@traceloom/shared/engine';
 import { z } from 'zod';
 import { AppError } from '../http/app-error.js';
@@ -10,7 +11,7 @@ export const MAX_LIST_ENTRIES = 1000;
 export const gasBodySchema = z.strictObject({ spec: z.unknown() });
 
 function refuse(message: string, field: string): never {
-  throw new AppError(400, 'invalid_spec', `${field}: ${message}.`, field);
+  throw new AppError(400, 'invalid_spec', `${fieldLabel(field)}: ${message}.`, field);
 }
 
 /** Keys refused anywhere in a spec: they could reach an object's prototype. */

@@ -63,18 +63,21 @@ describe('gases', () => {
   });
 
   it.each([
-    [{ ...TRAP_SPEC, nMax: 201 }, 'spec.nMax', 'at most 200'],
-    [{ ...TRAP_SPEC, order: '20001' }, 'spec.order', 'more than 20000 steps'],
-    [{ ...TRAP_SPEC, classTable: 41, nMax: 50 }, 'spec.classTable', 'at most 40'],
-    [{ ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q'.repeat(4097) } }, 'spec.weights.expression', '4096'],
-    [{ ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q^(L/2' } }, 'spec.weights.expression', 'cannot read'],
-    [{ ...TRAP_SPEC, weights: { kind: 'values', values: Array(1001).fill('1') } }, 'spec.weights.values', 'the limit is 1000'],
-    [{ ...TRAP_SPEC, format: 'other' }, 'spec.format', 'traceloom.gas/1'],
-    [{ ...TRAP_SPEC, statistics: undefined }, 'spec.statistics', 'must be "fermion" or "boson"'],
-  ])('refuses a bad spec with 400 naming the field and limit (%#)', async (spec, field, text) => {
+    [{ ...TRAP_SPEC, nMax: 201 }, 'spec.nMax', 'N_max: ', 'at most 200'],
+    [{ ...TRAP_SPEC, order: '20001' }, 'spec.order', 'Order: ', 'more than 20000 steps'],
+    [{ ...TRAP_SPEC, classTable: 41, nMax: 50 }, 'spec.classTable', 'Class-table depth: ', 'at most 40'],
+    [{ ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q'.repeat(4097) } }, 'spec.weights.expression', 'Cycle-weight expression: ', '4096'],
+    [{ ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q^(L/2' } }, 'spec.weights.expression', 'Cycle-weight expression: ', 'cannot read'],
+    [{ ...TRAP_SPEC, weights: { kind: 'values', values: Array(1001).fill('1') } }, 'spec.weights.values', 'Cycle weights: ', 'the limit is 1000'],
+    [{ ...TRAP_SPEC, format: 'other' }, 'spec.format', 'Gas: ', 'traceloom.gas/1'],
+    [{ ...TRAP_SPEC, statistics: undefined }, 'spec.statistics', 'Statistics: ', 'must be "fermion" or "boson"'],
+  ])('refuses a bad spec with 400 naming the field and limit (%#)', async (spec, field, label, text) => {
     const res = await api('post', `/studies/${studyId}/gases`).send({ spec });
     expect(res.status).toBe(400);
     expect(res.body.error.field).toBe(field);
+    // the message names the field as the gas form labels it, never by its internal path
+    expect(res.body.error.message.startsWith(label)).toBe(true);
+    expect(res.body.error.message).not.toContain('spec.');
     expect(res.body.error.message).toContain(text);
   });
 });

@@ -1,9 +1,11 @@
+import { fieldLabel } from '@traceloom/shared/format';
 import type { z } from 'zod';
 import { AppError, notFound } from './app-error.js';
 
 /**
  * Parses `input` with `schema` or throws 400 `invalid_input` naming the first offending field
- * (its dotted path, e.g. `title`) in both `field` and the message.
+ * (its dotted path, e.g. `title`) in `field` and the message; a gas-spec path is named in the
+ * message by its label in the gas form (`spec.nMax` -> `N_max`, see `fieldLabel`).
  */
 export function parseInput<S extends z.ZodType>(schema: S, input: unknown): z.output<S> {
   const result = schema.safeParse(input);
@@ -13,13 +15,13 @@ export function parseInput<S extends z.ZodType>(schema: S, input: unknown): z.ou
   if (issue.code === 'unrecognized_keys') {
     const key = issue.keys[0];
     const field = path ? `${path}.${key}` : key;
-    return fail(`${field}: is not a known field.`, field);
+    return fail(`${fieldLabel(field)}: is not a known field.`, field);
   }
   if (path === '') {
     const message = input === undefined ? 'expected a JSON object' : issue.message;
     return fail(`Request body: ${message}.`);
   }
-  return fail(`${path}: ${issue.message}.`, path);
+  return fail(`${fieldLabel(path)}: ${issue.message}.`, path);
 }
 
 function fail(message: string, field?: string): never {

@@ -46,7 +46,7 @@ export async function acceptInvitation(
     new AppError(
       400,
       'invalid_invitation',
-      'key: this invitation link is unknown, already used or expired; ask an admin for a new one.',
+      'This invitation link is unknown, already used or expired; ask an admin for a new one.',
       'key',
     );
   const [invitationId, expires, sig] = input.key.split('.') as [string, string, string];

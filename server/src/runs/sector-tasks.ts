@@ -53,7 +53,7 @@ export function sectorAssembleTask(task: SectorAssembleTask) {
       const t = Date.now();
       if (t - last < 50) return;
       last = t;
-      task.port.postMessage({ phase: 'classes', done, total });
+      task.port.postMessage({ phase: 'classSum', done, total });
     },
     tick() {},
   };

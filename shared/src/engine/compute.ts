@@ -105,7 +105,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
   const t4 = now();
 
   if (spec.classTable > 0) {
-    progress.phase('classes', spec.classTable);
+    progress.phase('classSum', spec.classTable);
     methods.classSum = checkClassSums(
       w.weights,
       spec.classTable,

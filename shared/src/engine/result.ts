@@ -142,7 +142,7 @@ export interface ComputeResult {
 
 /** Progress report: a phase and how far it is. */
 export interface Progress {
-  phase: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classes' | 'sectors';
+  phase: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classSum' | 'sectors';
   done: number;
   total: number;
 }

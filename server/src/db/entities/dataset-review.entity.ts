@@ -85,7 +85,7 @@ export class DatasetComment {
   createdAt!: string;
 }
 
-/** A steward's written reason for accepting a red check (one row N of it, or all of it). */
+/** A steward's written reason for accepting a check that fails (one row N of it, or all of it). */
 @Entity('dataset_waiver')
 @Index('IDX_dataset_waiver_dataset', ['dataset'])
 export class DatasetWaiver {

@@ -26,7 +26,7 @@ export const ERROR_ESTIMATE_TEXT =
 
 interface Progressing extends Pace {
   phase(
-    p: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classes',
+    p: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classSum',
     total: number,
   ): void;
   step(done: number, total: number): void;
@@ -82,7 +82,7 @@ export function computeNumeric(
   const classes: ClassRowJson[] = [];
   const keep = opts.collectClasses ?? !(opts.onClass || opts.onClassText);
   if (spec.classTable > 0) {
-    progress.phase('classes', spec.classTable);
+    progress.phase('classSum', spec.classTable);
     const sums: Estimate[] = [{ value: newton[0]!.value, error: 0 }];
     for (let N = 1; N <= spec.classTable; N++) {
       sums.push(

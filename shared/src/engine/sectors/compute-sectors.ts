@@ -190,7 +190,7 @@ function classTable(
   agrees: boolean[],
 ): void {
   if (spec.classTable === 0 || sectors.length === 0) return;
-  progress.phase('classes', spec.classTable);
+  progress.phase('classSum', spec.classTable);
   const keep = opts.collectClasses ?? !(opts.onClass || opts.onClassText);
   const rows = sectors[0]!.part.classes;
   const perN: Series[][] = [];

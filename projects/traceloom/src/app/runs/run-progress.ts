@@ -1,3 +1,4 @@
+import { phaseName } from '@traceloom/shared/format';
 import { DecimalPipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -100,7 +101,7 @@ export class RunProgressPanel {
     if (event.type === 'progress') {
       this.done.set(event.done);
       this.total.set(event.total);
-      this.phase.set(event.phase);
+      this.phase.set(event.phase ? phaseName(event.phase) : null);
       return;
     }
     this.error.set(runErrorText(event.error));
