@@ -205,6 +205,11 @@ describe('traceloom compute, sector sums', () => {
     expect(r.out).toMatch(/sectors per row: N=1: \d+, N=2: \d+, N=3: \d+/);
     // sector n = 0 is the ring q^|p|: Z_0(1..3) start at q^0, q^1, q^2
     expect(r.out).toMatch(/\(n=0\)\s+yes\s+0 1 2/);
+    // the lattice cut of every sector is said once
+    expect(r.out.match(/spectrum lattice points cut off/g)).toHaveLength(1);
+    expect(r.out).toMatch(
+      /spectrum lattice points cut off at the order after \d+–\d+ terms \(\d+ times\)/,
+    );
   });
 
   it('lists every sector in csv and refuses a divergent sum naming sectors', () => {

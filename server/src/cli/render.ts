@@ -98,11 +98,23 @@ function checkLines(r: ComputeResult): string[] {
   for (const v of r.impliedWeights ?? []) out.push(verdictLine('implied weight L =', v.L, v));
   for (const v of r.referenceCheck ?? []) out.push(verdictLine('reference N =', v.N, v));
   const numeric = isNumericResult(r);
+  // a cut repeated in many sectors is said once, with how often and the range of terms
+  const groups = new Map<string, { field: string; what: string; terms: number[] }>();
   for (const t of r.truncations) {
+    const key = `${t.field}\u0000${t.what}`;
+    const g = groups.get(key) ?? { field: t.field, what: t.what, terms: [] };
+    g.terms.push(t.terms);
+    groups.set(key, g);
+  }
+  for (const g of groups.values()) {
+    const lo = Math.min(...g.terms);
+    const hi = Math.max(...g.terms);
+    const terms = lo === hi ? `${lo} terms` : `${lo}–${hi} terms`;
+    const times = g.terms.length > 1 ? ` (${g.terms.length} times)` : '';
     out.push(
       numeric
-        ? `${t.field}: ${t.what} stopped by the tolerance rule after ${t.terms} terms`
-        : `${t.field}: ${t.what} cut off at the order after ${t.terms} terms`,
+        ? `${g.field}: ${g.what} stopped by the tolerance rule after ${terms}${times}`
+        : `${g.field}: ${g.what} cut off at the order after ${terms}${times}`,
     );
   }
   return out;
