@@ -83,8 +83,20 @@ export function csvCell(s: string): string {
   return /[",\n\r]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
 }
 
+/** A canonical row's value, or "not determined (O(q^k))" when no coefficient of it is known. */
+function rowValueText(c: ComputeResult['canonical'][number], variable: string): string {
+  return c.determined === false
+    ? `not determined (${valueText(c.value, variable)})`
+    : valueText(c.value, variable);
+}
+
+/** A canonical row's route agreement: yes, NO, or not compared (row not determined). */
+const agreeText = (agrees: boolean | null): string =>
+  agrees === null ? 'not compared' : agrees ? 'yes' : 'NO';
+
 function verdictLine(label: string, k: number, v: AnyRowVerdict | AnyWeightVerdict): string {
   if (isNumericVerdict(v)) return numericVerdictLine(label, k, v);
+  if (v.agrees === null) return `${label} ${k}: not compared (not determined at the order)`;
   const below = v.agreesBelow === null ? 'exactly' : `below exponent ${v.agreesBelow}`;
   if (v.agrees) return `${label} ${k}: agrees ${below}`;
   const m = v.firstMismatch!;
@@ -130,8 +142,8 @@ export function renderTable(r: ComputeResult): string {
   const rows = r.canonical.map((c) => [
     String(c.N),
     c.routes.join('+'),
-    c.agrees ? 'yes' : 'NO',
-    valueText(c.value, x),
+    agreeText(c.agrees),
+    rowValueText(c, x),
   ]);
   const head = ['N', 'routes', 'agree', 'Z(N)'];
   const w = head.map((h, i) => Math.max(h.length, ...rows.map((row) => row[i]!.length)));
@@ -151,6 +163,7 @@ export function renderTable(r: ComputeResult): string {
   lines.push(...largeNTableLines(r.largeN, (v) => valueText(v, x)));
   const checks = checkLines(r);
   if (checks.length) lines.push('', ...checks);
+  if (r.orderAdvice) lines.push('', r.orderAdvice.message);
   return lines.join('\n') + '\n';
 }
 
@@ -164,7 +177,12 @@ export function renderCsv(r: ComputeResult): string {
   const lines = ['N,Z(N),routes,agree'];
   for (const c of r.canonical) {
     lines.push(
-      [String(c.N), valueText(c.value, x), c.routes.join('+'), String(c.agrees)]
+      [
+        String(c.N),
+        rowValueText(c, x),
+        c.routes.join('+'),
+        c.agrees === null ? 'not compared' : String(c.agrees),
+      ]
         .map(csvCell)
         .join(','),
     );
@@ -188,7 +206,10 @@ export function renderLatex(r: ComputeResult): string {
   if (isNumericResult(r)) return numericLatexTables(r);
   const x = r.spec.variable;
   const out = ['\\begin{tabular}{rl}', '\\toprule', `$N$ & $Z(N)$ \\\\`, '\\midrule'];
-  for (const c of r.canonical) out.push(`${c.N} & $${valueLatex(c.value, x)}$ \\\\`);
+  for (const c of r.canonical) {
+    const tex = valueLatex(c.value, x);
+    out.push(`${c.N} & $${c.determined === false ? `\\text{not determined: } ${tex}` : tex}$ \\\\`);
+  }
   out.push('\\bottomrule', '\\end{tabular}');
   if (r.classes.length > 0) {
     out.push(
@@ -217,7 +238,7 @@ function numericTable(r: ComputeResult): string {
   const rows = r.canonical.map((c) => [
     String(c.N),
     c.routes.join('+'),
-    c.agrees ? 'yes' : 'NO',
+    agreeText(c.agrees),
     ...numericCells(c.value),
     ...(recognize ? [closedFormText(c)] : []),
   ]);

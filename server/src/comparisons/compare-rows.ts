@@ -9,20 +9,19 @@ import {
   Series,
   toValueJson,
   type GasSpec,
+  type RowVerdict,
   type ValueJson,
-  type Verdict,
 } from '@traceloom/shared/engine';
 import type { NumericVerdict } from '../compute/numeric-values.js';
 
-/** A series row verdict as the API gives it. */
-export interface SeriesRowVerdictDto extends Verdict {
-  N: number;
-  /**
-   * A row that differs carries both sides whole, so every differing coefficient can be shown:
-   * normalization(N) * Z(N) as computed, and the table's value as supplied.
-   */
+/**
+ * A series row verdict as the API gives it ("not compared" when Z(N) is not determined). A row
+ * that differs carries both sides whole, so every differing coefficient can be shown:
+ * normalization(N) * Z(N) as computed, and the table's value as supplied.
+ */
+export type SeriesRowVerdictDto = RowVerdict & {
   series?: { computed: ValueJson; supplied: ValueJson };
-}
+};
 
 /** A numeric row verdict: computed and supplied values compared within the combined tolerance. */
 export type NumericRowVerdictDto = NumericVerdict & { N: number };
@@ -77,7 +76,13 @@ export function compareReferenceRows(task: CompareTask): RowVerdictDto[] {
     field,
   });
   return task.rows.map((row) => {
-    const z = seriesFromJson(task.canonical[row.N]!);
+    const value = task.canonical[row.N]!;
+    if (value.order !== null && value.terms.length === 0) {
+      // Z(N) is not determined at the order: nothing to compare (PRODUCT.md, "Honest rows")
+      const notCompared = { agrees: null, agreesBelow: null, firstMismatch: null } as const;
+      return { N: row.N, ...notCompared, determined: false as const };
+    }
+    const z = seriesFromJson(value);
     const factor = evaluateSeries(task.normalization, options('normalization', row.N));
     const found = evaluateSeries(row.value, options(`line ${row.line}`, row.N));
     const computed = mul(factor, z, cap);

@@ -4,10 +4,13 @@ import { isNumericVerdict, type NumericVerdict } from '../compute/numeric-values
 import type { DatasetSnapshot } from './snapshot.js';
 
 interface SeriesVerdictLike {
-  agrees: boolean;
+  agrees: boolean | null;
   agreesBelow: string | null;
   firstMismatch: { exponent: string; expected: string; found: string } | null;
 }
+
+/** The detail of a check on a row that is not determined at the order. */
+const NOT_COMPARED = 'not compared: Z(N) is not determined at the order';
 
 /** A verdict's detail: where a series agrees, or within which tolerance a number does. */
 function verdictDetail(v: SeriesVerdictLike | NumericVerdict): string {
@@ -16,6 +19,7 @@ function verdictDetail(v: SeriesVerdictLike | NumericVerdict): string {
       ? `agrees within ${v.tolerance} (difference ${v.difference})`
       : `differs by ${v.difference}, beyond the tolerance ${v.tolerance}: computed ${v.computed.real} ± ${v.computed.error}, supplied ${v.supplied.real} ± ${v.supplied.error}`;
   }
+  if (v.agrees === null) return NOT_COMPARED;
   if (v.agrees) {
     return v.agreesBelow === null ? 'agrees exactly' : `agrees below exponent ${v.agreesBelow}`;
   }
@@ -33,7 +37,7 @@ const ROUTE_NAMES: Record<string, string> = {
   fredholm: 'Fredholm determinant',
 };
 
-type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean };
+type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean | null };
 
 /**
  * Every check row a snapshot carries: agreement of the routes to Z(N), the grand check and the
@@ -51,13 +55,16 @@ function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
       label: `Z(N) by ${c.routes.map((r) => ROUTE_NAMES[r] ?? r).join(', ')}`,
       N: c.N,
       agrees: c.agrees,
-      detail: numeric
-        ? c.agrees
-          ? 'the routes agree within their errors'
-          : 'the routes differ by more than their errors'
-        : c.agrees
-          ? 'the routes agree term by term'
-          : 'the routes disagree',
+      detail:
+        c.agrees === null
+          ? NOT_COMPARED
+          : numeric
+            ? c.agrees
+              ? 'the routes agree within their errors'
+              : 'the routes differ by more than their errors'
+            : c.agrees
+              ? 'the routes agree term by term'
+              : 'the routes disagree',
     });
   }
   for (const v of r.grandCheck ?? []) {
@@ -109,12 +116,13 @@ export function datasetChecks(
   waivers: readonly DatasetWaiver[],
 ): DatasetCheckDto[] {
   return checkRows(snapshot).map(({ agrees, ...row }) => {
-    const waiver = agrees
-      ? undefined
-      : waivers.find((w) => w.check === row.check && (w.rowN === null || w.rowN === row.N));
+    const waiver =
+      agrees !== false
+        ? undefined
+        : waivers.find((w) => w.check === row.check && (w.rowN === null || w.rowN === row.N));
     return {
       ...row,
-      status: agrees ? 'green' : waiver ? 'waived' : 'red',
+      status: agrees === null ? 'not compared' : agrees ? 'green' : waiver ? 'waived' : 'red',
       waiver: waiver
         ? {
             reason: waiver.reason,

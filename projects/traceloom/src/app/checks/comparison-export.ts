@@ -7,8 +7,8 @@ export function comparisonExport(comparison: ComparisonDto): ExportTable {
     columns: ['N', 'agrees', 'agrees below', 'first mismatch at', 'computed', 'table'],
     rows: comparison.rows.map((r) => [
       String(r.N),
-      r.agrees ? 'yes' : 'no',
-      r.agreesBelow ?? 'exact',
+      r.agrees === null ? 'not compared' : r.agrees ? 'yes' : 'no',
+      r.agrees === null ? '' : (r.agreesBelow ?? 'exact'),
       r.firstMismatch?.exponent ?? '',
       r.firstMismatch?.expected ?? '',
       r.firstMismatch?.found ?? '',

@@ -6,12 +6,16 @@ export type CellState = 'agrees' | 'differs' | 'unchecked';
 /** One row verdict in the shape the engine and the API share. */
 export interface VerdictLike {
   N: number;
-  agrees: boolean;
+  /** null: "not compared", the computed row is not determined at the order. */
+  agrees: boolean | null;
   agreesBelow: string | null;
   firstMismatch: { exponent: string; expected: string; found: string } | null;
 }
 
 const EPS = 1e-9;
+
+/** A check on a row that is not determined at the order: nothing was compared. */
+export const NOT_COMPARED = 'not compared (not determined at the order)';
 
 /**
  * The state of the coefficient of q^exponent in a row: below the first mismatch (or below the
@@ -19,6 +23,7 @@ const EPS = 1e-9;
  * determine, it was not checked.
  */
 export function cellState(row: VerdictLike, exponent: string): CellState {
+  if (row.agrees === null) return 'unchecked';
   const e = rationalNumber(exponent);
   if (row.firstMismatch) {
     const m = rationalNumber(row.firstMismatch.exponent);
@@ -86,6 +91,7 @@ export function numericVerdictText(row: NumericVerdictLike): string {
 /** A row's verdict in words: `agrees to O(q^40)`, `exact agreement`, `differs at q^3: 8 vs 4`. */
 export function verdictText(row: VerdictLike | NumericVerdictLike, variable = 'q'): string {
   if (isNumericVerdict(row)) return numericVerdictText(row);
+  if (row.agrees === null) return NOT_COMPARED;
   if (row.firstMismatch) {
     const m = row.firstMismatch;
     return `differs at ${plainPower(variable, m.exponent) || '1'}: expected ${m.expected}, found ${m.found}`;

@@ -13,6 +13,8 @@ import {
 } from './numeric-value';
 import {
   AnyValue,
+  NOT_DETERMINED,
+  isUndetermined,
   knownTo,
   leadingTerm,
   leadingTermTex,
@@ -55,7 +57,10 @@ export interface CanonicalLine {
   termCount: number;
   knownTo: string;
   routes: string[];
-  agrees: boolean;
+  /** null: the row is not determined at the order, so the routes were not compared. */
+  agrees: boolean | null;
+  /** False when no coefficient of Z(N) is determined at the order. */
+  determined: boolean;
   text: string;
   /** Sector mode: how many sectors made this row (null outside sector mode). */
   sectors: number | null;
@@ -106,7 +111,8 @@ export function canonicalLines(
     termCount: isNumericValue(row.value) ? 0 : row.value.terms.length,
     knownTo: knownTo(row.value, variable),
     routes: [...(row.routes ?? ['recursion'])],
-    agrees: row.agrees ?? true,
+    agrees: isUndetermined(row.value) ? null : (row.agrees ?? true),
+    determined: !isUndetermined(row.value),
     text: valueText(row.value, variable),
     sectors: row.sectors ?? null,
   }));
@@ -131,6 +137,7 @@ export function agreementText(line: CanonicalLine): string {
   if (line.routes.length < 2)
     return `one route (${ROUTE_NAMES[line.routes[0] ?? 'recursion'] ?? line.routes[0]})`;
   const names = line.routes.map((r) => ROUTE_NAMES[r] ?? r).join(', ');
+  if (line.agrees === null) return `not compared (not determined): ${names}`;
   return line.agrees ? `agree: ${names}` : `DISAGREE: ${names}`;
 }
 
@@ -145,11 +152,11 @@ function plainExport(lines: readonly CanonicalLine[]): ExportTable {
     columns: ['N', 'Z(N)', 'valuation', 'terms', 'known to', 'routes agree'],
     rows: lines.map((l) => [
       String(l.N),
-      l.text,
-      l.valuation ?? '',
+      l.determined ? l.text : `${NOT_DETERMINED} (${l.text})`,
+      l.determined ? (l.valuation ?? '') : '',
       String(l.termCount),
       l.knownTo,
-      l.routes.length < 2 ? 'single route' : l.agrees ? 'yes' : 'no',
+      agreeCell(l),
     ]),
   };
 }
@@ -159,12 +166,19 @@ export function canonicalLatex(lines: readonly CanonicalLine[], variable: string
   if (lines.some((l) => l.numeric)) return numericLatex(lines);
   return {
     columns: ['N', 'Z(N)', 'known to'],
-    rows: lines.map((l) => [String(l.N), valueTex(l.value, variable), l.knownTo]),
+    rows: lines.map((l) => [
+      String(l.N),
+      l.determined
+        ? valueTex(l.value, variable)
+        : `\\text{${NOT_DETERMINED}: } ${valueTex(l.value, variable)}`,
+      l.knownTo,
+    ]),
   };
 }
 
 function agreeCell(l: CanonicalLine): string {
-  return l.routes.length < 2 ? 'single route' : l.agrees ? 'yes' : 'no';
+  if (l.routes.length < 2) return 'single route';
+  return l.agrees === null ? 'not compared' : l.agrees ? 'yes' : 'no';
 }
 
 /**
