@@ -233,3 +233,24 @@ describe('traceloom compute, sector sums', () => {
     expect(bad.err).toMatch(/^sectors: the sector sum does not converge/);
   });
 });
+
+// The trap's Z(N) starts at q^(N^2/2) (DLMF 17.5, Euler): at O(q^8), Z(4) (from q^8) is not
+// determined. Every format says so; none shows it as 0 or as agreeing.
+describe('rows beyond the order in every format', () => {
+  it('json: determined false, agrees null, the order advice', () => {
+    const r = run(['compute', '-'], trap);
+    const json = JSON.parse(r.out);
+    expect(json.canonical[4]).toMatchObject({ determined: false, agrees: null });
+    expect(json.canonical[3]).toMatchObject({ determined: true, agrees: true });
+    expect(json.orderAdvice.undetermined).toEqual([4]);
+  });
+  it('csv, table and latex: "not determined" and "not compared"', () => {
+    const csv = run(['compute', '-', '--format', 'csv'], trap).out.split('\n');
+    expect(csv[5]).toBe('4,not determined (O(q^8)),recursion+classSum,not compared');
+    const table = run(['compute', '-', '--format', 'table'], trap).out;
+    expect(table).toMatch(/^4 +recursion\+classSum +not compared +not determined \(O\(q\^8\)\)$/m);
+    expect(table).toMatch(/Z\(N\) for N = 4 is not determined at O\(q\^8\)/);
+    const latex = run(['compute', '-', '--format', 'latex'], trap).out;
+    expect(latex).toContain('4 & $\\text{not determined: } O(q^{8})$ \\\\');
+  });
+});
