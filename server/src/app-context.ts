@@ -1,5 +1,5 @@
 import type { DataSource } from 'typeorm';
-import type { LoginThrottle } from './auth/login-throttle.js';
+import type { AccountBackoff, HashGate } from './auth/sign-in-guards.js';
 import type { TokenKeys } from './auth/token-keys.js';
 import type { ServerConfig } from './config.js';
 
@@ -11,7 +11,10 @@ export interface AppContext {
   tokenSecret: Buffer;
   /** Every key that still verifies (the current one first), from the environment or key file. */
   tokenKeys: TokenKeys;
-  loginThrottle: LoginThrottle;
+  /** Per-account backoff after failed sign-ins (in the database). */
+  accountBackoff: AccountBackoff;
+  /** The cap on password hashes computed at once. */
+  hashGate: HashGate;
   /** A hash checked against when the e-mail is unknown, so timing does not reveal accounts. */
   decoyPasswordHash: string;
 }

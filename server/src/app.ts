@@ -2,7 +2,7 @@ import express, { type Express } from 'express';
 import type { DataSource } from 'typeorm';
 import type { AppContext } from './app-context.js';
 import { createAuthenticate } from './auth/authenticate.js';
-import { LoginThrottle } from './auth/login-throttle.js';
+import { AccountBackoff, HashGate, signInLimiters } from './auth/sign-in-guards.js';
 import { hashPassword } from './auth/password.js';
 import { forgetDatabaseSecret, keysFromFile } from './auth/token-keys.js';
 import type { ServerConfig } from './config.js';
@@ -35,14 +35,17 @@ export async function createApp({ dataSource, config, log }: AppDeps): Promise<E
     config,
     tokenSecret: tokenKeys.current,
     tokenKeys,
-    loginThrottle: new LoginThrottle(config.loginLimit.maxFailures, config.loginLimit.windowMs),
+    accountBackoff: new AccountBackoff(dataSource, config.signIn),
+    hashGate: new HashGate(config.signIn.hashConcurrency, config.signIn.hashQueue),
     decoyPasswordHash: await hashPassword('decoy password, never matched', config.scrypt),
   };
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', false);
+  app.set('trust proxy', config.trustProxy);
   app.use(securityHeaders());
   app.use('/api', noStore, express.json({ limit: config.bodyLimitBytes }), jsonDepthGuard);
+  const limiters = signInLimiters(dataSource, config.signIn);
+  for (const path of ['/api/auth/login', '/api/auth/password-reset']) app.post(path, ...limiters);
   const routes = apiRoutes(ctx);
   // Kept on the app so tests read the very table the router was built from.
   app.locals.routeTable = routes.map(({ method, path, access }) => ({ method, path, access }));

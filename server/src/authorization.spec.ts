@@ -1,7 +1,8 @@
 import { ROLES, type Role } from '@traceloom/shared/api';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { User } from './db/entities/index.js';
+import { unusablePasswordHash } from './auth/password.js';
+import { User } from './db/entities/index.js';
 import { routeKey, type RouteSpec } from './http/route-table.js';
 import { datasetAccess, datasetMatrix } from './testing/dataset-matrix.js';
 import { featureAccess, featureMatrix, type MatrixCall } from './testing/matrix-fixtures.js';
@@ -42,6 +43,18 @@ const MATRIX: Record<string, Fixture> = {
     body: { email: actor.email, password: TEST_PASSWORD },
     status: 200,
   }),
+  'POST /auth/password-reset': async (actor) => ({
+    path: '/auth/password-reset',
+    body: { email: actor.email },
+    status: 202,
+  }),
+  'POST /users/:id/invitations': async () => {
+    const invited = await insertUser(t, 'author');
+    await t.dataSource
+      .getRepository(User)
+      .update({ id: invited.id }, { passwordHash: unusablePasswordHash() });
+    return { path: `/users/${invited.id}/invitations`, status: 201 };
+  },
   'GET /auth/me': async () => ({ path: '/auth/me', status: 200 }),
   'POST /auth/logout': async () => ({ path: '/auth/logout', status: 204 }),
   'GET /users': async () => ({ path: '/users', status: 200 }),
@@ -99,6 +112,8 @@ const EDITORS: Role[] = ['author', 'steward', 'admin'];
 const EXPECTED_ACCESS: Record<string, 'public' | readonly Role[]> = {
   'GET /health': 'public',
   'POST /auth/login': 'public',
+  'POST /auth/password-reset': 'public',
+  'POST /users/:id/invitations': ADMIN,
   'GET /auth/me': ALL,
   'POST /auth/logout': ALL,
   'GET /users': ADMIN,

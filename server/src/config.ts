@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { keysFromEnv, type TokenKeys } from './auth/token-keys.js';
+import { DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from './auth/sign-in-guards.js';
 import type { BackupSchedule } from './db/backup-schedule.js';
 
 /** How the server seeds data at start. */
@@ -27,8 +28,10 @@ export interface ServerConfig {
   tokenKeys?: TokenKeys;
   /** Password hashing cost. Production uses N = 2^17, r = 8, p = 1; tests may lower it. */
   scrypt: ScryptParams;
-  /** Login throttle: failures allowed per account + IP within the window. */
-  loginLimit: { maxFailures: number; windowMs: number };
+  /** Sign-in buckets, account backoff and the password-hash cap. */
+  signIn: SignInLimits;
+  /** Express `trust proxy` (`TRACELOOM_TRUST_PROXY`): false, a hop count, or addresses/names. */
+  trustProxy: boolean | number | string;
   /** Largest JSON body accepted, in bytes. */
   bodyLimitBytes: number;
   /** Background runs: worker pool size, limits per run, per-user cap. */
@@ -65,7 +68,8 @@ export const DEFAULT_CONFIG: ServerConfig = {
   tokenTtlSeconds: 30 * 60,
   keyFile: path.join('data', 'traceloom.key'),
   scrypt: PRODUCTION_SCRYPT,
-  loginLimit: { maxFailures: 10, windowMs: 15 * 60 * 1000 },
+  signIn: DEFAULT_SIGN_IN_LIMITS,
+  trustProxy: false,
   bodyLimitBytes: 1024 * 1024,
   runs: {
     threads: 2,
@@ -77,6 +81,23 @@ export const DEFAULT_CONFIG: ServerConfig = {
   uploadLimitBytes: 10 * 1024 * 1024,
   backups: null,
 };
+
+/**
+ * `TRACELOOM_TRUST_PROXY`: unset or `false` trusts no proxy (the client address is the peer's);
+ * a number trusts that many hops; anything else is Express's list of trusted addresses or
+ * names (`loopback`, `10.0.0.0/8, 127.0.0.1`). `true` (trust every hop) is refused: any client
+ * could then choose its own address and escape the per-address limits.
+ */
+export function trustProxyOf(raw: string | undefined): boolean | number | string {
+  if (raw === undefined || raw === '' || raw === 'false') return false;
+  if (raw === 'true') {
+    throw new Error(
+      'TRACELOOM_TRUST_PROXY=true would trust any client; give the hop count or the proxy addresses',
+    );
+  }
+  if (/^\d+$/.test(raw)) return Number(raw);
+  return raw;
+}
 
 /** A positive integer from the environment, or `fallback` when unset. */
 function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
@@ -95,7 +116,7 @@ function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): nu
  * `TRACELOOM_UPLOAD_LIMIT`, and the signing keys `TRACELOOM_TOKEN_SECRET`,
  * `TRACELOOM_TOKEN_SECRETS_PREVIOUS`, `TRACELOOM_KEY_FILE` (default: `traceloom.key` beside the
  * database), scheduled backups `TRACELOOM_BACKUP_DIR`, `TRACELOOM_BACKUP_EVERY_HOURS` (24),
- * `TRACELOOM_BACKUP_KEEP` (7); throws a one-line message naming the variable when a value is
+ * `TRACELOOM_BACKUP_KEEP` (7), `TRACELOOM_TRUST_PROXY`; throws a one-line message naming the variable when a value is
  * unusable.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
@@ -124,6 +145,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
       perUserCap: positiveInt(env, 'TRACELOOM_RUNS_PER_USER', DEFAULT_CONFIG.runs.perUserCap),
     },
     uploadLimitBytes: positiveInt(env, 'TRACELOOM_UPLOAD_LIMIT', DEFAULT_CONFIG.uploadLimitBytes),
+    trustProxy: trustProxyOf(env.TRACELOOM_TRUST_PROXY),
     backups: env.TRACELOOM_BACKUP_DIR
       ? {
           dir: env.TRACELOOM_BACKUP_DIR,

@@ -5,37 +5,31 @@ import { User } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { toUserDto } from '../users/user-dto.js';
-import { verifyPassword } from './password.js';
+import { parsePasswordHash, verifyPassword } from './password.js';
 import { signToken } from './tokens.js';
 
 /**
- * Signs a person in. Unknown e-mail, wrong password and a disabled account all answer the same
- * 401 `invalid_credentials` (and take the same scrypt time); after too many failures for this
- * account + address, 429 `too_many_attempts` with `Retry-After`, even for the right password.
+ * Signs a person in. Unknown e-mail, wrong password, a disabled account and an invited account
+ * without a password all answer the same 401 `invalid_credentials` after the same scrypt work
+ * (the decoy hash stands in). The address and global buckets (express-rate-limit, in the
+ * database) run before this; here the account's backoff answers 429 with Retry-After, and the
+ * hash waits for a slot of the hashing cap.
  */
 export async function login(
   ctx: AppContext,
   input: LoginRequest,
   ip: string,
 ): Promise<LoginResponse> {
-  const throttleKey = `${input.email}|${ip}`;
-  const retryAfter = ctx.loginThrottle.retryAfterSeconds(throttleKey);
-  if (retryAfter > 0) {
-    throw new AppError(
-      429,
-      'too_many_attempts',
-      `Too many failed sign-ins. Try again in ${Math.ceil(retryAfter / 60)} minute(s).`,
-      undefined,
-      { 'Retry-After': String(retryAfter) },
-    );
-  }
+  await ctx.accountBackoff.check(input.email);
   const user = await ctx.dataSource.getRepository(User).findOneBy({ email: input.email });
-  const matches = await verifyPassword(input.password, user?.passwordHash ?? ctx.decoyPasswordHash);
-  if (!user || !matches || user.disabled) {
-    ctx.loginThrottle.recordFailure(throttleKey);
+  const usable = user !== null && parsePasswordHash(user.passwordHash) !== null;
+  const stored = usable ? user.passwordHash : ctx.decoyPasswordHash;
+  const matches = await ctx.hashGate.run(() => verifyPassword(input.password, stored));
+  if (!user || !usable || !matches || user.disabled) {
+    await ctx.accountBackoff.fail(input.email);
     throw new AppError(401, 'invalid_credentials', 'The e-mail or password is not right.');
   }
-  ctx.loginThrottle.reset(throttleKey);
+  await ctx.accountBackoff.succeed(input.email);
   await recordAudit(ctx.dataSource.manager, {
     actorId: user.id,
     action: 'auth.login',

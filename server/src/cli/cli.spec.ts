@@ -224,6 +224,11 @@ describe('traceloom compute, sector sums', () => {
     expect(r.out).toMatch(/sectors per row: N=1: \d+, N=2: \d+, N=3: \d+/);
     // sector n = 0 is the ring q^|p|: Z_0(1..3) start at q^0, q^1, q^2
     expect(r.out).toMatch(/\(n=0\)\s+yes\s+0 1 2/);
+    // the lattice cut of every sector is said once
+    expect(r.out.match(/spectrum lattice points cut off/g)).toHaveLength(1);
+    expect(r.out).toMatch(
+      /spectrum lattice points cut off at the order after \d+–\d+ terms \(\d+ times\)/,
+    );
   });
 
   it('lists every sector in csv and refuses a divergent sum naming sectors', () => {
@@ -245,5 +250,26 @@ describe('traceloom compute, sector sums', () => {
     const bad = run(['compute', '-'], flat);
     expect(bad.code).toBe(2);
     expect(bad.err).toMatch(/^sectors: the sector sum does not converge/);
+  });
+});
+
+// The trap's Z(N) starts at q^(N^2/2) (DLMF 17.5, Euler): at O(q^8), Z(4) (from q^8) is not
+// determined. Every format says so; none shows it as 0 or as agreeing.
+describe('rows beyond the order in every format', () => {
+  it('json: determined false, agrees null, the order advice', () => {
+    const r = run(['compute', '-'], trap);
+    const json = JSON.parse(r.out);
+    expect(json.canonical[4]).toMatchObject({ determined: false, agrees: null });
+    expect(json.canonical[3]).toMatchObject({ determined: true, agrees: true });
+    expect(json.orderAdvice.undetermined).toEqual([4]);
+  });
+  it('csv, table and latex: "not determined" and "not compared"', () => {
+    const csv = run(['compute', '-', '--format', 'csv'], trap).out.split('\n');
+    expect(csv[5]).toBe('4,not determined (O(q^8)),,0,O(q^8),recursion+classSum,not compared');
+    const table = run(['compute', '-', '--format', 'table'], trap).out;
+    expect(table).toMatch(/^4 +recursion\+classSum +not compared +not determined \(O\(q\^8\)\)$/m);
+    expect(table).toMatch(/Z\(N\) for N = 4 is not determined at O\(q\^8\)/);
+    const latex = run(['compute', '-', '--format', 'latex'], trap).out;
+    expect(latex).toContain('Z(4) &= \\text{not determined: } O(q^{8})');
   });
 });

@@ -5,20 +5,19 @@ import {
   EngineError,
   fromValueJson,
   type GasSpec,
+  type RowVerdict,
   type ValueJson,
-  type Verdict,
 } from '@traceloom/shared/engine';
 import type { NumericVerdict } from '../compute/numeric-values.js';
 
-/** A series row verdict as the API gives it. */
-export interface SeriesRowVerdictDto extends Verdict {
-  N: number;
-  /**
-   * A row that differs carries both sides whole, so every differing coefficient can be shown:
-   * normalization(N) * Z(N) as computed, and the table's value as supplied.
-   */
+/**
+ * A series row verdict as the API gives it ("not compared" when Z(N) is not determined). A row
+ * that differs carries both sides whole, so every differing coefficient can be shown:
+ * normalization(N) * Z(N) as computed, and the table's value as supplied.
+ */
+export type SeriesRowVerdictDto = RowVerdict & {
   series?: { computed: ValueJson; supplied: ValueJson };
-}
+};
 
 /** A numeric row verdict: computed and supplied values compared within the combined tolerance. */
 export type NumericRowVerdictDto = NumericVerdict & { N: number };
@@ -51,16 +50,29 @@ export interface CompareTask {
  * whose field names the row's line (`line 4`) or `normalization`.
  */
 export function compareSeriesRows(task: CompareTask): RowVerdictDto[] {
-  return compareReferenceRows(
+  // a row whose Z(N) is not determined at the order is not compared (PRODUCT.md, "Honest rows")
+  const undetermined = (N: number): boolean => {
+    const v = task.canonical[N];
+    return v !== undefined && v.order !== null && v.terms.length === 0;
+  };
+  const compared = compareReferenceRows(
     task.canonical.map(fromValueJson),
     task.normalization,
-    task.rows.map((row) => ({ N: row.N, value: row.value, field: `line ${row.line}` })),
+    task.rows
+      .filter((row) => !undetermined(row.N))
+      .map((row) => ({ N: row.N, value: row.value, field: `line ${row.line}` })),
     {
       variable: task.variable,
       cap: task.order === null ? null : new Fraction(task.order),
       nMax: task.canonical.length - 1,
     },
     { normalizationField: 'normalization', withSeries: true },
+  );
+  let next = 0;
+  return task.rows.map((row) =>
+    undetermined(row.N)
+      ? { N: row.N, agrees: null, agreesBelow: null, firstMismatch: null, determined: false }
+      : compared[next++]!,
   );
 }
 

@@ -89,7 +89,7 @@ export async function createComparison(
             computed: v.computed,
             supplied: v.supplied,
           }
-        : { N: v.N, agrees: v.agrees, agreesBelow: v.agreesBelow, firstMismatch: v.firstMismatch },
+        : v,
     );
   } else {
     const table = await loadVisibleReference(ctx, actor, input.referenceId, 'referenceId');

@@ -3,7 +3,10 @@ import type { DatasetWaiver } from '../db/entities/index.js';
 import { routeName, verdictText } from '@traceloom/shared/format';
 import type { DatasetSnapshot } from './snapshot.js';
 
-type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean };
+/** The detail of a check on a row that is not determined at the order. */
+const NOT_COMPARED = 'not compared: Z(N) is not determined at the order';
+
+type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean | null };
 
 /**
  * Every check row a snapshot carries: agreement of the routes to Z(N), the grand check and the
@@ -13,8 +16,10 @@ type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean }
 function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
   const r = snapshot.result;
   const numeric = r.numeric !== undefined;
-  const verdictDetail = (v: Parameters<typeof verdictText>[0]): string =>
-    verdictText(v, r.spec.variable);
+  const verdictDetail = (v: object): string =>
+    (v as { agrees: unknown }).agrees === null
+      ? NOT_COMPARED
+      : verdictText(v as Parameters<typeof verdictText>[0], r.spec.variable);
   const rows: CheckRow[] = [];
   for (const c of r.canonical) {
     if (c.routes.length < 2) continue;
@@ -23,13 +28,16 @@ function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
       label: `Z(N) by ${c.routes.map(routeName).join(', ')}`,
       N: c.N,
       agrees: c.agrees,
-      detail: numeric
-        ? c.agrees
-          ? 'the routes agree within their errors'
-          : 'the routes differ by more than their errors'
-        : c.agrees
-          ? 'the routes agree term by term'
-          : 'the routes differ',
+      detail:
+        c.agrees === null
+          ? NOT_COMPARED
+          : numeric
+            ? c.agrees
+              ? 'the routes agree within their errors'
+              : 'the routes differ by more than their errors'
+            : c.agrees
+              ? 'the routes agree term by term'
+              : 'the routes differ',
     });
   }
   for (const v of r.grandCheck ?? []) {
@@ -81,12 +89,13 @@ export function datasetChecks(
   waivers: readonly DatasetWaiver[],
 ): DatasetCheckDto[] {
   return checkRows(snapshot).map(({ agrees, ...row }) => {
-    const waiver = agrees
-      ? undefined
-      : waivers.find((w) => w.check === row.check && (w.rowN === null || w.rowN === row.N));
+    const waiver =
+      agrees !== false
+        ? undefined
+        : waivers.find((w) => w.check === row.check && (w.rowN === null || w.rowN === row.N));
     return {
       ...row,
-      status: agrees ? 'passes' : waiver ? 'waived' : 'fails',
+      status: agrees === null ? 'not compared' : agrees ? 'passes' : waiver ? 'waived' : 'fails',
       waiver: waiver
         ? {
             reason: waiver.reason,

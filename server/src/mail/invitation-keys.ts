@@ -5,6 +5,7 @@ import { IsNull } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { hashPassword } from '../auth/password.js';
+import { assertStrongPassword } from '../auth/password-policy.js';
 import { Invitation, User } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
 
@@ -57,6 +58,9 @@ export async function acceptInvitation(
     .getRepository(Invitation)
     .findOneBy({ id: invitationId, acceptedAt: IsNull() });
   if (!open) throw refused();
+  const person = await ctx.dataSource.getRepository(User).findOneBy({ email: open.email });
+  if (!person || person.disabled) throw refused();
+  assertStrongPassword(input.password, [person.email, person.displayName]);
   const passwordHash = await hashPassword(input.password, ctx.config.scrypt);
   await ctx.dataSource.transaction(async (manager) => {
     const invitations = manager.getRepository(Invitation);

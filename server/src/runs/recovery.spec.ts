@@ -21,7 +21,9 @@ describe('restart recovery', () => {
     dir = t.dir;
     const author = await insertUser(t, 'author');
     const gasId = await createGas(t, await tokenFor(t, author), await insertStudy(t, author));
-    const version = await t.dataSource.getRepository(GasVersion).findOneByOrFail({ gas: { id: gasId } });
+    const version = await t.dataSource
+      .getRepository(GasVersion)
+      .findOneByOrFail({ gas: { id: gasId } });
     // Rows as a server killed mid-work leaves them (stored directly: no executor knows them).
     const repo = t.dataSource.getRepository(Run);
     const row = (status: Run['status'], requeues: number) =>
@@ -45,7 +47,9 @@ describe('restart recovery', () => {
     const until = Date.now() + 30_000;
     let states: Run[] = [];
     while (Date.now() < until) {
-      states = await Promise.all([queued, running, retried].map((r) => runs.findOneByOrFail({ id: r.id })));
+      states = await Promise.all(
+        [queued, running, retried].map((r) => runs.findOneByOrFail({ id: r.id })),
+      );
       if (states.every((s) => ['done', 'failed', 'cancelled'].includes(s.status))) break;
       await new Promise((r) => setTimeout(r, 50));
     }
@@ -59,6 +63,10 @@ describe('restart recovery', () => {
       `SELECT action FROM audit_event WHERE target_id IN (?, ?) ORDER BY created_at`,
       [running.id, retried.id],
     );
-    expect(audit.map((a: { action: string }) => a.action).sort()).toEqual(['run.fail', 'run.finish', 'run.requeue']);
+    expect(audit.map((a: { action: string }) => a.action).sort()).toEqual([
+      'run.fail',
+      'run.finish',
+      'run.requeue',
+    ]);
   });
 });

@@ -7,6 +7,8 @@ export interface RunProgress {
   done: number;
   total: number;
   phase: string;
+  /** What done and total count (cycle types, products), while the worker reports it live. */
+  unit?: string;
 }
 
 /** One line of a gas's run list. */
@@ -43,7 +45,12 @@ export function toRunSummary(run: Run, live: Progress | null = null): RunSummary
     gasVersion: run.gasVersion.version,
     status: run.status,
     progress: live
-      ? { done: live.done, total: live.total, phase: live.phase }
+      ? {
+          done: live.done,
+          total: live.total,
+          phase: live.phase,
+          ...(live.unit && { unit: live.unit }),
+        }
       : { done: run.progressDone, total: run.progressTotal, phase: run.progressPhase },
     createdAt: run.createdAt,
     startedAt: run.startedAt,

@@ -58,6 +58,7 @@ export async function streamRunEvents(
             done: live?.done ?? run.progressDone,
             total: live?.total ?? run.progressTotal,
             phase: live?.phase ?? run.progressPhase,
+            ...(live?.unit && { unit: live.unit }),
           });
         } else {
           send(res, 'end', { status: run.status, error: run.error });

@@ -1,5 +1,6 @@
 import { MessageChannel } from 'node:worker_threads';
-import type { Progress } from '@traceloom/shared/engine';
+import { gunzipSync, gzipSync } from 'node:zlib';
+import type { ComputeResult, Progress } from '@traceloom/shared/engine';
 import type { DataSource } from 'typeorm';
 import { recordAudit } from '../audit/record-audit.js';
 import type { WorkerPools } from '../compute/pools.js';
@@ -14,6 +15,20 @@ const STORE_EVERY_MS = 250;
 /** Time a worker may take to start (load the engine) before its run's clock starts. */
 const START_GRACE_MS = 60_000;
 
+/**
+ * The cheap routes' result of a run whose class phase failed, marked incomplete with the reason,
+ * so the canonical table that was finished is kept (gzip of the result JSON).
+ */
+function keptPartial(gzip: Uint8Array, progress: Progress | null, error: string): Buffer {
+  const partial = JSON.parse(gunzipSync(gzip).toString('utf8')) as ComputeResult;
+  const where =
+    progress?.phase === 'classSum' && progress.total > 0
+      ? ` after ${progress.done.toLocaleString('en-US')} of ${progress.total.toLocaleString('en-US')} ${progress.unit ?? 'steps'}`
+      : '';
+  partial.incomplete = { phase: 'classSum', reason: `the class table ${error}${where}` };
+  return gzipSync(JSON.stringify(partial));
+}
+
 /** Reason recorded when a run that was running is found after a restart it was retried for. */
 export const INTERRUPTED = 'interrupted by a server restart';
 
@@ -22,6 +37,8 @@ interface ActiveRun {
   progress: Progress | null;
   storedAt: number;
   stop: 'cancel' | 'timeout' | null;
+  /** The gzip of the result without the class table, once the cheap routes are done. */
+  partial: Uint8Array | null;
 }
 
 /**
@@ -119,6 +136,7 @@ export class RunExecutor {
         progress: null,
         storedAt: 0,
         stop: null,
+        partial: null,
       };
       this.active.set(runId, run);
       this.execute(runId, run)
@@ -151,7 +169,11 @@ export class RunExecutor {
     // Until the worker says it has begun (a fresh worker first loads the engine), only a
     // generous start-up limit applies; the run's own wall-clock limit starts with the work.
     let timer = setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
-    const onMessage = (p: Progress | { started: number }): void => {
+    const onMessage = (p: Progress | { started: number } | { partial: Uint8Array }): void => {
+      if ('partial' in p) {
+        active.partial = p.partial;
+        return;
+      }
       if ('started' in p) {
         clearTimeout(timer);
         timer = setTimeout(limit, this.limits.wallClockMs);
@@ -201,6 +223,9 @@ export class RunExecutor {
       channel.port1.close();
     }
     if (outcome.status === 'cancelled') return; // the cancel request already stored it
+    if (outcome.status === 'failed' && active.partial) {
+      outcome.result = keptPartial(active.partial, active.progress, outcome.error ?? 'failed');
+    }
     const finishedAt = new Date();
     await this.dataSource.transaction(async (manager) => {
       const done = await manager.getRepository(Run).update(

@@ -1,9 +1,10 @@
 import { gunzipSync } from 'node:zlib';
-import type { ComputeResult } from '@traceloom/shared/engine';
+import type { ComputeResult, RunEstimate } from '@traceloom/shared/engine';
 import { readResultVerdicts } from '@traceloom/shared/format';
 import { In } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
+import { assertRunFits, estimateSpec, type RunEstimateDto } from '../compute/run-estimate.js';
 import { computeServices } from '../compute/services.js';
 import { Run } from '../db/entities/index.js';
 import { assertCanChangeGas, loadVisibleGas } from '../gases/gas-access.js';
@@ -46,8 +47,11 @@ export async function startRun(
   actor: Actor,
   gasId: string,
   input: { version?: number | undefined },
-): Promise<{ id: string; status: 'queued' }> {
+): Promise<{ id: string; status: 'queued'; warnings: string[]; estimate: RunEstimate }> {
   const { executor } = computeServices(ctx);
+  // estimate before storing anything: refuse a class table that cannot fit, warn on the order
+  const judged = await estimateVersion(ctx, actor, gasId, input.version);
+  assertRunFits(judged);
   const id = await ctx.dataSource.transaction(async (manager) => {
     const gas = await loadVisibleGas(manager, actor, gasId);
     assertCanChangeGas(actor);
@@ -87,7 +91,22 @@ export async function startRun(
     return runId;
   });
   executor.enqueue(id);
-  return { id, status: 'queued' };
+  return { id, status: 'queued', warnings: judged.warnings, estimate: judged.estimate };
+}
+
+/** The estimate of a run of the gas at `version` (default: the latest); 404 as startRun. */
+async function estimateVersion(
+  ctx: AppContext,
+  actor: Actor,
+  gasId: string,
+  version: number | undefined,
+): Promise<RunEstimateDto> {
+  const gas = await loadVisibleGas(ctx.dataSource.manager, actor, gasId);
+  assertCanChangeGas(actor);
+  if (gas.deleted) throw notFound('The gas');
+  const found = gas.versions.find((v) => v.version === (version ?? gas.currentVersion));
+  if (!found) throw notFound('That version of the gas', 'version');
+  return estimateSpec(ctx, specOf(found));
 }
 
 /** The runs of a gas, newest first. */

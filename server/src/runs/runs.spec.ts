@@ -2,8 +2,21 @@ import type { Server } from 'node:http';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
-import { bearer, createGas, RUNAWAY_SPEC, startRun, TRAP_SPEC, waitForRun } from '../testing/gas-fixtures.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  bearer,
+  createGas,
+  RUNAWAY_SPEC,
+  startRun,
+  TRAP_SPEC,
+  waitForRun,
+} from '../testing/gas-fixtures.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 
 let t: TestApp;
 let author: User;
@@ -12,7 +25,15 @@ let studyId: string;
 let server: Server;
 
 beforeAll(async () => {
-  t = await createTestApp({ runs: { threads: 2, wallClockMs: 1000, perUserCap: 2, maxOldGenerationSizeMb: 512, previewMs: 1500 } });
+  t = await createTestApp({
+    runs: {
+      threads: 2,
+      wallClockMs: 1000,
+      perUserCap: 2,
+      maxOldGenerationSizeMb: 512,
+      previewMs: 1500,
+    },
+  });
   author = await insertUser(t, 'author');
   token = await tokenFor(t, author);
   studyId = await insertStudy(t, author);
@@ -36,14 +57,26 @@ describe('runs', () => {
     // Class table for N = 1..4: p(1..4) = 1, 2, 3, 5 cycle types (OEIS A000041).
     expect(res.body.classCounts).toEqual({ 1: 1, 2: 2, 3: 3, 4: 5 });
     // Z(2) of the trap = q^2/((1-q)(1-q^2)) = q^2 + q^3 + 2q^4 + ... (q-binomial series, DLMF 17.2.37 — from memory).
-    expect(res.body.result.canonical[2].value.terms.slice(0, 3)).toEqual([['2', '1'], ['3', '1'], ['4', '2']]);
+    expect(res.body.result.canonical[2].value.terms.slice(0, 3)).toEqual([
+      ['2', '1'],
+      ['3', '1'],
+      ['4', '2'],
+    ]);
     expect(res.body.result.grandCheck.every((row: { agrees: boolean }) => row.agrees)).toBe(true);
-    const only3 = await request(t.app).get(`/api/runs/${runId}?classes=3`).set('Authorization', bearer(token));
+    const only3 = await request(t.app)
+      .get(`/api/runs/${runId}?classes=3`)
+      .set('Authorization', bearer(token));
     expect(only3.body.result.classes).toHaveLength(3);
     expect(only3.body.result.classes.every((row: { N: number }) => row.N === 3)).toBe(true);
-    const list = await request(t.app).get(`/api/gases/${gasId}/runs`).set('Authorization', bearer(token));
+    const list = await request(t.app)
+      .get(`/api/gases/${gasId}/runs`)
+      .set('Authorization', bearer(token));
     expect(list.body.map((r: { id: string }) => r.id)).toEqual([runId]);
-    expect(list.body[0]).toMatchObject({ gasVersion: 1, status: 'done', createdBy: { id: author.id } });
+    expect(list.body[0]).toMatchObject({
+      gasVersion: 1,
+      status: 'done',
+      createdBy: { id: author.id },
+    });
     expect(list.body[0].durationMs).toBeGreaterThanOrEqual(0);
   });
 
@@ -69,7 +102,9 @@ describe('runs', () => {
     expect(run.status).toBe('failed');
     expect(run.error).toMatch(/wall-clock limit of 1 s/);
     const elapsed = Date.parse(run.finishedAt!) - Date.parse(run.startedAt!);
-    console.log(`runaway: killed after ${elapsed} ms; health p99 ${p99(latencies).toFixed(1)} ms over ${latencies.length} calls`);
+    console.log(
+      `runaway: killed after ${elapsed} ms; health p99 ${p99(latencies).toFixed(1)} ms over ${latencies.length} calls`,
+    );
     expect(elapsed).toBeGreaterThanOrEqual(1000);
     expect(elapsed).toBeLessThan(1500);
     expect(latencies.length).toBeGreaterThan(10);
@@ -81,10 +116,14 @@ describe('runs', () => {
   it('cancels a running run, and refuses to cancel a finished one', async () => {
     const runId = await startRun(t, token, await createGas(t, token, studyId, RUNAWAY_SPEC));
     await waitForRun(t, runId, ['running']);
-    const res = await request(t.app).post(`/api/runs/${runId}/cancel`).set('Authorization', bearer(token));
+    const res = await request(t.app)
+      .post(`/api/runs/${runId}/cancel`)
+      .set('Authorization', bearer(token));
     expect(res.status).toBe(200);
     expect(res.body.status).toBe('cancelled');
-    const again = await request(t.app).post(`/api/runs/${runId}/cancel`).set('Authorization', bearer(token));
+    const again = await request(t.app)
+      .post(`/api/runs/${runId}/cancel`)
+      .set('Authorization', bearer(token));
     expect(again.status).toBe(409);
     expect(again.body.error.code).toBe('not_active');
     // The slot is free again: a normal run completes.
@@ -96,7 +135,10 @@ describe('runs', () => {
     const gasId = await createGas(t, token, studyId, RUNAWAY_SPEC);
     const a = await startRun(t, token, gasId);
     const b = await startRun(t, token, gasId);
-    const third = await request(t.app).post(`/api/gases/${gasId}/runs`).set('Authorization', bearer(token)).send({});
+    const third = await request(t.app)
+      .post(`/api/gases/${gasId}/runs`)
+      .set('Authorization', bearer(token))
+      .send({});
     expect(third.status).toBe(429);
     expect(third.body.error.code).toBe('too_many_runs');
     for (const id of [a, b]) {

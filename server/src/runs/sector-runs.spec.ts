@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import { compute } from '@traceloom/shared/engine';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fermionSectorSum, range } from '../../../shared/src/engine/sectors/brute-force.js';
 import { Run } from '../db/entities/index.js';
 import { bearer, createGas, startRun, waitForRun } from '../testing/gas-fixtures.js';
 import {
@@ -68,6 +69,37 @@ describe('sector runs on the worker pool', () => {
       .get(`/api/runs/${runId}?classes=2`)
       .set('Authorization', bearer(token));
     expect(rows.body.result.classes).toEqual(direct.classes.filter((c) => c.N === 2));
+  });
+
+  it('checks the summed table against an uploaded reference table, row by row', async () => {
+    // the reference: a direct count over |n|, |p| <= 20 (every state outside lies beyond q^8), with
+    // the coefficient of q^(5/2) in Z(2) deliberately wrong
+    const brute = fermionSectorSum({
+      nMax: 3,
+      size: 16,
+      sectors: range(-20, 20).map((n) => [n]),
+      lattice: range(-20, 20),
+      state: (p, [n]) => ({ e: Math.abs(p) + Math.abs(p + n!), c: 1n }),
+      weight: () => 1n,
+    });
+    const text = (N: number) =>
+      brute[N]!.map((c, k) => `${N === 2 && k === 5 ? c + 1n : c}*q^(${k}/2)`).join(' + ') +
+      ' + O(q^8)';
+    const runId = await startRun(t, token, await createGas(t, token, studyId, RING));
+    expect((await waitForRun(t, runId)).status).toBe('done');
+    const rows = [1, 2, 3].map((N) => ({ N, value: text(N) }));
+    const table = await request(t.app)
+      .post(`/api/studies/${studyId}/references`)
+      .set('Authorization', bearer(token))
+      .attach('file', Buffer.from(JSON.stringify({ title: 'ring, counted', rows })), 'ring.json');
+    expect(table.status, JSON.stringify(table.body)).toBe(201);
+    const res = await request(t.app)
+      .post(`/api/runs/${runId}/comparisons`)
+      .set('Authorization', bearer(token))
+      .send({ referenceId: table.body.id });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.rows.map((r: { agrees: boolean }) => r.agrees)).toEqual([true, false, true]);
+    expect(res.body.rows[1].firstMismatch.exponent).toBe('5/2');
   });
 
   it('reports progress per sector and can be cancelled while its sectors run', async () => {

@@ -1,6 +1,6 @@
 import { gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
-import { compute, EngineError, type Progress } from '@traceloom/shared/engine';
+import { compute, EngineError, estimateRun, type Progress } from '@traceloom/shared/engine';
 import {
   compareSeriesRows,
   compareReferenceRowsNumeric,
@@ -24,6 +24,7 @@ export type WorkerTask =
   | { kind: 'preview'; spec: unknown }
   | SectorPartsTask
   | SectorAssembleTask
+  | { kind: 'estimate'; spec: unknown }
   | ({ kind: 'compare' } & CompareTask)
   | ({ kind: 'compareNumeric' } & NumericCompareTask)
   | ({ kind: 'productForm' } & ProductTask)
@@ -76,6 +77,8 @@ function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
   try {
     const result = compute(spec, {
       onProgress: (p: Progress) => port.postMessage(p),
+      // the cheap routes' result, kept by the executor if the class phase fails
+      onPartial: (partial) => port.postMessage({ partial: gzipSync(JSON.stringify(partial)) }),
       collectClasses: true,
     });
     const classCounts: Record<string, number> = {};
@@ -119,6 +122,12 @@ export default function work(task: WorkerTask): unknown {
       } catch (e) {
         return refusal(e);
       }
+    case 'estimate':
+      try {
+        return { ok: true, estimate: estimateRun(task.spec) };
+      } catch (e) {
+        return refusal(e);
+      }
     case 'compare':
       try {
         return { ok: true, rows: compareSeriesRows(task) };
@@ -142,7 +151,12 @@ export default function work(task: WorkerTask): unknown {
         const bytes = Buffer.from(task.bytes.buffer, task.bytes.byteOffset, task.bytes.byteLength);
         const parsed = parseReferenceFile(bytes, task.filename, task.contentType);
         parsed.normalization = (task.normalization ?? parsed.normalization ?? '1').trim() || '1';
-        checkNormalization(parsed.normalization, task.variable ?? 'q', parsed.rows, parsed.numeric ?? false);
+        checkNormalization(
+          parsed.normalization,
+          task.variable ?? 'q',
+          parsed.rows,
+          parsed.numeric ?? false,
+        );
         return { ok: true, parsed };
       } catch (e) {
         if (!(e instanceof AppError)) throw e;

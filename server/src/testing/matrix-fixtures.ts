@@ -12,10 +12,15 @@ export interface MatrixCall {
 }
 
 /** A CSV reference table any role may upload. */
-export const REFERENCE_CSV = Buffer.from('N,value,note\n0,1,\n1,"q^(1/2) + q^(3/2) + O(q^3)",first\n');
+export const REFERENCE_CSV = Buffer.from(
+  'N,value,note\n0,1,\n1,"q^(1/2) + q^(3/2) + O(q^3)",first\n',
+);
 
 /** Access of the gas, compute, run, reference and comparison routes, as the contract states it. */
-export function featureAccess(all: readonly Role[], editors: readonly Role[]): Record<string, readonly Role[]> {
+export function featureAccess(
+  all: readonly Role[],
+  editors: readonly Role[],
+): Record<string, readonly Role[]> {
   return {
     'GET /studies/:id/gases': all,
     'POST /studies/:id/gases': editors,
@@ -24,6 +29,7 @@ export function featureAccess(all: readonly Role[], editors: readonly Role[]): R
     'PUT /gases/:id': editors,
     'DELETE /gases/:id': editors,
     'POST /compute': all,
+    'POST /compute/estimate': all,
     'POST /gases/:id/runs': editors,
     'GET /gases/:id/runs': all,
     'GET /runs/:id': all,
@@ -60,10 +66,12 @@ export function featureMatrix(
     return id;
   };
   const studyOfRun = async (runId: string) => {
-    const run = await app().dataSource.getRepository(Run).findOneOrFail({
-      where: { id: runId },
-      relations: { gas: { study: true } },
-    });
+    const run = await app()
+      .dataSource.getRepository(Run)
+      .findOneOrFail({
+        where: { id: runId },
+        relations: { gas: { study: true } },
+      });
     return run.gas.study.id;
   };
   const referenceFor = async (actor: User) => {
@@ -72,24 +80,32 @@ export function featureMatrix(
       .post(`/api/studies/${await studyOfRun(await runFor(actor))}/references`)
       .set('Authorization', `Bearer ${await adminToken()}`)
       .attach('file', REFERENCE_CSV, 'table.csv');
-    if (res.status !== 201) throw new Error(`upload answered ${res.status}: ${JSON.stringify(res.body)}`);
+    if (res.status !== 201)
+      throw new Error(`upload answered ${res.status}: ${JSON.stringify(res.body)}`);
     return res.body.id as string;
   };
   /** A queued run stored directly (not handed to the executor), so cancelling it is instant. */
   const queuedRunFor = async (actor: User) => {
     const gasId = await gasFor(actor);
-    const version = await app().dataSource.getRepository(GasVersion).findOneByOrFail({ gas: { id: gasId } });
-    const run = await app().dataSource.getRepository(Run).save({
-      gas: { id: gasId },
-      gasVersion: { id: version.id },
-      status: 'queued',
-      createdBy: { id: admin().id },
-      createdAt: new Date().toISOString(),
-    });
+    const version = await app()
+      .dataSource.getRepository(GasVersion)
+      .findOneByOrFail({ gas: { id: gasId } });
+    const run = await app()
+      .dataSource.getRepository(Run)
+      .save({
+        gas: { id: gasId },
+        gasVersion: { id: version.id },
+        status: 'queued',
+        createdBy: { id: admin().id },
+        createdAt: new Date().toISOString(),
+      });
     return run.id;
   };
   return {
-    'GET /studies/:id/gases': async (actor) => ({ path: `/studies/${await studyFor(actor)}/gases`, status: 200 }),
+    'GET /studies/:id/gases': async (actor) => ({
+      path: `/studies/${await studyFor(actor)}/gases`,
+      status: 200,
+    }),
     'POST /studies/:id/gases': async (actor) => ({
       path: `/studies/${await studyFor(actor)}/gases`,
       body: { spec: TRAP_SPEC },
@@ -107,15 +123,29 @@ export function featureMatrix(
     }),
     'DELETE /gases/:id': async (actor) => ({ path: `/gases/${await gasFor(actor)}`, status: 204 }),
     'POST /compute': async () => ({ path: '/compute', body: { spec: TRAP_SPEC }, status: 200 }),
+    'POST /compute/estimate': async () => ({
+      path: '/compute/estimate',
+      body: { spec: TRAP_SPEC },
+      status: 200,
+    }),
     'POST /gases/:id/runs': async (actor) => ({
       path: `/gases/${await gasFor(actor)}/runs`,
       body: {},
       status: 202,
     }),
-    'GET /gases/:id/runs': async (actor) => ({ path: `/gases/${await gasFor(actor)}/runs`, status: 200 }),
+    'GET /gases/:id/runs': async (actor) => ({
+      path: `/gases/${await gasFor(actor)}/runs`,
+      status: 200,
+    }),
     'GET /runs/:id': async (actor) => ({ path: `/runs/${await runFor(actor)}`, status: 200 }),
-    'GET /runs/:id/events': async (actor) => ({ path: `/runs/${await runFor(actor)}/events`, status: 200 }),
-    'POST /runs/:id/cancel': async (actor) => ({ path: `/runs/${await queuedRunFor(actor)}/cancel`, status: 200 }),
+    'GET /runs/:id/events': async (actor) => ({
+      path: `/runs/${await runFor(actor)}/events`,
+      status: 200,
+    }),
+    'POST /runs/:id/cancel': async (actor) => ({
+      path: `/runs/${await queuedRunFor(actor)}/cancel`,
+      status: 200,
+    }),
     'POST /studies/:id/references': async (actor) => ({
       path: `/studies/${await studyFor(actor)}/references`,
       file: { bytes: REFERENCE_CSV, filename: 'table.csv' },
@@ -125,10 +155,17 @@ export function featureMatrix(
       path: `/studies/${await studyFor(actor)}/references`,
       status: 200,
     }),
-    'GET /references/:id': async (actor) => ({ path: `/references/${await referenceFor(actor)}`, status: 200 }),
+    'GET /references/:id': async (actor) => ({
+      path: `/references/${await referenceFor(actor)}`,
+      status: 200,
+    }),
     'POST /runs/:id/comparisons': async (actor) => {
       const runId = await runFor(actor);
-      return { path: `/runs/${runId}/comparisons`, body: { referenceId: await referenceFor(actor) }, status: 201 };
+      return {
+        path: `/runs/${runId}/comparisons`,
+        body: { referenceId: await referenceFor(actor) },
+        status: 201,
+      };
     },
     'GET /runs/:id/comparisons': async (actor) => ({ path: `/runs/${await runFor(actor)}/comparisons`, status: 200 }),
     'GET /runs/:id/product-form': async (actor) => ({

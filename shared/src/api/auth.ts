@@ -11,6 +11,9 @@ export const loginSchema = z.strictObject({
     .max(API_LIMITS.passwordMax, `must be at most ${API_LIMITS.passwordMax} characters`),
 });
 
+/** Body of `POST /api/auth/password-reset`: the address to send a new-password link to. */
+export const passwordResetSchema = z.strictObject({ email: emailSchema });
+
 /** Parsed login body. */
 export type LoginRequest = z.infer<typeof loginSchema>;
 

@@ -123,7 +123,8 @@ export interface DatasetCheckDto {
   check: string;
   label: string;
   N: number | null;
-  status: 'passes' | 'fails' | 'waived';
+  /** `not compared` when the row's Z(N) is not determined at the order (nothing was compared). */
+  status: 'passes' | 'fails' | 'waived' | 'not compared';
   detail: string;
   waiver: { reason: string; by: DatasetPersonDto; at: string } | null;
 }

@@ -65,3 +65,12 @@ export {
 } from './largen/index.js';
 export type * from './largen/types.js';
 export type { LargeNOptions } from './largen/index.js';
+export { estimateRun, classTableCost, partitionCounts } from './estimate.js';
+export type { RunEstimate } from './estimate.js';
+export {
+  isDetermined,
+  lowestExponentBounds,
+  orderAdvice,
+  rowsText,
+} from './canonical/order-advice.js';
+export type { OrderAdviceJson } from './canonical/order-advice.js';

@@ -1,4 +1,5 @@
 import type { RowVerdict, WeightVerdict } from './checks/grand.js';
+import type { OrderAdviceJson } from './canonical/order-advice.js';
 import type { ValueJson } from './series/format.js';
 import type { GasSpec } from './spec/schema.js';
 import type { LargeNJson } from './largen/types.js';
@@ -52,7 +53,13 @@ export interface CanonicalRowJson extends NumericCanonicalExtras {
   N: number;
   value: AnyValueJson;
   routes: Route[];
-  agrees: boolean;
+  /** Whether the routes agree term by term; null when the row is not determined (not compared). */
+  agrees: boolean | null;
+  /**
+   * Series rows: false when the value is not determined at the order (every known coefficient is
+   * 0: the lowest exponent is at or beyond it); shown as "not determined", never as 0.
+   */
+  determined?: boolean;
   /** Sector mode: how many sectors contributed to this row (0 for N = 0, set by convention). */
   sectors?: number;
 }
@@ -126,6 +133,10 @@ export interface ComputeResult {
   largeN?: Partial<LargeNJson> & { airy?: AiryFitJson };
   /** Sector mode: the sector breakdown (per sector its valuations and whether it contributed). */
   sectors?: SectorsJson;
+  /** Set on a partial result: the phase that did not finish, and why (filled in by the caller). */
+  incomplete?: { phase: Progress['phase']; reason: string };
+  /** Present when the order is too low for some rows: which, and which order reaches N_max. */
+  orderAdvice?: OrderAdviceJson;
   /** Infinite sums, products and lattices cut off at the order, with the terms they used. */
   truncations: { field: string; what: string; terms: number }[];
   timings: {
@@ -143,8 +154,11 @@ export interface ComputeResult {
 /** Progress report: a phase and how far it is. */
 export interface Progress {
   phase: 'weights' | 'recursion' | 'product' | 'grand' | 'reference' | 'classSum' | 'sectors';
+  /** Work done in this phase, in `unit`s (cycle types of the class table, products of the recursion). */
   done: number;
   total: number;
+  /** What done and total count; absent where they count rows N. */
+  unit?: string;
 }
 
 /** Callbacks and switches of `compute`. */
@@ -160,6 +174,11 @@ export interface ComputeOptions {
    * weights and neither onClass nor collectClasses, the rows are written straight from integers.
    */
   onClassText?: (text: string) => void;
+  /**
+   * Receives the result without the class table as soon as the cheap routes and the checks are
+   * done (before the class phase), so a caller can keep it if a later phase fails.
+   */
+  onPartial?: (partial: ComputeResult) => void;
   /** Keep class rows in `result.classes` (default: true unless onClass or onClassText is given). */
   collectClasses?: boolean;
 }

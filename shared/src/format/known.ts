@@ -1,4 +1,6 @@
+import Fraction from 'fraction.js';
 import type { ComputeResult } from '../engine/result.js';
+import { rowsText } from '../engine/canonical/order-advice.js';
 import { isNumericValue } from './numeric.js';
 import { isNumericResult } from './numeric-render.js';
 
@@ -20,7 +22,7 @@ export function seriesOrder(r: Pick<ComputeResult, 'spec' | 'canonical'>): strin
 
 /**
  * One sentence of what is known about a result's values, for dataset headers and exports:
- * exact, truncated at O(x^k), or numeric with the requested digits and how errors were estimated.
+ * exact, a series to O(x^k) (with the rows not determined), or numeric with the requested digits and how errors were estimated.
  */
 export function knownSentence(r: Pick<ComputeResult, 'spec' | 'numeric' | 'canonical'>): string {
   if (isNumericResult(r)) {
@@ -38,5 +40,18 @@ export function knownSentence(r: Pick<ComputeResult, 'spec' | 'numeric' | 'canon
   const cut = seriesOrder(r);
   if (cut === null) return 'exact (every coefficient determined)';
   const x = r.spec.variable;
-  return `truncated at O(${x}^${/^\d+$/.test(cut) ? cut : `(${cut})`})`;
+  const pw = (e: string): string => `${x}^${/^\d+$/.test(e) ? e : `(${e})`}`;
+  // the lowest order of any row: a row's order may lie below the spec's (negative exponents)
+  const orders = r.canonical.flatMap((c) =>
+    !isNumericValue(c.value) && c.value.order !== null ? [c.value.order] : [],
+  );
+  const low = orders.reduce((a, b) => (new Fraction(b).compare(a) < 0 ? b : a), cut);
+  const reach =
+    low === cut
+      ? `series to O(${pw(cut)}): every coefficient below ${pw(cut)} determined`
+      : `series to O(${pw(cut)}), some rows only to O(${pw(low)}): each row says its own order`;
+  const open = r.canonical.filter((c) => c.determined === false).map((c) => c.N);
+  return open.length > 0
+    ? `${reach}; Z(N) for N = ${rowsText(open)} not determined at this order`
+    : reach;
 }

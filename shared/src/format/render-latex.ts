@@ -36,7 +36,9 @@ function valueLines(v: AnyValue, variable: string, width?: number): string[] {
 export function canonicalLatex(rows: readonly CanonicalRowLike[], variable: string): string[] {
   return alignDisplay(
     rows.map((c) => {
-      if (c.determined === false) return `Z(${c.N}) &= \\text{not determined}`;
+      if (c.determined === false) {
+        return `Z(${c.N}) &= \\text{not determined: } ${valueLines(c.value, variable).join(' ')}`;
+      }
       const note = c.recognized ? c.recognized.latex : '';
       return alignRow(`Z(${c.N})`, valueLines(c.value, variable), note);
     }),

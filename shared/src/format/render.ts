@@ -17,7 +17,7 @@ import {
 } from './numeric-render.js';
 import { alignColumns, csvLines, csvRow, type ExportTable } from './tables.js';
 import { verdictText } from './verdicts.js';
-import { cycleTypeText, knownTo, valuation, valueText } from './values.js';
+import { cycleTypeText, knownTo, NOT_DETERMINED, valuation, valueText } from './values.js';
 import { VERDICT } from './vocabulary.js';
 
 type CanonicalRow = ComputeResult['canonical'][number];
@@ -39,7 +39,9 @@ export function routeCheckText(row: { routes: readonly string[]; agrees: boolean
 
 /** Z(N) as text: the value, or `not determined` for a row beyond the order. */
 function zText(row: CanonicalRowLike, variable: string): string {
-  return row.determined === false ? 'not determined' : valueText(row.value, variable);
+  return row.determined === false
+    ? `${NOT_DETERMINED} (${valueText(row.value, variable)})`
+    : valueText(row.value, variable);
 }
 
 /**
@@ -114,11 +116,23 @@ function checkLines(r: ComputeResult): string[] {
     out.push(`implied weight L = ${v.L}: ${verdictText(v, x)}`);
   for (const v of r.referenceCheck ?? []) out.push(`reference N = ${v.N}: ${verdictText(v, x)}`);
   const numeric = isNumericResult(r);
+  // a cut repeated in many sectors is said once, with how often and the range of terms
+  const groups = new Map<string, { field: string; what: string; terms: number[] }>();
   for (const t of r.truncations) {
+    const key = `${t.field}\u0000${t.what}`;
+    const g = groups.get(key) ?? { field: t.field, what: t.what, terms: [] };
+    g.terms.push(t.terms);
+    groups.set(key, g);
+  }
+  for (const g of groups.values()) {
+    const lo = Math.min(...g.terms);
+    const hi = Math.max(...g.terms);
+    const terms = lo === hi ? `${lo} terms` : `${lo}–${hi} terms`;
+    const times = g.terms.length > 1 ? ` (${g.terms.length} times)` : '';
     out.push(
       numeric
-        ? `${t.field}: ${t.what} stopped by the tolerance rule after ${t.terms} terms`
-        : `${t.field}: ${t.what} cut off at the order after ${t.terms} terms`,
+        ? `${g.field}: ${g.what} stopped by the tolerance rule after ${terms}${times}`
+        : `${g.field}: ${g.what} cut off at the order after ${terms}${times}`,
     );
   }
   return out;
@@ -149,6 +163,7 @@ export function renderTable(r: ComputeResult): string {
     lines.push('', 'class table', ...alignColumns(t.columns, t.rows));
   }
   lines.push(...sectorTableLines(r));
+  if (r.orderAdvice) lines.push('', r.orderAdvice.message);
   lines.push(...largeNTableLines(r.largeN, (v: ValueJson) => valueText(v, x)));
   const airy = airyTableLines(r);
   if (airy.length) lines.push('', ...airy);

@@ -99,6 +99,7 @@ export function texTerms(value: ValueJson, variable = 'q', maxTerms = Infinity):
 /** The lowest-order term alone (`q^(9/2)`), or `0` when every known coefficient vanishes. */
 export function leadingTerm(value: AnyValue, variable = 'q'): string {
   if (isNumericValue(value)) return numericText(value);
+  if (isUndetermined(value)) return NOT_DETERMINED;
   const first = value.terms[0];
   return first ? valueText({ order: null, terms: [first] }, variable) : '0';
 }
@@ -106,8 +107,26 @@ export function leadingTerm(value: AnyValue, variable = 'q'): string {
 /** LaTeX of the lowest-order term. */
 export function leadingTermTex(value: AnyValue, variable = 'q'): string {
   if (isNumericValue(value)) return numericTex(value);
+  if (isUndetermined(value)) return `\\text{${NOT_DETERMINED}}`;
   const first = value.terms[0];
   return first ? valueTex({ order: null, terms: [first] }, variable) : '0';
+}
+
+/** What a value no coefficient of which is known is called, on every screen and export. */
+export const NOT_DETERMINED = 'not determined';
+
+/**
+ * True for a truncated series with no known non-zero coefficient: its lowest exponent is at or
+ * beyond the order, so it is "not determined", never 0 (PRODUCT.md, "Honest rows").
+ */
+export function isUndetermined(value: AnyValue): boolean {
+  return !isNumericValue(value) && value.order !== null && value.terms.length === 0;
+}
+
+/** A row's value in words: the series, or `not determined (O(q^k))`. */
+export function rowValueText(value: AnyValue, variable = 'q'): string {
+  const text = valueText(value, variable);
+  return isUndetermined(value) ? `${NOT_DETERMINED} (${text})` : text;
 }
 
 /** Exponent of the lowest non-zero term, or null when none is known. */

@@ -12,7 +12,8 @@ export interface MismatchJson {
 
 /** A series verdict: agreement below an exponent, or the first mismatch. */
 export interface SeriesVerdictJson {
-  agrees: boolean;
+  /** null: not compared, the computed row is not determined at the order. */
+  agrees: boolean | null;
   /** Exponent below which every coefficient agrees; null when both are exact and equal. */
   agreesBelow: string | null;
   firstMismatch: MismatchJson | null;
@@ -29,6 +30,9 @@ export interface NumericVerdictJson {
 
 /** Any verdict of a check, series or numeric. */
 export type AnyVerdictJson = SeriesVerdictJson | NumericVerdictJson;
+
+/** A check on a row that is not determined at the order: nothing was compared. */
+export const NOT_COMPARED_TEXT = 'not compared (not determined at the order)';
 
 /** True for a numeric verdict, which carries the tolerance it was compared within. */
 export function isNumericVerdict(v: unknown): v is NumericVerdictJson {
@@ -104,6 +108,7 @@ export function numericVerdictText(v: NumericVerdictJson): string {
 /** Any verdict in words: the agreement phrase, or the mismatch with both sides. */
 export function verdictText(v: AnyVerdictJson, variable = 'q'): string {
   if (isNumericVerdict(v)) return numericVerdictText(v);
+  if (v.agrees === null) return NOT_COMPARED_TEXT;
   const m = readMismatch(v.firstMismatch);
   if (!v.agrees && m) return mismatchText(m, variable);
   if (!v.agrees) return VERDICT.differs;

@@ -12,6 +12,7 @@ import { Gas } from './gas.entity.js';
 import { Invitation } from './invitation.entity.js';
 import { ReferenceTable } from './reference-table.entity.js';
 import { Run, type RunStatus } from './run.entity.js';
+import { RateLimit } from './rate-limit.entity.js';
 import { Setting } from './setting.entity.js';
 import { StudyMember } from './study-member.entity.js';
 import { Study } from './study.entity.js';
@@ -20,6 +21,7 @@ import { User } from './user.entity.js';
 export { AuditEvent, Invitation, Setting, Study, StudyMember, User };
 export { Comparison, Gas, GasVersion, ReferenceTable, Run, type RunStatus };
 export { Dataset, DatasetComment, DatasetReview, DatasetReviewRequest, DatasetWaiver };
+export { RateLimit };
 export type { DatasetState };
 
 /** Every entity, for the data source. */
@@ -40,4 +42,5 @@ export const ENTITIES = [
   DatasetReview,
   DatasetComment,
   DatasetWaiver,
+  RateLimit,
 ];

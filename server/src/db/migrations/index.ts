@@ -3,6 +3,7 @@ import { LookupIndexes1764619260000 } from './1764619260000-lookup-indexes.js';
 import { GasesRunsReferences1764705600000 } from './1764705600000-gases-runs-references.js';
 import { Datasets1764792000000 } from './1764792000000-datasets.js';
 import { AuditStudyScope1796300000000 } from './1796300000000-audit-study-scope.js';
+import { SignInLimits1796300060000 } from './1796300060000-sign-in-limits.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -11,4 +12,5 @@ export const MIGRATIONS = [
   GasesRunsReferences1764705600000,
   Datasets1764792000000,
   AuditStudyScope1796300000000,
+  SignInLimits1796300060000,
 ];

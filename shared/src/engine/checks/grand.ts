@@ -9,15 +9,18 @@ import { scale } from '../series/arith.js';
 import { Series } from '../series/series.js';
 import type { GasSpec } from '../spec/schema.js';
 
+/**
+ * A verdict, or "not compared" (`agrees: null`, `determined: false`) when the computed side is
+ * not determined at the order: nothing was compared, so nothing agrees.
+ */
+export type CheckedVerdict =
+  Verdict | { agrees: null; agreesBelow: null; firstMismatch: null; determined: false };
+
 /** Verdict for one N (grand and reference checks). */
-export interface RowVerdict extends Verdict {
-  N: number;
-}
+export type RowVerdict = CheckedVerdict & { N: number };
 
 /** Verdict for one cycle weight implied by a supplied grand function. */
-export interface WeightVerdict extends Verdict {
-  L: number;
-}
+export type WeightVerdict = CheckedVerdict & { L: number };
 
 /** Outcome of the grand check. */
 export interface GrandOutcome {

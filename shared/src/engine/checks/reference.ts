@@ -36,9 +36,9 @@ export interface CompareRowsOptions {
 }
 
 /** A reference verdict; with `withSeries`, a differing row carries both sides whole. */
-export interface ReferenceRowVerdict extends RowVerdict {
+export type ReferenceRowVerdict = RowVerdict & {
   series?: { computed: ValueJson; supplied: ValueJson };
-}
+};
 
 /**
  * Row-by-row verdicts against supplied rows: normalization(N) * Z(N) (the computed side) is

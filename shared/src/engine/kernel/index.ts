@@ -4,21 +4,9 @@
  * transforms (modular/), truncated products (multiply/) and streaming cycle-type walks for class
  * sums (classes/). The rational and series bookkeeping stays in the engine's general layer.
  */
-export { mulTrunc, mulSchoolbook, mulKronecker, mulSparse } from './multiply/mul-trunc.js';
-export { newtonTable, newtonTableModular } from './newton/table.js';
-export { newtonTableBig } from './newton/big.js';
+export { mulTrunc } from './multiply/mul-trunc.js';
+export { newtonTable } from './newton/table.js';
 export { chooseNewtonRoute, type NewtonRoute } from './newton/route.js';
-export { newtonIsIntegral } from './newton/integrality.js';
 export type { NewtonTableInput, NewtonTableResult } from './newton/types.js';
-export {
-  foldCycleTypes,
-  forEachCycleType,
-  exponentNotation,
-  type CycleTypeVisit,
-} from './classes/cycle-types.js';
-export {
-  classSumRational,
-  reduceRational,
-  type ClassSumInput,
-  type RationalParts,
-} from './classes/class-sum.js';
+export { foldCycleTypes, exponentNotation, type CycleTypeVisit } from './classes/cycle-types.js';
+export { classSumRational, type ClassSumInput, type RationalParts } from './classes/class-sum.js';

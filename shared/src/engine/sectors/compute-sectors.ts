@@ -1,5 +1,6 @@
 import Fraction from 'fraction.js';
 import { classRowJsonText } from '../canonical/class-text.js';
+import { markHonestRows } from '../canonical/honest-rows.js';
 import { runLargeN, runTableChecks, tagged } from '../checks/table-checks.js';
 import { EngineError } from '../errors.js';
 import { parseExpression } from '../expr/sandbox.js';
@@ -151,6 +152,7 @@ export function assembleSectors(
     sectors: N === 0 ? 0 : breakdown.rows.filter((r) => r.contributes[N - 1]).length,
   }));
   result.sectors = breakdown;
+  markHonestRows(result, Z, weights);
   runLargeN(spec, Z, { variable: spec.variable, cap, nMax }, result);
   result.timings.productMs = t2 - t1;
   result.timings.checksMs = t3 - t2;

@@ -194,6 +194,26 @@ describe('sector sums against independent methods', () => {
     expect(r.sectors!.rows.find((s) => s.index[0] === 0)?.contributed).toBe(false);
   });
 
+  it('a weight of negative valuation is met by computing its sectors one order further', () => {
+    // w = q^(-2): w Z_n is wanted to O(q^8), so Z_n is computed to O(q^10) and nothing is lost;
+    // checked against q^(-2) (Z_0 + Z_1) from two plain gases at order 10 (series product by hand)
+    const spectrum = (n: number) => ({ kind: 'spectrum', expression: `q^(abs(p) + ${n})` });
+    const r = compute(
+      gas({
+        order: '8',
+        nMax: 3,
+        weights: { kind: 'spectrum', expression: 'q^(abs(p) + n)' },
+        sectors: { index: ['n'], from: [0], to: [1], weight: 'q^(-2)' },
+      }),
+    );
+    const plain = [0, 1].map((n) => compute(gas({ order: '10', nMax: 3, weights: spectrum(n) })));
+    for (let N = 1; N <= 3; N++) {
+      const sum = ser(`q^(-2) * (${termsText(plain[0]!, N)} + ${termsText(plain[1]!, N)})`, '10');
+      expect(r.canonical[N]!.value).toEqual(toValueJson(sum));
+      expect((r.canonical[N]!.value as { order: string }).order).toBe('8');
+    }
+  });
+
   it('weights given as a list may use the index', () => {
     // Z_L = q^(L n) for n = 1, 2: sector n is one state q^n, so Z(1) = q + q^2 and Z(2) = 0
     const r = compute(

@@ -105,4 +105,23 @@ describe('UserList', () => {
     await fixture.whenStable();
     expect(await (await roleSelect(1)).getValueText()).toBe('Author');
   });
+
+  it('sends an invited person the invitation again; active people get no such button', async () => {
+    const invited = testUser('reviewer', {
+      id: 'u-new',
+      displayName: 'Noor Haddad',
+      invited: true,
+    });
+    await render(() => [me, author, invited]);
+    expect(rows()[1]!.querySelector('[data-testid="user-resend-invitation"]')).toBeNull();
+    const resend = rows()[2]!.querySelector<HTMLButtonElement>(
+      '[data-testid="user-resend-invitation"]',
+    )!;
+    resend.click();
+    const req = httpTesting.expectOne('/api/users/u-new/invitations');
+    expect(req.request.method).toBe('POST');
+    req.flush({ invitation: { id: 'i-1', email: 'noor@example.test' } });
+    await fixture.whenStable();
+    expect(document.body.textContent).toContain('Invitation sent again to noor@example.test.');
+  });
 });

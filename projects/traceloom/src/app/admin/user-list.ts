@@ -86,6 +86,22 @@ export class UserList {
     this.save(user, { disabled }, done);
   }
 
+  protected resendInvitation(user: UserDto): void {
+    this.pending.set(user.id);
+    this.api.resendInvitation(user.id).subscribe({
+      next: (res) => {
+        this.pending.set(null);
+        this.snackBar.open(`Invitation sent again to ${res.invitation.email}.`, undefined, {
+          duration: 3000,
+        });
+      },
+      error: (err: unknown) => {
+        this.pending.set(null);
+        this.snackBar.open(messageOf(err), 'Dismiss', { duration: 6000 });
+      },
+    });
+  }
+
   private save(user: UserDto, body: { role?: Role; disabled?: boolean }, done: string): void {
     this.pending.set(user.id);
     this.api.update(user.id, body).subscribe({

@@ -13,6 +13,14 @@ export class UsersApi {
     return this.http.post<InviteResponse>('/api/users', body);
   }
 
+  /** Mails an invited person who has not chosen a password a fresh invitation. */
+  resendInvitation(id: string): Observable<{ invitation: { id: string; email: string } }> {
+    return this.http.post<{ invitation: { id: string; email: string } }>(
+      `/api/users/${encodeURIComponent(id)}/invitations`,
+      {},
+    );
+  }
+
   /** Changes a user's role, display name or disabled flag. */
   update(
     id: string,

@@ -104,4 +104,18 @@ describe('SignIn', () => {
     await setUp('production');
     expect(byTestId('sign-in-demo-hint')).toBeNull();
   });
+
+  it('mails a link for a new password to the address in the e-mail field', async () => {
+    await setUp();
+    byTestId<HTMLButtonElement>('sign-in-forgot').click();
+    await fixture.whenStable();
+    httpTesting.expectNone('/api/auth/password-reset');
+    await type('sign-in-email', 'ada@example.test');
+    byTestId<HTMLButtonElement>('sign-in-forgot').click();
+    const req = httpTesting.expectOne('/api/auth/password-reset');
+    expect(req.request.body).toEqual({ email: 'ada@example.test' });
+    req.flush({ message: 'If an active account has this address, a link is on its way.' });
+    await fixture.whenStable();
+    expect(byTestId('sign-in-reset-notice').textContent).toContain('a link is on its way');
+  });
 });

@@ -10,7 +10,7 @@ import { MatProgressSpinnerModule } from '@angular/material/progress-spinner';
 import { ActivatedRoute, Router } from '@angular/router';
 import { catchError, map, of } from 'rxjs';
 import { messageOf } from '../core/api-error';
-import { API_LIMITS, HealthDto, loginSchema } from '@traceloom/shared/api';
+import { API_LIMITS, HealthDto, loginSchema, passwordResetSchema } from '@traceloom/shared/api';
 import { parseForRequest } from '../core/form-errors';
 import { Session } from '../core/session';
 import { LogoMark } from '../shell/logo-mark';
@@ -44,14 +44,15 @@ export class SignIn {
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
   protected readonly hidePassword = signal(true);
+  /** The server's answer to a password-reset request. */
+  protected readonly notice = signal<string | null>(null);
+  private readonly http = inject(HttpClient);
   /** The demo sign-in is shown only when the server runs in demo mode. */
   protected readonly demo = toSignal(
-    inject(HttpClient)
-      .get<HealthDto & { mode?: string }>('/api/health')
-      .pipe(
-        map((h) => h.mode === 'demo'),
-        catchError(() => of(false)),
-      ),
+    this.http.get<HealthDto & { mode?: string }>('/api/health').pipe(
+      map((h) => h.mode === 'demo'),
+      catchError(() => of(false)),
+    ),
     { initialValue: false },
   );
 
@@ -75,6 +76,20 @@ export class SignIn {
         this.busy.set(false);
         this.error.set(messageOf(err));
       },
+    });
+  }
+
+  /** Asks the server to mail a link for a new password to the address in the e-mail field. */
+  protected forgot(): void {
+    const email = this.form.controls.email;
+    email.markAsTouched();
+    if (email.invalid) return;
+    this.error.set(null);
+    const body = passwordResetSchema.safeParse({ email: email.value });
+    if (!body.success) return;
+    this.http.post<{ message: string }>('/api/auth/password-reset', body.data).subscribe({
+      next: (answer) => this.notice.set(answer.message),
+      error: (err: unknown) => this.error.set(messageOf(err)),
     });
   }
 

@@ -57,7 +57,8 @@ export interface ReferenceFields {
 /** The verdict for one N of a comparison. */
 export interface ComparisonRow {
   N: number;
-  agrees: boolean;
+  /** null: not compared (the computed row is not determined at the order). */
+  agrees: boolean | null;
   agreesBelow: string | null;
   firstMismatch: MismatchJson | null;
   /** A differing series row: normalization × Z(N) as computed and the table's value, whole. */

@@ -9,8 +9,8 @@ export function comparisonExport(comparison: ComparisonDto): ExportTable {
       const m = readMismatch(r.firstMismatch);
       return [
         String(r.N),
-        r.agrees ? 'agrees' : 'differs',
-        r.agreesBelow ?? 'exact',
+        r.agrees === null ? 'not compared' : r.agrees ? 'agrees' : 'differs',
+        r.agrees === null ? '' : (r.agreesBelow ?? 'exact'),
         m?.exponent ?? '',
         m?.computed ?? '',
         m?.supplied ?? '',

@@ -10,6 +10,12 @@ describe('check matrix cells', () => {
     firstMismatch: { exponent: '3/2', computed: '8', supplied: '4' },
   };
 
+  it('a row that is not determined is not compared: no cell agrees, the text says so', () => {
+    const open = { N: 30, agrees: null, agreesBelow: null, firstMismatch: null };
+    expect(cellState(open, '0')).toBe('unchecked');
+    expect(verdictText(open)).toBe('not compared (not determined at the order)');
+  });
+
   it('marks coefficients below the agreed order as agreeing and the rest as unchecked', () => {
     expect(cellState(agreeing, '0')).toBe('agrees');
     expect(cellState(agreeing, '7/2')).toBe('agrees');

@@ -1,4 +1,4 @@
-import { rationalNumber, type MismatchJson } from '@traceloom/shared/format';
+import { NOT_COMPARED_TEXT, rationalNumber, type MismatchJson } from '@traceloom/shared/format';
 
 /** What one cell of a check matrix says about one coefficient. */
 export type CellState = 'agrees' | 'differs' | 'unchecked';
@@ -6,12 +6,16 @@ export type CellState = 'agrees' | 'differs' | 'unchecked';
 /** One row verdict in the shape the engine and the API share. */
 export interface VerdictLike {
   N: number;
-  agrees: boolean;
+  /** null: "not compared", the computed row is not determined at the order. */
+  agrees: boolean | null;
   agreesBelow: string | null;
   firstMismatch: MismatchJson | null;
 }
 
 const EPS = 1e-9;
+
+/** A check on a row that is not determined at the order: nothing was compared. */
+export const NOT_COMPARED = NOT_COMPARED_TEXT;
 
 /**
  * The state of the coefficient of q^exponent in a row: below the first mismatch (or below the
@@ -19,6 +23,7 @@ const EPS = 1e-9;
  * determine, it was not checked.
  */
 export function cellState(row: VerdictLike, exponent: string): CellState {
+  if (row.agrees === null) return 'unchecked';
   const e = rationalNumber(exponent);
   if (row.firstMismatch) {
     const m = rationalNumber(row.firstMismatch.exponent);

@@ -21,7 +21,7 @@ import type { DatasetCheckDto, DatasetDto, StudyDto } from '@traceloom/shared/ap
 import type { Observable } from 'rxjs';
 import { ApiError, messageOf } from '../core/api-error';
 import { downloadText, fileStem } from '../exports/export-files';
-import { valueText } from '@traceloom/shared/format';
+import { rowValueText } from '@traceloom/shared/format';
 import { DatasetReviewPanel } from './dataset-review-panel';
 import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswer } from './datasets-api';
@@ -71,7 +71,8 @@ export class DatasetPage {
   protected readonly waiverReasons = signal<Partial<Record<string, string>>>({});
   protected readonly stateLabel = stateLabel;
   protected readonly stateIcon = stateIcon;
-  protected readonly valueText = valueText;
+  /** A row's value, or "not determined (O(q^k))" (honest rows). */
+  protected readonly valueText = rowValueText;
   protected readonly failCount = computed(
     () => this.dataset()?.checks.filter((c) => c.status === 'fails').length ?? 0,
   );

@@ -1,3 +1,4 @@
+import { RunEstimate } from '../runs/run-estimate';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -40,6 +41,7 @@ import { GasWeights } from './gas-weights';
 @Component({
   selector: 'tl-gas-editor',
   imports: [
+    RunEstimate,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,

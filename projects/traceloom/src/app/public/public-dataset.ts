@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
 import { DatasetsApi, PublicDataset } from '../datasets/datasets-api';
-import { valueText } from '@traceloom/shared/format';
+import { rowValueText } from '@traceloom/shared/format';
 import { LogoMark } from '../shell/logo-mark';
 
 /**
@@ -28,7 +28,8 @@ export class PublicDatasetPage {
   protected readonly data = signal<PublicDataset | null>(null);
   protected readonly error = signal<string | null>(null);
   protected readonly copied = signal(false);
-  protected readonly valueText = valueText;
+  /** A row's value, or "not determined (O(q^k))" (honest rows). */
+  protected readonly valueText = rowValueText;
 
   constructor() {
     effect(() => {

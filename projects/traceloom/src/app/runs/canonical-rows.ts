@@ -10,6 +10,7 @@ import {
   canonicalTable,
   coefficientMatrixCsv,
   isNumericValue,
+  isUndetermined,
   knownTo,
   latexComment,
   leadingTerm,
@@ -57,7 +58,10 @@ export interface CanonicalLine {
   termCount: number;
   knownTo: string;
   routes: string[];
-  agrees: boolean;
+  /** null: the row is not determined at the order, so the routes were not compared. */
+  agrees: boolean | null;
+  /** False when no coefficient of Z(N) is determined at the order. */
+  determined: boolean;
   text: string;
   /** Sector mode: how many sectors made this row (null outside sector mode). */
   sectors: number | null;
@@ -100,7 +104,8 @@ export function canonicalLines(
     termCount: isNumericValue(row.value) ? 0 : row.value.terms.length,
     knownTo: knownTo(row.value, variable),
     routes: [...(row.routes ?? ['recursion'])],
-    agrees: row.agrees ?? true,
+    agrees: isUndetermined(row.value) ? null : (row.agrees ?? true),
+    determined: !isUndetermined(row.value),
     text: valueText(row.value, variable),
     sectors: row.sectors ?? null,
   }));
@@ -128,6 +133,7 @@ function exportRows(lines: readonly CanonicalLine[]) {
     ...(l.recognized ? { recognized: l.recognized } : {}),
     ...(l.recognizeNote ? { recognizeNote: l.recognizeNote } : {}),
     ...(l.sectors !== null ? { sectors: l.sectors } : {}),
+    ...(l.determined ? {} : { determined: false }),
   }));
 }
 

@@ -75,6 +75,26 @@ describe('CanonicalTable', () => {
     expect(el.querySelector('[data-testid="canonical-sectors-1"]')).toBeNull();
   });
 
+  it('shows a row beyond the order as not determined, its routes not compared (never 0)', async () => {
+    // Z(7) of the trap starts at q^(49/2), beyond O(q^20): no coefficient is known
+    const beyond: CanonicalRowJson = {
+      N: 7,
+      value: { order: '20', terms: [] },
+      routes: ['recursion', 'classSum'],
+      agrees: null,
+      determined: false,
+    };
+    await render([trapRow(0), trapRow(1), beyond]);
+    const lead = el.querySelector('[data-testid="canonical-lead-7"]');
+    expect(lead?.getAttribute('data-plain')).toBe('not determined');
+    const cells = [...el.querySelectorAll('[data-testid="canonical-row-7"] td')].map((td) =>
+      td.textContent?.trim(),
+    );
+    expect(cells[3]).toBe('—');
+    expect(cells[6]).toContain('not compared (not determined)');
+    expect(cells.join(' ')).not.toMatch(/agree:/);
+  });
+
   it('says in words when the routes disagree (not by colour alone)', async () => {
     await render([trapRow(0), trapRow(1), trapRow(2, false)]);
     const cell = el.querySelector('[data-testid="canonical-agree-2"]');

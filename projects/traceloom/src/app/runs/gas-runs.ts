@@ -46,6 +46,8 @@ export class GasRuns {
   protected readonly loadError = signal<string | null>(null);
   protected readonly starting = signal(false);
   protected readonly startError = signal<string | null>(null);
+  /** The warnings of the run just started (order too low for some rows, a slow class table). */
+  protected readonly startWarnings = signal<string[]>([]);
   /** The run followed live (the newest active one). */
   protected readonly followed = signal<string | null>(null);
   protected readonly version = computed(() => this.viewedVersion() ?? this.latestVersion());
@@ -61,10 +63,12 @@ export class GasRuns {
   protected start(): void {
     this.starting.set(true);
     this.startError.set(null);
+    this.startWarnings.set([]);
     const version = this.viewedVersion() ?? undefined;
     this.api.start(this.gasId(), version).subscribe({
       next: (run) => {
         this.starting.set(false);
+        this.startWarnings.set(run.warnings ?? []);
         this.followed.set(run.id);
         this.reload(this.gasId());
       },

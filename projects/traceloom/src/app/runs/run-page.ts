@@ -25,6 +25,8 @@ import { RunPlots } from '../plots/run-plots';
 import { LargeNPanel } from '../largen/large-n-panel';
 import { NumericCaution } from './numeric-caution';
 import { RunProgressPanel } from './run-progress';
+import { RunEstimate } from './run-estimate';
+import { routeName } from '@traceloom/shared/format';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
 import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
 import { groupTruncations, truncationText } from './truncations';
@@ -48,6 +50,7 @@ import { groupTruncations, truncationText } from './truncations';
     RunProgressPanel,
     CreateDataset,
     NumericCaution,
+    RunEstimate,
   ],
   templateUrl: './run-page.html',
   styleUrl: './run-page.scss',
@@ -77,6 +80,12 @@ export class RunPage {
   protected readonly icons = STATUS_ICONS;
   protected readonly durationText = durationText;
   protected readonly runErrorText = runErrorText;
+
+  /** The routes a partial result's canonical table was computed by, in words. */
+  protected keptRoutes(result: NonNullable<RunDto['result']>): string {
+    const routes = result.canonical[0]?.routes ?? ['recursion'];
+    return routes.map(routeName).join(' and ');
+  }
 
   constructor() {
     effect(() => this.load(this.runId()));

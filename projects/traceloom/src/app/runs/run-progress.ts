@@ -45,6 +45,8 @@ export class RunProgressPanel {
   protected readonly done = signal(0);
   protected readonly total = signal(0);
   protected readonly phase = signal<string | null>(null);
+  /** What done and total count (cycle types, products); null where they count rows. */
+  protected readonly unit = signal<string | null>(null);
   protected readonly error = signal<string | null>(null);
   protected readonly cancelling = signal(false);
   protected readonly active = computed(() => isActive(this.status()));
@@ -102,6 +104,7 @@ export class RunProgressPanel {
       this.done.set(event.done);
       this.total.set(event.total);
       this.phase.set(event.phase ? phaseName(event.phase) : null);
+      this.unit.set(event.unit ?? null);
       return;
     }
     this.error.set(runErrorText(event.error));

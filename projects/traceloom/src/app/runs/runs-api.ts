@@ -13,6 +13,8 @@ export interface RunProgress {
   done: number;
   total: number;
   phase: string | null;
+  /** What done and total count (cycle types of the class table, products of the recursion). */
+  unit?: string;
 }
 
 /** One run of a gas (API contract, GET /api/gases/:id/runs). */
@@ -45,9 +47,38 @@ export interface RunDto extends RunSummary {
   classCounts?: Record<string, number>;
 }
 
+/** What `POST /api/gases/:id/runs` answers: the queued run and the warnings of its estimate. */
+export interface RunStarted {
+  id: string;
+  status: RunStatus;
+  warnings?: string[];
+}
+
+/** `POST /api/compute/estimate`: the class table's cost, the order advice, warnings, refusal. */
+export interface RunEstimateDto {
+  estimate: {
+    cycleTypes: number;
+    seriesLength: number;
+    classCoefficients: number;
+    classMemoryMb: number;
+    classSeconds: number;
+    orderAdvice: { undetermined: number[]; orderNeeded: string | null; message: string } | null;
+    summary: string;
+  };
+  warnings: string[];
+  refusal: { field: string; message: string } | null;
+}
+
 /** One server-sent event of a run: progress while it works, then the end. */
 export type RunEvent =
-  | { type: 'progress'; status: RunStatus; done: number; total: number; phase: string | null }
+  | {
+      type: 'progress';
+      status: RunStatus;
+      done: number;
+      total: number;
+      phase: string | null;
+      unit?: string;
+    }
   | { type: 'end'; status: RunStatus; error: RunSummary['error'] };
 
 /** True while a run may still change. */
@@ -69,12 +100,14 @@ export class RunsApi {
   private readonly session = inject(Session);
 
   /** Queues a run of the gas (its latest version unless `version` is given). */
-  start(gasId: string, version?: number): Observable<{ id: string; status: RunStatus }> {
+  start(gasId: string, version?: number): Observable<RunStarted> {
     const body = version === undefined ? {} : { version };
-    return this.http.post<{ id: string; status: RunStatus }>(
-      `/api/gases/${encodeURIComponent(gasId)}/runs`,
-      body,
-    );
+    return this.http.post<RunStarted>(`/api/gases/${encodeURIComponent(gasId)}/runs`, body);
+  }
+
+  /** What a run of the spec would cost and determine, judged against the run limits. */
+  estimate(spec: GasSpecInput): Observable<RunEstimateDto> {
+    return this.http.post<RunEstimateDto>('/api/compute/estimate', { spec });
   }
 
   list(gasId: string): Observable<RunSummary[]> {

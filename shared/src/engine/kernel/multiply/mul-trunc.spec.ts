@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { mulKronecker, mulSparse, mulTrunc } from './mul-trunc.js';
+import { mulKronecker, mulSchoolbook, mulTrunc } from './mul-trunc.js';
 
 /** Plain reference: every pair, then cut to n (common practice). */
 function reference(a: bigint[], b: bigint[], n: number): bigint[] {
@@ -34,7 +34,7 @@ describe('mulTrunc and its variants', () => {
         const expected = reference(a, b, n);
         expect(mulTrunc(a, b, n)).toEqual(expected);
         expect(mulKronecker(a, b, n)).toEqual(expected);
-        expect(mulSparse(a, b, n)).toEqual(expected);
+        expect(mulSchoolbook(a, b, n)).toEqual(expected);
       }),
       { numRuns: 200 },
     );

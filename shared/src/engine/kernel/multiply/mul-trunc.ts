@@ -35,7 +35,10 @@ function nonZeroCount(a: readonly bigint[], n: number): number {
   return k;
 }
 
-/** Schoolbook product, first n coefficients (zero coefficients of either side skipped). */
+/**
+ * Schoolbook product, first n coefficients; zero coefficients of either side are skipped, so it is
+ * also the sparse x dense product.
+ */
 export function mulSchoolbook(a: readonly bigint[], b: readonly bigint[], n: number): bigint[] {
   if (a.length > b.length) [a, b] = [b, a];
   if (a.length === 0) return [];
@@ -114,15 +117,6 @@ export function mulKronecker(a: readonly bigint[], b: readonly bigint[], n: numb
   const hexDigits = Math.ceil(bits / 4);
   const x = pack(a, la, hexDigits) * pack(b, lb, hexDigits);
   return unpack(x, len, hexDigits);
-}
-
-/** Sparse x dense product: only the non-zero coefficients of `sparse` are visited. */
-export function mulSparse(
-  sparse: readonly bigint[],
-  dense: readonly bigint[],
-  n: number,
-): bigint[] {
-  return mulSchoolbook(sparse, dense, n);
 }
 
 /**
