@@ -120,6 +120,7 @@ export function hasSectorCounts(lines: readonly CanonicalLine[]): boolean {
 export function agreementText(line: CanonicalLine): string {
   if (line.routes.length < 2) return `one route (${routeName(line.routes[0] ?? 'recursion')})`;
   const names = line.routes.map(routeName).join(', ');
+  if (line.agrees === null) return `not compared (not determined): ${names}`;
   return `${routeCheckText(line)}: ${names}`;
 }
 
