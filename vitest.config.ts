@@ -9,7 +9,11 @@ const alias = [
 ];
 
 /** Server specs whose figures are wall-clock measurements. */
-const TIMING_SPECS = ['server/src/runs/runs.spec.ts'];
+const TIMING_SPECS = [
+  'server/src/runs/runs.spec.ts',
+  'server/src/runs/large-result.spec.ts',
+  'server/src/runs/run-streams.spec.ts',
+];
 
 /**
  * Node-side test projects. The Angular client's unit tests run through `ng test`

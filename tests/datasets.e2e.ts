@@ -163,6 +163,16 @@ describe('datasets in the browser', () => {
     await p.page.goto(`/public/${hash}`);
     await expect(p.page.getByTestId('public-hash').innerText()).resolves.toBe(hash);
     await expect(p.page.getByTestId('public-citation').innerText()).resolves.toContain(hash!);
+    for (const [id, format] of [
+      ['public-bibtex', 'citation?format=bibtex'],
+      ['public-csl', 'citation?format=csl'],
+      ['public-csv', 'export?format=csv'],
+      ['public-latex', 'export?format=latex'],
+    ]) {
+      const href = await p.page.getByTestId(id!).getAttribute('href');
+      expect(href).toBe(`/api/public/datasets/${hash}/${format}`);
+      expect((await fetch(`${server.baseUrl}${href}`)).status).toBe(200);
+    }
     await browser.screenshot(p.page, 'datasets-public');
     await p.context.close();
     const exported = await fetch(

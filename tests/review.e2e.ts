@@ -111,6 +111,33 @@ describe('admin and reviewer screens', () => {
     await context.close();
   });
 
+  it('the spectrum form: nothing cut or overlapping, a syntax link, and a draft that survives a reload', async () => {
+    const { page, context } = await browser.newPage();
+    await signIn(page, 'author@demo.test');
+    await page.getByTestId('nav-studies').click();
+    await page.getByTestId('study-link').filter({ hasText: 'Fermions on a ring' }).click();
+    await page.getByTestId('gas-new').click();
+    await page.getByTestId('gas-title').fill('ring draft');
+    await page.getByTestId('gas-kind-spectrum').click();
+    await page.getByTestId('gas-spectrum').fill('q^abs(p)');
+    await page.getByTestId('gas-spectrum-offset').fill('1/2');
+    for (const name of ['Offset', 'From', 'To']) {
+      const label = page.locator('mat-label', { hasText: new RegExp(`^${name}$`) }).first();
+      // The label is shown whole: its text fits its box.
+      const fits = await label.evaluate((el) => el.scrollWidth <= el.clientWidth + 1);
+      expect(fits, name).toBe(true);
+    }
+    expect(await page.getByRole('link', { name: 'Syntax' }).count()).toBeGreaterThanOrEqual(1);
+    await browser.screenshot(page, 'review-gas-spectrum-form');
+    await page.reload();
+    await page.getByTestId('gas-draft-restored').waitFor();
+    await expect(page.getByTestId('gas-title').inputValue()).resolves.toBe('ring draft');
+    await expect(page.getByTestId('gas-spectrum').inputValue()).resolves.toBe('q^abs(p)');
+    await page.getByTestId('gas-draft-discard').click();
+    await expect(page.getByTestId('gas-title').inputValue()).resolves.toBe('');
+    await context.close();
+  });
+
   it('no request went to another host', () => {
     expect(browser.foreignRequests()).toEqual([]);
   });

@@ -42,6 +42,8 @@ export async function createApp({ dataSource, config, log }: AppDeps): Promise<E
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
+  // No ETag: it would hash every (possibly large) answer on the main thread.
+  app.set('etag', false);
   app.use(securityHeaders());
   app.use('/api', noStore, express.json({ limit: config.bodyLimitBytes }), jsonDepthGuard);
   const limiters = signInLimiters(dataSource, config.signIn);

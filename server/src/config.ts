@@ -40,6 +40,8 @@ export interface ServerConfig {
   uploadLimitBytes: number;
   /** Scheduled backups (`TRACELOOM_BACKUP_DIR`), or null when off. */
   backups: BackupSchedule | null;
+  /** Previews (`POST /api/compute`) one person may ask for per window. */
+  previewLimit?: { limit: number; windowMs: number };
 }
 
 /** How background runs are executed and bounded. */
@@ -54,6 +56,10 @@ export interface RunLimits {
   maxOldGenerationSizeMb: number;
   /** Wall-clock limit of the synchronous preview (`POST /api/compute`), kept under 2 s. */
   previewMs: number;
+  /** Progress streams (`GET /api/runs/:id/events`) one person may hold open at once. */
+  streamsPerUser?: number;
+  /** Progress streams open at once on the whole server. */
+  streamsTotal?: number;
 }
 
 /** The password hashing cost used outside tests (OWASP Password Storage Cheat Sheet minimum). */
@@ -77,6 +83,8 @@ export const DEFAULT_CONFIG: ServerConfig = {
     perUserCap: 2,
     maxOldGenerationSizeMb: 1024,
     previewMs: 1500,
+    streamsPerUser: 8,
+    streamsTotal: 200,
   },
   uploadLimitBytes: 10 * 1024 * 1024,
   backups: null,

@@ -1,4 +1,4 @@
-import type { Request, RequestHandler } from 'express';
+import type { RequestHandler } from 'express';
 import jwt from 'jsonwebtoken';
 import passport from 'passport';
 import { ExtractJwt, Strategy as JwtStrategy } from 'passport-jwt';
@@ -15,16 +15,6 @@ function unauthenticated(): AppError {
     'unauthenticated',
     'Sign in to continue: the token is missing or no longer valid.',
   );
-}
-
-const fromQuery = ExtractJwt.fromUrlQueryParameter('access_token');
-
-/**
- * `?access_token=` for server-sent event streams only (EventSource cannot send headers); every
- * other route takes the token from the Authorization header alone.
- */
-function eventStreamToken(req: Request): string | null {
-  return req.method === 'GET' && req.path.endsWith('/events') ? fromQuery(req) : null;
 }
 
 /** Seconds a token's `iat` may lie in the future (clocks of one machine; common practice). */
@@ -47,17 +37,16 @@ export function lifetimeOk(claims: { exp?: unknown; iat?: unknown }, maxAge: num
  * `exp` and a maximum age required, then the database. A token only
  * counts while its user exists, is not disabled and still has the token version (`tv`) it was
  * signed with — so logout, a role change and disabling revoke every earlier token. Sets
- * `res.locals.actor` from the database row (never from the token's claims) or answers 401.
+ * `res.locals.actor` from the database row (never from the token's claims) and `res.locals.token`
+ * ({tv, exp}), or answers 401.
  */
 export function createAuthenticate(ctx: AppContext): RequestHandler {
   const authenticator = new passport.Passport();
   authenticator.use(
     new JwtStrategy(
       {
-        jwtFromRequest: ExtractJwt.fromExtractors([
-          ExtractJwt.fromAuthHeaderAsBearerToken(),
-          eventStreamToken,
-        ]),
+        // The Authorization header only: a token never travels in a URL (logs, history).
+        jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
         // The key named by the token's `kid`: the current one or one kept since a rotation.
         secretOrKeyProvider: (_req, rawToken: string, done) => {
           const kid = jwt.decode(rawToken, { complete: true })?.header.kid;
@@ -70,7 +59,7 @@ export function createAuthenticate(ctx: AppContext): RequestHandler {
       },
       (
         claims: Partial<TokenClaims> & { exp?: unknown; iat?: unknown },
-        done: (err: unknown, user?: Actor | false) => void,
+        done: (err: unknown, user?: Actor | false, info?: unknown) => void,
       ) => {
         if (typeof claims.sub !== 'string' || typeof claims.tv !== 'number')
           return done(null, false);
@@ -81,17 +70,23 @@ export function createAuthenticate(ctx: AppContext): RequestHandler {
           .then((user) => {
             if (!user || user.disabled || user.tokenVersion !== claims.tv) return done(null, false);
             const { id, email, displayName, role } = user;
-            done(null, { id, email, displayName, role });
+            done(null, { id, email, displayName, role }, { tv: claims.tv, exp: claims.exp });
           }, done);
       },
     ),
   );
   return (req, res, next) => {
-    authenticator.authenticate('jwt', { session: false }, (err: unknown, actor: Actor | false) => {
-      if (err) return next(err);
-      if (!actor) return next(unauthenticated());
-      res.locals.actor = actor;
-      next();
-    })(req, res, next);
+    authenticator.authenticate(
+      'jwt',
+      { session: false },
+      (err: unknown, actor: Actor | false, token: unknown) => {
+        if (err) return next(err);
+        if (!actor) return next(unauthenticated());
+        res.locals.actor = actor;
+        // Version and expiry of the token, for what outlives the request (progress streams).
+        res.locals.token = token;
+        next();
+      },
+    )(req, res, next);
   };
 }

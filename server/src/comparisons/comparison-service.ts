@@ -9,7 +9,7 @@ import { AppError } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import type { WorkerRefusal } from '../runs/worker.js';
-import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import { loadVisibleRun, loadResult } from '../runs/run-service.js';
 import { isNumericTable } from '../references/reference-parse.js';
 import { loadVisibleReference } from '../references/reference-service.js';
 import type { ReferenceRow, RowVerdictDto } from './compare-rows.js';
@@ -63,7 +63,7 @@ export async function createComparison(
 ): Promise<ComparisonDto> {
   const input = parseInput(comparisonBodySchema, body);
   const run = await loadVisibleRun(ctx, actor, runId);
-  const result = run.status === 'done' ? unpackResult(run) : null;
+  const result = run.status === 'done' ? await loadResult(ctx, run) : null;
   if (!result) {
     throw new AppError(409, 'run_not_done', `The run is ${run.status}; compare a finished run.`);
   }

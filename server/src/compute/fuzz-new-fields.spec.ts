@@ -21,7 +21,8 @@ let token: string;
 let studyId: string;
 
 beforeAll(async () => {
-  t = await createTestApp({}, () => {});
+  // One person sends every probe here: the per-person preview limit is tested in preview-limit.spec.ts.
+  t = await createTestApp({ previewLimit: { limit: 1_000_000, windowMs: 60_000 } }, () => {});
   const author = await insertUser(t, 'author');
   token = await tokenFor(t, author);
   studyId = await insertStudy(t, author);

@@ -3,10 +3,14 @@ import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
 import type { RunLimits } from '../config.js';
 
-/** The two worker pools: background runs, and quick jobs (preview, comparisons). */
+/**
+ * The worker pools: background runs, quick jobs (preview, comparisons, uploads), and the probe
+ * that checks a gas before it is stored — on its own thread, so a preview flood cannot starve it.
+ */
 export interface WorkerPools {
   runs: Piscina;
   quick: Piscina;
+  probe: Piscina;
   destroy(): Promise<void>;
 }
 
@@ -47,11 +51,19 @@ export function createWorkerPools(limits: RunLimits): WorkerPools {
     idleTimeout: 60_000,
     resourceLimits: { maxOldGenerationSizeMb: 256 },
   });
+  const probe = new Piscina({
+    ...base,
+    minThreads: 1,
+    maxThreads: 1,
+    idleTimeout: 60_000,
+    resourceLimits: { maxOldGenerationSizeMb: 256 },
+  });
   return {
     runs,
     quick,
+    probe,
     async destroy() {
-      await Promise.all([runs.destroy(), quick.destroy()]);
+      await Promise.all([runs.destroy(), quick.destroy(), probe.destroy()]);
     },
   };
 }

@@ -1,12 +1,14 @@
 import type { DataSource } from 'typeorm';
 import type { AppContext } from '../app-context.js';
+import { RunEventHub } from '../runs/run-events.js';
 import { RunExecutor } from '../runs/run-executor.js';
 import { createWorkerPools, type WorkerPools } from './pools.js';
 
-/** The background machinery of one app: its worker pools and the run executor. */
+/** The background machinery of one app: its worker pools, the run executor, the run events. */
 export interface ComputeServices {
   pools: WorkerPools;
   executor: RunExecutor;
+  events: RunEventHub;
 }
 
 const byDataSource = new WeakMap<DataSource, ComputeServices>();
@@ -21,10 +23,15 @@ export function computeServices(ctx: AppContext): ComputeServices {
   if (existing) return existing;
   const pools = createWorkerPools(ctx.config.runs);
   const executor = new RunExecutor(ctx.dataSource, pools, ctx.config.runs);
-  const services = { pools, executor };
+  const events = new RunEventHub(ctx.dataSource, executor, {
+    streamsPerUser: ctx.config.runs.streamsPerUser ?? 8,
+    streamsTotal: ctx.config.runs.streamsTotal ?? 200,
+  });
+  const services = { pools, executor, events };
   byDataSource.set(ctx.dataSource, services);
   const destroy = ctx.dataSource.destroy.bind(ctx.dataSource);
   ctx.dataSource.destroy = async () => {
+    events.stop();
     await executor.stop();
     await destroy();
   };

@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { In, type EntityManager } from 'typeorm';
 import { Dataset } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
@@ -65,4 +65,59 @@ export async function loadWritableDataset(
   const dataset = await loadVisibleDataset(manager, actor, datasetId);
   assertWritable(dataset);
   return dataset;
+}
+
+/** The columns a dataset list needs: never the snapshot or canonical bytes. */
+export const DATASET_SUMMARY_SELECT = {
+  id: true,
+  version: true,
+  title: true,
+  state: true,
+  hash: true,
+  lockedAt: true,
+  createdAt: true,
+  updatedAt: true,
+  study: { id: true },
+  run: { id: true },
+  supersedes: { id: true, version: true },
+  createdBy: { id: true, displayName: true },
+} as const;
+
+/** Relations `DATASET_SUMMARY_SELECT` reads. */
+export const DATASET_SUMMARY_RELATIONS = {
+  study: true,
+  run: true,
+  supersedes: true,
+  createdBy: true,
+} as const;
+
+/**
+ * The datasets the actor may see (newest first; `studyId` narrows to one study), filtered by
+ * access in SQL and loaded without their snapshot bytes: what a list needs.
+ */
+export async function listVisibleDatasets(
+  manager: EntityManager,
+  actor: Actor,
+  studyId: string | null,
+): Promise<Dataset[]> {
+  const query = manager
+    .getRepository(Dataset)
+    .createQueryBuilder('d')
+    .select('d.id', 'id')
+    .innerJoin('d.study', 's');
+  if (studyId !== null) query.andWhere('s.id = :studyId', { studyId });
+  if (actor.role !== 'admin') {
+    query.andWhere(
+      '(s.owner_id = :me OR EXISTS (SELECT 1 FROM "study_member" m WHERE m.study_id = s.id AND m.user_id = :me))',
+      { me: actor.id },
+    );
+  }
+  const ids = (await query.getRawMany<{ id: string }>()).map((row) => row.id);
+  if (ids.length === 0) return [];
+  return manager.getRepository(Dataset).find({
+    where: { id: In(ids) },
+    select: DATASET_SUMMARY_SELECT,
+    relations: DATASET_SUMMARY_RELATIONS,
+    order: { createdAt: 'DESC' },
+  });
 }

@@ -1,14 +1,11 @@
 import { createHash } from 'node:crypto';
-import canonicalizeModule from 'canonicalize';
 import type { DatasetCheckDto, DatasetPersonDto } from '@traceloom/shared/api';
 import { csvRow, knownSentence, renderCsv, renderLatex } from '@traceloom/shared/format';
 import type { Dataset } from '../db/entities/index.js';
 import { datasetChecks } from './dataset-checks.js';
 import { person, type DatasetChildren } from './dataset-dto.js';
+import { canonicalText } from './canonical-json.js';
 import { readSnapshot, type DatasetSnapshot } from './snapshot.js';
-
-// The package is CommonJS (`module.exports = serialize`); its typings describe an ES default export.
-const canonicalize = canonicalizeModule as unknown as (value: unknown) => string | undefined;
 
 /** Format name of a dataset document. */
 export const DATASET_FORMAT = 'traceloom.dataset/1';
@@ -74,8 +71,7 @@ export function buildDocument(
  * `canonicalize` package) and its SHA-256 in lower-case hex (FIPS 180-4).
  */
 export function canonicalHash(value: unknown): { canonical: string; hash: string } {
-  const canonical = canonicalize(value);
-  if (canonical === undefined) throw new Error('The value has no JSON form.');
+  const canonical = canonicalText(value);
   return { canonical, hash: sha256Hex(canonical) };
 }
 

@@ -43,6 +43,13 @@ export async function toSummary(
   const children = known ?? (await loadChildren(manager, d.id));
   const verdicts = [...latestVerdicts(children.reviews).values()];
   const approved = d.state === 'in_review' && verdicts.includes('approve');
+  // Lists load no snapshot: only an approved dataset needs its checks, so only it reads one.
+  const full =
+    approved && d.snapshot === undefined
+      ? await manager
+          .getRepository(Dataset)
+          .findOneOrFail({ where: { id: d.id }, select: { id: true, state: true, snapshot: true } })
+      : d;
   return {
     id: d.id,
     studyId: d.study.id,
@@ -59,7 +66,7 @@ export async function toSummary(
     updatedAt: d.updatedAt,
     approved,
     // Ready for a steward who has not approved it (the approving steward may not lock).
-    readyToLock: approved && lockBlockers(d, children, '').length === 0,
+    readyToLock: approved && lockBlockers(full, children, '').length === 0,
   };
 }
 

@@ -20,6 +20,7 @@ import {
   reviewInbox,
 } from './dataset-service.js';
 import { exportDataset, importDataset, publicDataset, publicExport } from './export-service.js';
+import { publicCitation } from './citation-export.js';
 import { lockPreview } from './lock-preview.js';
 import { lockDataset, verifyDataset, withdrawDataset } from './lock-service.js';
 import { addComment, addReview, addWaiver, requestReview } from './review-service.js';
@@ -168,6 +169,12 @@ export function datasetRoutes(ctx: AppContext): RouteSpec[] {
       path: '/public/datasets/:hash/export',
       access: 'public',
       handler: ({ params, req, res }) => publicExport(ctx, params.hash, req.query.format, res),
+    },
+    {
+      method: 'get',
+      path: '/public/datasets/:hash/citation',
+      access: 'public',
+      handler: ({ params, req, res }) => publicCitation(ctx, params.hash, req.query.format, res),
     },
   ];
 }

@@ -12,9 +12,15 @@ import { Dataset, DatasetReview, DatasetReviewRequest } from '../db/entities/ind
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseId } from '../http/validate.js';
-import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import { loadVisibleRun, loadResult } from '../runs/run-service.js';
 import { canSee, loadVisibleStudy } from '../studies/study-access.js';
-import { DATASET_RELATIONS, loadVisibleDataset, loadWritableDataset } from './dataset-access.js';
+import {
+  DATASET_RELATIONS,
+  DATASET_SUMMARY_SELECT,
+  listVisibleDatasets,
+  loadVisibleDataset,
+  loadWritableDataset,
+} from './dataset-access.js';
 import { latestVerdicts, person, toDatasetDto, toSummary } from './dataset-dto.js';
 import type { DatasetSnapshot } from './snapshot.js';
 
@@ -30,7 +36,7 @@ export async function createDataset(
   input: DatasetCreateRequest,
 ): Promise<DatasetDto> {
   const run = await loadVisibleRun(ctx, actor, runId);
-  const result = run.status === 'done' ? unpackResult(run) : null;
+  const result = run.status === 'done' ? await loadResult(ctx, run, { classes: true }) : null;
   if (!result) {
     throw new AppError(
       409,
@@ -132,16 +138,12 @@ export async function listDatasets(
   studyId: unknown,
 ): Promise<DatasetSummaryDto[]> {
   const manager = ctx.dataSource.manager;
-  let where = {};
+  let id: string | null = null;
   if (studyId !== undefined) {
-    const id = parseId(typeof studyId === 'string' ? studyId : undefined, 'The study');
+    id = parseId(typeof studyId === 'string' ? studyId : undefined, 'The study');
     await loadVisibleStudy(manager, actor, id);
-    where = { study: { id } };
   }
-  const rows = await manager
-    .getRepository(Dataset)
-    .find({ where, relations: DATASET_RELATIONS, order: { createdAt: 'DESC' } });
-  const visible = rows.filter((d) => canSee(actor, d.study));
+  const visible = await listVisibleDatasets(manager, actor, id);
   return Promise.all(visible.map((d) => toSummary(manager, d)));
 }
 
@@ -219,6 +221,16 @@ export async function reviewInbox(ctx: AppContext, actor: Actor): Promise<Review
   const manager = ctx.dataSource.manager;
   const requests = await manager.getRepository(DatasetReviewRequest).find({
     where: { reviewer: { id: actor.id } },
+    // Never the snapshot bytes: the study's owner and members only, for the access check.
+    select: {
+      id: true,
+      createdAt: true,
+      dataset: {
+        ...DATASET_SUMMARY_SELECT,
+        study: { id: true, owner: { id: true }, members: { id: true, user: { id: true } } },
+      },
+      requestedBy: { id: true, displayName: true },
+    },
     relations: { dataset: DATASET_RELATIONS, requestedBy: true },
     order: { createdAt: 'DESC' },
   });

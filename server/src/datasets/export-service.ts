@@ -97,7 +97,8 @@ export async function exportDataset(
 
 const HASH = /^[0-9a-f]{64}$/;
 
-async function lockedByHash(ctx: AppContext, hash: string | undefined): Promise<Dataset> {
+/** The locked dataset with this hash; 404 otherwise. */
+export async function lockedByHash(ctx: AppContext, hash: string | undefined): Promise<Dataset> {
   const d =
     hash && HASH.test(hash)
       ? await ctx.dataSource

@@ -1,18 +1,13 @@
-import { MessageChannel } from 'node:worker_threads';
-import { gunzipSync } from 'node:zlib';
 import type { DatasetLockInput } from '@traceloom/shared/api';
-import type { ComputeResult } from '@traceloom/shared/engine';
 import type { EntityManager } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { computeServices } from '../compute/services.js';
-import { numericMismatches } from './numeric-verify.js';
-import { isNumericResult } from '../compute/numeric-values.js';
 import { Dataset } from '../db/entities/index.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { mailUsers } from '../mail/mailer.js';
-import type { RunOutput, WorkerRefusal } from '../runs/worker.js';
+import type { WorkerRefusal } from '../runs/worker.js';
 import {
   datasetLocked,
   isLockTrigger,
@@ -29,7 +24,6 @@ import {
 } from './dataset-dto.js';
 import { lockMail } from './dataset-mails.js';
 import { datasetLink } from './review-service.js';
-import { readSnapshot } from './snapshot.js';
 
 /**
  * The dataset if `actor` may lock it now (a steward, not its creator, nothing blocking), with its
@@ -168,64 +162,6 @@ export async function withdrawDataset(
   return { state: 'withdrawn' };
 }
 
-/** Parts of a result that must come out the same when the spec is computed again. */
-export const COMPARED = [
-  'spec',
-  'weights',
-  'canonical',
-  'classes',
-  'methods',
-  'grandCheck',
-  'impliedWeights',
-  'referenceCheck',
-  'truncations',
-] as const;
-
-/** A section's rows by a readable key ("canonical N = 3"; a non-list section is one row). */
-export function rowsByKey(section: string, value: unknown): Map<string, unknown> {
-  const out = new Map<string, unknown>();
-  if (!Array.isArray(value)) {
-    out.set(section, value ?? null);
-    return out;
-  }
-  const counts = new Map<string, number>();
-  for (const row of value as Array<Record<string, unknown>>) {
-    const base =
-      'N' in row ? `${section} N = ${row.N}` : 'L' in row ? `${section} L = ${row.L}` : section;
-    const k = (counts.get(base) ?? 0) + 1;
-    counts.set(base, k);
-    out.set(k > 1 ? `${base} #${k}` : base, row);
-  }
-  return out;
-}
-
-function keyed(section: string, value: unknown): Map<string, string> {
-  const out = new Map<string, string>();
-  for (const [k, row] of rowsByKey(section, value)) out.set(k, canonicalHash(row).canonical);
-  return out;
-}
-
-/** The places where two results differ (timings are not compared). */
-export function resultMismatches(stored: ComputeResult, fresh: ComputeResult): string[] {
-  if (isNumericResult(stored) || isNumericResult(fresh)) return numericMismatches(stored, fresh);
-  const out: string[] = [];
-  for (const section of COMPARED) {
-    const a = keyed(section, stored[section]);
-    const b = keyed(section, fresh[section]);
-    for (const k of new Set([...a.keys(), ...b.keys()])) {
-      if (a.get(k) !== b.get(k))
-        out.push(
-          !a.has(k)
-            ? `${k}: only in the recomputed result`
-            : !b.has(k)
-              ? `${k}: missing from the recomputed result`
-              : `${k}: differs`,
-        );
-    }
-  }
-  return out;
-}
-
 /**
  * `POST /datasets/:id/verify`: computes the stored spec again with the engine (in the run worker
  * pool) and compares every part of the result but timings with the stored one (numeric values
@@ -234,18 +170,12 @@ export function resultMismatches(stored: ComputeResult, fresh: ComputeResult): s
  */
 export async function verifyDataset(ctx: AppContext, actor: Actor, datasetId: string) {
   const d = await loadVisibleDataset(ctx.dataSource.manager, actor, datasetId);
-  const snapshot = readSnapshot(d.snapshot);
-  const channel = new MessageChannel();
   const started = Date.now();
-  let output: RunOutput | WorkerRefusal;
-  try {
-    output = (await computeServices(ctx).pools.runs.run(
-      { kind: 'run', spec: snapshot.spec, port: channel.port2 },
-      { transferList: [channel.port2], signal: AbortSignal.timeout(ctx.config.runs.wallClockMs) },
-    )) as RunOutput | WorkerRefusal;
-  } finally {
-    channel.port1.close();
-  }
+  // Parsing the snapshot, the computation and the comparison all happen in the worker.
+  const output = (await computeServices(ctx).pools.runs.run(
+    { kind: 'verify', snapshot: d.snapshot },
+    { signal: AbortSignal.timeout(ctx.config.runs.wallClockMs) },
+  )) as { ok: true; mismatches: string[] } | WorkerRefusal;
   if (!output.ok) {
     throw new AppError(
       422,
@@ -253,8 +183,7 @@ export async function verifyDataset(ctx: AppContext, actor: Actor, datasetId: st
       `The stored spec no longer computes: ${output.message}`,
     );
   }
-  const fresh = JSON.parse(gunzipSync(output.gzip).toString('utf8')) as ComputeResult;
-  const mismatches = resultMismatches(snapshot.result, fresh);
+  const mismatches = output.mismatches;
   const hashOk =
     d.state === 'locked' ? d.canonical !== null && sha256Hex(d.canonical) === d.hash : null;
   if (hashOk === false)

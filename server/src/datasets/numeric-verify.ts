@@ -1,6 +1,6 @@
 import type { ComputeResult } from '@traceloom/shared/engine';
 import { agreeWithinError, isNumericValue } from '../compute/numeric-values.js';
-import { COMPARED, rowsByKey } from './lock-service.js';
+import { COMPARED, rowsByKey } from './result-compare.js';
 
 /**
  * Keys whose text is itself an error estimate (a verdict's tolerance and difference): the values

@@ -1,15 +1,19 @@
+import { MessageChannel } from 'node:worker_threads';
 import type { GasSpec } from '@traceloom/shared/engine';
 import Fraction from 'fraction.js';
 import type { AppContext } from '../app-context.js';
 import { specRefusal } from '../compute/refusal.js';
 import { computeServices } from '../compute/services.js';
+import { AppError } from '../http/app-error.js';
 import type { WorkerRefusal } from '../runs/worker.js';
 
 /** The probe's size: N up to 2, eight grid steps. */
 const PROBE_N = 2;
 const PROBE_STEPS = 8;
-/** Longest the probe may take; a spec it cannot finish in time is accepted unjudged. */
-const PROBE_MS = 1000;
+/** Longest the probe may take; a spec it cannot judge in time is refused (503), never stored. */
+export const PROBE_MS = 5000;
+/** Longest a probe may wait for its worker to begin (a fresh worker first loads the engine). */
+const PROBE_START_GRACE_MS = 60_000;
 
 /** Digits a numeric probe computes (the least the gas schema lets a numeric spec ask for). */
 const PROBE_DIGITS = 8;
@@ -41,21 +45,41 @@ export function probeOf(spec: GasSpec): GasSpec {
 /**
  * Evaluates a cut-down copy of a spec in a worker before it is stored, so an unknown function,
  * a symbol out of place or a power beyond the engine's limits is refused at once (400 naming
- * the field) rather than when a run fails. A probe that runs out of time is no refusal (the
- * worker may have been starting); the run's own limits then apply.
+ * the field) rather than when a run fails. The probe has its own worker; when it cannot decide
+ * in time the gas is refused with 503 `probe_undecided` (try again) rather than stored unjudged.
  */
 export async function assertSpecEvaluates(ctx: AppContext, spec: GasSpec): Promise<void> {
-  const signal = AbortSignal.timeout(PROBE_MS);
+  const controller = new AbortController();
+  const channel = new MessageChannel();
+  let undecided = false;
+  const stop = () => {
+    undecided = true;
+    controller.abort();
+  };
+  // The probe's own clock starts when its worker begins; until then only a start-up grace runs.
+  let timer = setTimeout(stop, PROBE_START_GRACE_MS);
+  channel.port1.once('message', () => {
+    clearTimeout(timer);
+    timer = setTimeout(stop, PROBE_MS);
+  });
   let output: { ok: true } | WorkerRefusal;
   try {
-    output = (await computeServices(ctx).pools.quick.run(
-      { kind: 'preview', spec: probeOf(spec) },
-      { signal },
+    output = (await computeServices(ctx).pools.probe.run(
+      { kind: 'probe', spec: probeOf(spec), port: channel.port2 },
+      { transferList: [channel.port2], signal: controller.signal },
     )) as { ok: true } | WorkerRefusal;
   } catch (err) {
-    // Out of time (possibly a worker still starting): no verdict; the run has its own limits.
-    if (signal.aborted) return;
-    throw err;
+    if (!undecided) throw err;
+    throw new AppError(
+      503,
+      'probe_undecided',
+      `spec: the check before saving could not finish within ${PROBE_MS / 1000} s (the server is busy); nothing was saved, try again.`,
+      'spec',
+      { 'Retry-After': '5' },
+    );
+  } finally {
+    clearTimeout(timer);
+    channel.port1.close();
   }
   if (!output.ok) throw specRefusal(output);
 }

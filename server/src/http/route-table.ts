@@ -1,3 +1,4 @@
+import { once } from 'node:events';
 import { Router, type Request, type RequestHandler, type Response } from 'express';
 import type { Role } from '@traceloom/shared/api';
 import { forbidden } from './app-error.js';
@@ -23,6 +24,15 @@ export interface RouteContext {
 /** A signed-in context, as protected routes receive it. */
 export interface ActorContext extends RouteContext {
   actor: Actor;
+}
+
+/**
+ * A JSON answer written piece by piece from stored JSON bytes, never parsed or re-serialized on
+ * the main thread; a handler returns it instead of a value. The router writes each piece as it
+ * comes and waits for the socket to drain, so a large answer is never held whole.
+ */
+export class JsonPieces {
+  constructor(readonly pieces: AsyncIterable<Buffer | string>) {}
 }
 
 /** HTTP methods the route table knows. */
@@ -71,7 +81,13 @@ export function buildRouter(routes: readonly RouteSpec[], authenticate: RequestH
         res,
       };
       const result = await route.handler(ctx as ActorContext);
-      if (result === undefined) {
+      if (result instanceof JsonPieces) {
+        res.type('application/json');
+        for await (const piece of result.pieces) {
+          if (!res.write(piece)) await once(res, 'drain');
+        }
+        res.end();
+      } else if (result === undefined) {
         if (res.statusCode === 200) res.status(204);
         res.end();
       } else {

@@ -7,7 +7,7 @@ import { computeServices } from '../compute/services.js';
 import { AppError } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
-import { loadVisibleRun, unpackResult } from '../runs/run-service.js';
+import { loadResult, loadVisibleRun } from '../runs/run-service.js';
 import type { WorkerRefusal } from '../runs/worker.js';
 import type { ProductTask } from './product-task.js';
 
@@ -52,7 +52,7 @@ export async function productFormOf(
 ): Promise<ProductFormDto> {
   const run = await loadVisibleRun(ctx, actor, runId);
   const q = parseInput(productQuerySchema, query);
-  const result = unpackResult(run);
+  const result = await loadResult(ctx, run);
   if (run.status !== 'done' || !result) {
     throw new AppError(409, 'run_not_done', `The run is ${run.status}; ask a finished run.`);
   }

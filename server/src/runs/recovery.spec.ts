@@ -44,7 +44,8 @@ describe('restart recovery', () => {
     reopened = await openDatabase(t.config.databasePath);
     await createApp({ dataSource: reopened, config: t.config });
     const runs = reopened.getRepository(Run);
-    const until = Date.now() + 30_000;
+    // One person's runs take one thread at a time (fair share), so the two resumed runs go in turn.
+    const until = Date.now() + 90_000;
     let states: Run[] = [];
     while (Date.now() < until) {
       states = await Promise.all(
@@ -68,5 +69,5 @@ describe('restart recovery', () => {
       'run.finish',
       'run.requeue',
     ]);
-  });
+  }, 120_000);
 });

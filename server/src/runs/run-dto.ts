@@ -35,6 +35,8 @@ export interface RunDto extends RunSummary {
   spec: GasSpec;
   result: RunResult | null;
   classCounts?: Record<string, number>;
+  /** Stored pages of class rows per N (`?classes=N&classPage=k` reads one). */
+  classPages?: Record<string, number>;
 }
 
 /** A run loaded with `gas`, `gasVersion`, `createdBy`; `live` overrides the stored progress. */

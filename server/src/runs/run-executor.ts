@@ -7,6 +7,8 @@ import type { WorkerPools } from '../compute/pools.js';
 import type { RunLimits } from '../config.js';
 import { Run, type RunStatus } from '../db/entities/index.js';
 import { isSectorSpec, runSectorsOnPool } from './sector-runs.js';
+import { dropClassPages, storeClassPage } from './class-pages.js';
+import type { ClassPageData } from './class-pager.js';
 import type { RunOutput, WorkerRefusal } from './worker.js';
 
 /** Stored progress is written at most this often (the live value is kept in memory). */
@@ -33,6 +35,7 @@ function keptPartial(gzip: Uint8Array, progress: Progress | null, error: string)
 export const INTERRUPTED = 'interrupted by a server restart';
 
 interface ActiveRun {
+  userId: string;
   controller: AbortController;
   progress: Progress | null;
   storedAt: number;
@@ -42,15 +45,21 @@ interface ActiveRun {
 }
 
 /**
- * Runs queued runs on the worker pool, at most `threads` at once, in the order they were queued.
+ * Runs queued runs on the worker pool, at most `threads` at once, sharing the threads fairly:
+ * one person's runs never hold more than `threads - 1` of them (at least one), and a free thread
+ * goes to the oldest run of whoever has the fewest running.
  * Enforces the wall-clock limit by aborting the task (piscina terminates the worker), keeps live
  * progress in memory and stores it at most every 250 ms, and on start re-queues runs a restart
  * interrupted (once; a second interruption fails them with a reason).
  */
 export class RunExecutor {
-  private readonly queue: string[] = [];
+  /** Queued runs in arrival order, with the person who queued each. */
+  private readonly queue: Array<{ runId: string; userId: string }> = [];
   private readonly active = new Map<string, ActiveRun>();
   private stopped = false;
+  private readonly endListeners: Array<
+    (runId: string, status: RunStatus, error: string | null) => void
+  > = [];
   /** Resolves once restart recovery has run. */
   readonly ready: Promise<void>;
 
@@ -63,10 +72,15 @@ export class RunExecutor {
     this.ready = this.recover().catch((err: unknown) => this.log(err));
   }
 
-  /** Puts a freshly stored queued run in line. */
-  enqueue(runId: string): void {
-    this.queue.push(runId);
+  /** Puts a freshly stored queued run of `userId` in line. */
+  enqueue(runId: string, userId: string): void {
+    this.queue.push({ runId, userId });
     this.pump();
+  }
+
+  /** Worker threads one person's runs may hold at once: always one fewer than there are. */
+  get threadsPerUser(): number {
+    return Math.max(1, this.limits.threads - 1);
   }
 
   /** The live progress of a running run, or null when it is not running here. */
@@ -74,10 +88,48 @@ export class RunExecutor {
     return this.active.get(runId)?.progress ?? null;
   }
 
+  /**
+   * Where a run is while this executor holds it (`queued` in line, `running` on a worker, with
+   * its live progress), or null once it left (finished, cancelled, or never here).
+   */
+  stateOf(runId: string): {
+    status: 'queued' | 'running';
+    done: number;
+    total: number;
+    phase: string;
+    unit?: string;
+  } | null {
+    const active = this.active.get(runId);
+    if (active) {
+      const p = active.progress;
+      return {
+        status: 'running',
+        done: p?.done ?? 0,
+        total: p?.total ?? 0,
+        phase: p?.phase ?? '',
+        ...(p?.unit && { unit: p.unit }),
+      };
+    }
+    const queued = this.queue.some((q) => q.runId === runId);
+    return queued ? { status: 'queued', done: 0, total: 0, phase: '' } : null;
+  }
+
+  /** Calls `listener` whenever a run leaves the executor, after its final status is stored. */
+  onEnd(listener: (runId: string, status: RunStatus, error: string | null) => void): void {
+    this.endListeners.push(listener);
+  }
+
+  private ended(runId: string, status: RunStatus, error: string | null): void {
+    for (const listener of this.endListeners) listener(runId, status, error);
+  }
+
   /** Takes a run out of the queue, or stops its worker when it is running. */
   cancel(runId: string): void {
-    const index = this.queue.indexOf(runId);
-    if (index >= 0) this.queue.splice(index, 1);
+    const index = this.queue.findIndex((q) => q.runId === runId);
+    if (index >= 0) {
+      this.queue.splice(index, 1);
+      this.ended(runId, 'cancelled', null);
+    }
     const run = this.active.get(runId);
     if (run) {
       run.stop = 'cancel';
@@ -121,17 +173,41 @@ export class RunExecutor {
     });
     const queued = await this.dataSource.getRepository(Run).find({
       where: { status: 'queued' },
-      select: { id: true },
+      select: { id: true, createdBy: { id: true } },
+      relations: { createdBy: true },
       order: { createdAt: 'ASC' },
     });
-    for (const { id } of queued) if (!this.queue.includes(id)) this.queue.push(id);
+    for (const { id, createdBy } of queued) {
+      if (!this.queue.some((q) => q.runId === id))
+        this.queue.push({ runId: id, userId: createdBy.id });
+    }
     this.pump();
   }
 
+  /**
+   * Fair share: the next run is the oldest queued run of the person with the fewest runs on a
+   * thread now, among those below `threadsPerUser`; null when nobody may start one.
+   */
+  private next(): { runId: string; userId: string } | null {
+    const running = new Map<string, number>();
+    for (const { userId } of this.active.values())
+      running.set(userId, (running.get(userId) ?? 0) + 1);
+    let best = -1;
+    for (let i = 0; i < this.queue.length; i++) {
+      const n = running.get(this.queue[i]!.userId) ?? 0;
+      if (n >= this.threadsPerUser) continue;
+      if (best < 0 || n < (running.get(this.queue[best]!.userId) ?? 0)) best = i;
+    }
+    return best < 0 ? null : this.queue.splice(best, 1)[0]!;
+  }
+
   private pump(): void {
-    while (!this.stopped && this.active.size < this.limits.threads && this.queue.length > 0) {
-      const runId = this.queue.shift()!;
+    while (!this.stopped && this.active.size < this.limits.threads) {
+      const picked = this.next();
+      if (!picked) break;
+      const { runId, userId } = picked;
       const run: ActiveRun = {
+        userId,
         controller: new AbortController(),
         progress: null,
         storedAt: 0,
@@ -160,6 +236,11 @@ export class RunExecutor {
       { status: 'running', startedAt: new Date().toISOString(), error: null },
     );
     if (!claimed.affected) return;
+    await this.dataSource.transaction((manager) => dropClassPages(manager, runId));
+    // Class rows arrive page by page while the worker computes; each is stored as it comes.
+    let pageWrites: Promise<unknown> = Promise.resolve();
+    let pagesReceived = 0;
+    let pageArrived = () => {};
     let startedAt = new Date();
     const channel = new MessageChannel();
     const limit = () => {
@@ -169,9 +250,20 @@ export class RunExecutor {
     // Until the worker says it has begun (a fresh worker first loads the engine), only a
     // generous start-up limit applies; the run's own wall-clock limit starts with the work.
     let timer = setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
-    const onMessage = (p: Progress | { started: number } | { partial: Uint8Array }): void => {
+    const onMessage = (
+      p: Progress | { started: number } | { partial: Uint8Array } | { page: ClassPageData },
+    ): void => {
       if ('partial' in p) {
         active.partial = p.partial;
+        return;
+      }
+      if ('page' in p) {
+        const page = p.page;
+        pagesReceived += 1;
+        pageArrived();
+        pageWrites = pageWrites.then(() =>
+          this.dataSource.transaction((manager) => storeClassPage(manager, runId, page)),
+        );
         return;
       }
       if ('started' in p) {
@@ -203,6 +295,28 @@ export class RunExecutor {
             { kind: 'run', spec, port: channel.port2 },
             { transferList: [channel.port2], signal },
           )) as RunOutput | WorkerRefusal);
+      // The pages travel on their own port: wait for the last ones before closing it.
+      if (output.ok && output.pages !== undefined && pagesReceived < output.pages) {
+        const expected = output.pages;
+        await new Promise<void>((resolve) => {
+          pageArrived = () => {
+            if (pagesReceived >= expected) resolve();
+          };
+        });
+      }
+      // A result assembled elsewhere (sector runs) still holds its class rows: page it now.
+      if (output.ok && output.pages === undefined) {
+        const paged = (await this.pools.runs.run(
+          { kind: 'pageResult', gzip: output.gzip },
+          { signal },
+        )) as { gzip: Uint8Array; pages: ClassPageData[] };
+        output.gzip = paged.gzip;
+        for (const page of paged.pages) {
+          pageWrites = pageWrites.then(() =>
+            this.dataSource.transaction((manager) => storeClassPage(manager, runId, page)),
+          );
+        }
+      }
       outcome = output.ok
         ? {
             status: 'done',
@@ -222,7 +336,16 @@ export class RunExecutor {
       clearTimeout(timer);
       channel.port1.close();
     }
-    if (outcome.status === 'cancelled') return; // the cancel request already stored it
+    try {
+      await pageWrites;
+    } catch (err) {
+      this.log(err);
+      outcome = { status: 'failed', error: 'the class table could not be stored' };
+    }
+    if (outcome.status !== 'done') {
+      await this.dataSource.transaction((manager) => dropClassPages(manager, runId));
+    }
+    if (outcome.status === 'cancelled') return this.ended(runId, 'cancelled', null); // stored by the cancel
     if (outcome.status === 'failed' && active.partial) {
       outcome.result = keptPartial(active.partial, active.progress, outcome.error ?? 'failed');
     }
@@ -245,6 +368,7 @@ export class RunExecutor {
         detail: { status: outcome.status, error: outcome.error ?? null, automatic: true },
       });
     });
+    this.ended(runId, outcome.status, outcome.error ?? null);
   }
 
   /** One conditional update of a run, in its own (serialized) transaction. */

@@ -3,7 +3,7 @@ import type { AppContext } from '../app-context.js';
 import { GAS_EDITORS } from '../gases/gas-access.js';
 import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
 import { parseId, parseInput } from '../http/validate.js';
-import { streamRunEvents } from './run-events.js';
+import { streamRunEvents, type StreamToken } from './run-events.js';
 import { cancelRun, getRun, listRuns, startRun } from './run-service.js';
 
 const runStartSchema = z.strictObject({
@@ -37,13 +37,14 @@ export function runRoutes(ctx: AppContext): RouteSpec[] {
       method: 'get',
       path: '/runs/:id',
       access: ANY_ROLE,
-      handler: ({ actor, params, req }) => getRun(ctx, actor, run(params.id), req.query.classes),
+      handler: ({ actor, params, req }) => getRun(ctx, actor, run(params.id), req.query),
     },
     {
       method: 'get',
       path: '/runs/:id/events',
       access: ANY_ROLE,
-      handler: ({ actor, params, res }) => streamRunEvents(ctx, actor, run(params.id), res),
+      handler: ({ actor, params, res }) =>
+        streamRunEvents(ctx, actor, res.locals.token as StreamToken, run(params.id), res),
     },
     {
       method: 'post',

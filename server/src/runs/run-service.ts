@@ -1,4 +1,3 @@
-import { gunzipSync } from 'node:zlib';
 import type { ComputeResult, RunEstimate } from '@traceloom/shared/engine';
 import { readResultVerdicts } from '@traceloom/shared/format';
 import { In } from 'typeorm';
@@ -6,13 +5,14 @@ import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { assertRunFits, estimateSpec, type RunEstimateDto } from '../compute/run-estimate.js';
 import { computeServices } from '../compute/services.js';
-import { Run } from '../db/entities/index.js';
+import { Run, RunClassPage } from '../db/entities/index.js';
 import { assertCanChangeGas, loadVisibleGas } from '../gases/gas-access.js';
 import { specOf } from '../gases/gas-dto.js';
 import { AppError, notFound } from '../http/app-error.js';
-import type { Actor } from '../http/route-table.js';
+import { JsonPieces, type Actor } from '../http/route-table.js';
 import { canSee, STUDY_RELATIONS } from '../studies/study-access.js';
-import { toRunSummary, type RunDto, type RunResult, type RunSummary } from './run-dto.js';
+import { classRowsJson, resultJson } from './class-pages.js';
+import { toRunSummary, type RunDto, type RunSummary } from './run-dto.js';
 
 /** Statuses a run can still leave. */
 export const ACTIVE_STATUSES = ['queued', 'running'] as const;
@@ -21,6 +21,23 @@ const RUN_RELATIONS = {
   gas: { study: STUDY_RELATIONS },
   gasVersion: true,
   createdBy: true,
+} as const;
+
+/** A run's columns without its result bytes, for lists. */
+const SUMMARY_COLUMNS = {
+  id: true,
+  status: true,
+  progressDone: true,
+  progressTotal: true,
+  progressPhase: true,
+  startedAt: true,
+  finishedAt: true,
+  durationMs: true,
+  error: true,
+  createdAt: true,
+  gas: { id: true },
+  gasVersion: { id: true, version: true },
+  createdBy: { id: true, displayName: true },
 } as const;
 
 /** Loads a run whose study the actor may see; 404 otherwise. */
@@ -32,10 +49,34 @@ export async function loadVisibleRun(ctx: AppContext, actor: Actor, runId: strin
   return run;
 }
 
-/** The unpacked result JSON of a finished run. */
-export function unpackResult(run: Run): ComputeResult | null {
+/**
+ * The result of a finished run, unpacked and parsed; `classes` adds every class row (read from
+ * the class pages). For the engine-side uses (comparisons, dataset snapshots); answers to the
+ * client never parse the stored JSON (see `getRun`).
+ */
+export async function loadResult(
+  ctx: AppContext,
+  run: Run,
+  { classes = false } = {},
+): Promise<ComputeResult | null> {
   if (!run.result) return null;
-  return readResultVerdicts(JSON.parse(gunzipSync(run.result).toString('utf8')) as ComputeResult);
+  const summary = JSON.parse((await resultJson(run.result)).toString('utf8')) as Omit<
+    ComputeResult,
+    'classes'
+  >;
+  const rows: ComputeResult['classes'] = [];
+  if (classes) {
+    const manager = ctx.dataSource.manager;
+    for (const n of Object.keys(run.classCounts ? JSON.parse(run.classCounts) : {})) {
+      const parts: Buffer[] = [];
+      for await (const part of classRowsJson(manager, run.id, Number(n))) {
+        parts.push(typeof part === 'string' ? Buffer.from(part) : part);
+      }
+      rows.push(...(JSON.parse(Buffer.concat(parts).toString('utf8')) as typeof rows));
+    }
+  }
+  // verdicts stored under the older side names (expected/found) read as computed/supplied
+  return readResultVerdicts({ ...summary, classes: rows });
 }
 
 /**
@@ -90,7 +131,7 @@ export async function startRun(
     });
     return runId;
   });
-  executor.enqueue(id);
+  executor.enqueue(id, actor.id);
   return { id, status: 'queued', warnings: judged.warnings, estimate: judged.estimate };
 }
 
@@ -119,45 +160,81 @@ export async function listRuns(
   const { executor } = computeServices(ctx);
   const runs = await ctx.dataSource.getRepository(Run).find({
     where: { gas: { id: gasId } },
+    select: SUMMARY_COLUMNS,
     relations: { gas: true, gasVersion: true, createdBy: true },
     order: { createdAt: 'DESC' },
   });
   return runs.map((run) => toRunSummary(run, executor.progressOf(run.id)));
 }
 
+/** A whole number from 0 to 999 in a query parameter, or null when absent. */
+function queryNumber(raw: unknown, field: string, what: string): number | null {
+  if (raw === undefined) return null;
+  if (typeof raw !== 'string' || !/^\d{1,3}$/.test(raw)) {
+    throw new AppError(400, 'invalid_input', `${field}: must be a whole number ${what}.`, field);
+  }
+  return Number(raw);
+}
+
 /**
- * One run. Without `classes` the result's class rows are left out and `classCounts` given; with
- * `classes=N` only the rows for that N are included.
+ * One run. Without `classes` the result's class rows are left out and `classCounts` (rows per N)
+ * and `classPages` (stored pages per N) given; with `classes=N` the rows for that N are included,
+ * with `classPage=k` as well only the k-th page of them (0-based). The answer is assembled as
+ * text from the stored pieces: the stored JSON is unpacked off the main thread and never parsed.
  */
 export async function getRun(
   ctx: AppContext,
   actor: Actor,
   runId: string,
-  classesParam: unknown,
-): Promise<RunDto> {
-  let classesN: number | null = null;
-  if (classesParam !== undefined) {
-    classesN = Number(classesParam);
-    if (typeof classesParam !== 'string' || !/^\d{1,3}$/.test(classesParam)) {
-      throw new AppError(400, 'invalid_input', 'classes: must be a whole number N.', 'classes');
-    }
+  query: { classes?: unknown; classPage?: unknown },
+): Promise<JsonPieces> {
+  const classesN = queryNumber(query.classes, 'classes', 'N');
+  const page = queryNumber(query.classPage, 'classPage', '(a page index from 0)');
+  if (page !== null && classesN === null) {
+    throw new AppError(400, 'invalid_input', 'classPage: needs classes=N as well.', 'classPage');
   }
   const run = await loadVisibleRun(ctx, actor, runId);
-  const full = unpackResult(run);
-  let result: RunResult | null = null;
-  if (full) {
-    const { classes, ...rest } = full;
-    result =
-      classesN === null ? rest : { ...rest, classes: classes.filter((c) => c.N === classesN) };
-  }
-  const dto: RunDto = {
+  const dto: Omit<RunDto, 'result'> = {
     ...toRunSummary(run, computeServices(ctx).executor.progressOf(run.id)),
     studyId: run.gas.study.id,
     spec: specOf(run.gasVersion),
-    result,
   };
-  if (classesN === null) dto.classCounts = run.classCounts ? JSON.parse(run.classCounts) : {};
-  return dto;
+  if (classesN === null) {
+    dto.classCounts = run.classCounts ? JSON.parse(run.classCounts) : {};
+    dto.classPages = await classPageCounts(ctx, runId);
+  }
+  return new JsonPieces(runAnswer(ctx, run, dto, classesN, page));
+}
+
+/** The pieces of a run answer: the DTO head, the stored result, and the asked class rows. */
+async function* runAnswer(
+  ctx: AppContext,
+  run: Run,
+  dto: Omit<RunDto, 'result'>,
+  classesN: number | null,
+  page: number | null,
+): AsyncGenerator<Buffer | string> {
+  yield `${JSON.stringify(dto).slice(0, -1)},"result":`;
+  if (!run.result) return yield 'null}';
+  const result = await resultJson(run.result);
+  if (classesN === null) return yield* [result, '}'];
+  yield result.subarray(0, result.length - 1); // without its closing brace
+  yield ',"classes":';
+  yield* classRowsJson(ctx.dataSource.manager, run.id, classesN, page);
+  yield '}}';
+}
+
+/** Stored class-row pages per N of a run. */
+async function classPageCounts(ctx: AppContext, runId: string): Promise<Record<string, number>> {
+  const rows: Array<{ n: number; pages: number }> = await ctx.dataSource
+    .getRepository(RunClassPage)
+    .createQueryBuilder('p')
+    .select('p.n', 'n')
+    .addSelect('count(*)', 'pages')
+    .where('p.run_id = :runId', { runId })
+    .groupBy('p.n')
+    .getRawMany();
+  return Object.fromEntries(rows.map((r) => [String(r.n), Number(r.pages)]));
 }
 
 /** Cancels a queued or running run; 409 `not_active` once it has finished. */

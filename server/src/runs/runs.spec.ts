@@ -10,6 +10,7 @@ import {
   TRAP_SPEC,
   waitForRun,
 } from '../testing/gas-fixtures.js';
+import { p99, sseReader } from '../testing/load-helpers.js';
 import {
   createTestApp,
   insertStudy,
@@ -150,22 +151,12 @@ describe('runs', () => {
     const runId = await startRun(t, token, await createGas(t, token, studyId, RUNAWAY_SPEC));
     const events: Array<{ event: string; at: number; data: Record<string, unknown> }> = [];
     const res = await request(t.app)
-      .get(`/api/runs/${runId}/events?access_token=${token}`)
+      .get(`/api/runs/${runId}/events`)
+      .set('Authorization', bearer(token))
       .buffer(true)
       .parse((stream, done) => {
-        let text = '';
-        stream.on('data', (chunk: Buffer) => {
-          text += chunk.toString('utf8');
-          let cut: number;
-          while ((cut = text.indexOf('\n\n')) >= 0) {
-            const block = text.slice(0, cut);
-            text = text.slice(cut + 2);
-            const event = /^event: (.*)$/m.exec(block)?.[1] ?? '';
-            const data = JSON.parse(/^data: (.*)$/m.exec(block)?.[1] ?? '{}');
-            events.push({ event, at: Date.now(), data });
-          }
-        });
-        stream.on('end', () => done(null, text));
+        stream.on('data', sseReader((e) => events.push({ ...e, at: Date.now() })));
+        stream.on('end', () => done(null, ''));
       });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/event-stream/);
@@ -179,8 +170,3 @@ describe('runs', () => {
     expect(end.data.status).toBe('failed');
   });
 });
-
-function p99(values: number[]): number {
-  const sorted = [...values].sort((a, b) => a - b);
-  return sorted[Math.min(sorted.length - 1, Math.floor(sorted.length * 0.99))]!;
-}

@@ -1,4 +1,4 @@
-import { gzipSync } from 'node:zlib';
+import { gunzipSync, gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
 import { compute, EngineError, estimateRun, type Progress } from '@traceloom/shared/engine';
 import {
@@ -7,6 +7,8 @@ import {
   type CompareTask,
   type NumericCompareTask,
 } from '../comparisons/compare-rows.js';
+import { resultMismatches } from '../datasets/result-compare.js';
+import type { DatasetSnapshot } from '../datasets/snapshot.js';
 import { AppError } from '../http/app-error.js';
 import { productTask, type ProductTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';
@@ -17,6 +19,7 @@ import {
   type SectorAssembleTask,
   type SectorPartsTask,
 } from './sector-tasks.js';
+import { ClassPager, type ClassPageData } from './class-pager.js';
 
 /** A task for the worker pool. */
 export type WorkerTask =
@@ -25,6 +28,9 @@ export type WorkerTask =
   | SectorPartsTask
   | SectorAssembleTask
   | { kind: 'estimate'; spec: unknown }
+  | { kind: 'probe'; spec: unknown; port: MessagePort }
+  | { kind: 'verify'; snapshot: string }
+  | { kind: 'pageResult'; gzip: Uint8Array }
   | ({ kind: 'compare' } & CompareTask)
   | ({ kind: 'compareNumeric' } & NumericCompareTask)
   | ({ kind: 'productForm' } & ProductTask)
@@ -54,11 +60,13 @@ export interface WorkerRefusal {
   internal?: boolean;
 }
 
-/** A finished run: the gzip of the result JSON and the class rows per N. */
+/** A finished run: the gzip of the result JSON without class rows, and the class rows per N. */
 export interface RunOutput {
   ok: true;
   gzip: Uint8Array;
   classCounts: Record<string, number>;
+  /** Class-row pages sent through the port; absent when the rows are still in `gzip`. */
+  pages?: number;
 }
 
 function refusal(e: unknown): WorkerRefusal {
@@ -72,29 +80,49 @@ function refusal(e: unknown): WorkerRefusal {
   };
 }
 
+const ROW_N = /^\{"N":(\d+)/;
+
+/**
+ * Computes a run. Class rows stream out page by page through `port` (`{page}` messages) as the
+ * engine produces them, so the worker never holds the class table; the answer is the gzip of the
+ * result without class rows. The port stays open: the server closes it once every page arrived.
+ */
 function runTask(spec: unknown, port: MessagePort): RunOutput | WorkerRefusal {
   port.postMessage({ started: Date.now() });
+  const pager = new ClassPager((page) => port.postMessage({ page }));
   try {
-    const result = compute(spec, {
+    const { classes: _none, ...summary } = compute(spec, {
       onProgress: (p: Progress) => port.postMessage(p),
       // the cheap routes' result, kept by the executor if the class phase fails
       onPartial: (partial) => port.postMessage({ partial: gzipSync(JSON.stringify(partial)) }),
-      collectClasses: true,
+      onClassText: (text) => pager.add(Number(ROW_N.exec(text)?.[1] ?? -1), text),
+      collectClasses: false,
     });
-    const classCounts: Record<string, number> = {};
-    for (const row of result.classes) classCounts[row.N] = (classCounts[row.N] ?? 0) + 1;
-    const gzip = gzipSync(JSON.stringify(result));
-    return { ok: true, gzip, classCounts };
+    pager.flush();
+    const gzip = gzipSync(JSON.stringify(summary));
+    return { ok: true, gzip, classCounts: pager.counts, pages: pager.pages };
   } catch (e) {
     return refusal(e);
-  } finally {
-    port.close();
   }
+}
+
+/** Splits the class rows out of a whole result's gzip into pages (for results built elsewhere). */
+function pageResult(gzip: Uint8Array): { gzip: Uint8Array; pages: ClassPageData[] } {
+  const { classes = [], ...summary } = JSON.parse(gunzipSync(gzip).toString('utf8')) as {
+    classes?: Array<{ N: number }>;
+  };
+  const pages: ClassPageData[] = [];
+  const pager = new ClassPager((page) => pages.push(page));
+  for (const row of classes) pager.add(row.N, JSON.stringify(row));
+  pager.flush();
+  return { gzip: gzipSync(JSON.stringify(summary)), pages };
 }
 
 /**
  * The pool's entry point; runs in a worker thread, never on the server's main thread. `run`
  * computes a gas spec with progress sent through `port`; `preview` answers the result itself;
+ * `pageResult` splits a whole result's class rows into pages; `probe` evaluates a cut-down spec before a gas is stored (saying through `port` when it
+ * begins); `verify` parses a dataset snapshot, computes its spec again and lists the differences;
  * `compare` gives reference-row verdicts for a finished run (`compareNumeric`: a numeric run,
  * within tolerance); `productForm` writes one series or the grand function as a product;
  * `reference` reads an uploaded
@@ -125,6 +153,25 @@ export default function work(task: WorkerTask): unknown {
     case 'estimate':
       try {
         return { ok: true, estimate: estimateRun(task.spec) };
+      } catch (e) {
+        return refusal(e);
+      }
+    case 'probe':
+      // Says when the work begins, so the probe's clock leaves out a worker's start-up.
+      task.port.postMessage({ started: Date.now() });
+      try {
+        compute(task.spec);
+        return { ok: true };
+      } catch (e) {
+        return refusal(e);
+      }
+    case 'pageResult':
+      return pageResult(task.gzip);
+    case 'verify':
+      try {
+        const snapshot = JSON.parse(task.snapshot) as DatasetSnapshot;
+        const fresh = compute(snapshot.spec, { collectClasses: true });
+        return { ok: true, mismatches: resultMismatches(snapshot.result, fresh) };
       } catch (e) {
         return refusal(e);
       }

@@ -42,6 +42,7 @@ export function datasetAccess(
     'GET /review-requests': all,
     'GET /public/datasets/:hash': 'public',
     'GET /public/datasets/:hash/export': 'public',
+    'GET /public/datasets/:hash/citation': 'public',
     'GET /audit': ['steward', 'admin'],
     'GET /dev/mailbox': ['admin'],
     'POST /invitations/accept': 'public',
@@ -173,6 +174,10 @@ export function datasetMatrix(
     }),
     'GET /public/datasets/:hash/export': async () => ({
       path: `/public/datasets/${(await locked()).hash}/export?format=latex`,
+      status: 200,
+    }),
+    'GET /public/datasets/:hash/citation': async () => ({
+      path: `/public/datasets/${(await locked()).hash}/citation?format=bibtex`,
       status: 200,
     }),
     'GET /audit': async () => ({ path: '/audit?targetType=dataset&limit=50', status: 200 }),

@@ -1,5 +1,6 @@
 import Fraction from 'fraction.js';
 import {
+  isDetermined,
   lowestExponentBounds,
   orderAdvice,
   type OrderAdviceJson,
@@ -19,6 +20,8 @@ export const BYTES_PER_CLASS_COEFFICIENT = 160;
 export const MICROSECONDS_PER_CLASS_COEFFICIENT = 16;
 /** Rows of the canonical table computed before a run to fit the lowest exponents. */
 const TRIAL_ROWS = 8;
+/** Grid steps of the short order the trial rows are computed to. */
+const TRIAL_STEPS = 128;
 
 /** Number of partitions p(n) for n = 0..nMax (Euler's recurrence by parts; OEIS A000041). */
 export function partitionCounts(nMax: number): number[] {
@@ -81,13 +84,21 @@ export function estimateRun(input: unknown): RunEstimate {
   if (!isNumericSpec(spec) && !spec.sectors && spec.order != null) {
     const cap = new Fraction(spec.order);
     const fermion = spec.statistics === 'fermion';
-    const ring = { variable: spec.variable, cap, nMax: spec.nMax };
-    const w = cycleWeights(spec, ring);
+    // only what the trial rows need, to a short order: the estimate stays cheap for any gas.
+    // A lowest exponent below the short order is exact; levels beyond it lie at or above it.
+    const step = new Fraction(spec.step ?? '1');
+    const short = step.mul(TRIAL_STEPS).compare(cap) < 0 ? step.mul(TRIAL_STEPS) : cap;
     const trial = Math.min(spec.nMax, TRIAL_ROWS);
-    const Z = newtonRecursion(w.weights.slice(0, trial), trial, fermion, cap);
+    const w = cycleWeights(spec, { variable: spec.variable, cap: short, nMax: trial });
+    const rows = newtonRecursion(w.weights, trial, fermion, short);
+    // rows not determined at the short order say nothing about the real one: judge them as later rows
+    const known = short === cap ? rows.length : rows.findIndex((z) => !isDetermined(z));
+    const Z = known < 0 ? rows : rows.slice(0, known);
+    // the weights' bound needs every Z_L up to N_max; with fewer, only the spectrum's levels bound
+    const weights = trial === spec.nMax && short === cap ? w.weights : [];
     advice = orderAdvice({
       Z,
-      bounds: lowestExponentBounds(w.weights, spec.nMax, fermion, w.spectrum, cap),
+      bounds: lowestExponentBounds(weights, spec.nMax, fermion, w.spectrum, cap),
       nMax: spec.nMax,
       order: cap,
       step: new Fraction(spec.step ?? '1'),

@@ -11,6 +11,7 @@ import { GasVersion } from './gas-version.entity.js';
 import { Gas } from './gas.entity.js';
 import { Invitation } from './invitation.entity.js';
 import { ReferenceTable } from './reference-table.entity.js';
+import { RunClassPage } from './run-class-page.entity.js';
 import { Run, type RunStatus } from './run.entity.js';
 import { RateLimit } from './rate-limit.entity.js';
 import { Setting } from './setting.entity.js';
@@ -19,7 +20,7 @@ import { Study } from './study.entity.js';
 import { User } from './user.entity.js';
 
 export { AuditEvent, Invitation, Setting, Study, StudyMember, User };
-export { Comparison, Gas, GasVersion, ReferenceTable, Run, type RunStatus };
+export { Comparison, Gas, GasVersion, ReferenceTable, Run, RunClassPage, type RunStatus };
 export { Dataset, DatasetComment, DatasetReview, DatasetReviewRequest, DatasetWaiver };
 export { RateLimit };
 export type { DatasetState };
@@ -35,6 +36,7 @@ export const ENTITIES = [
   Gas,
   GasVersion,
   Run,
+  RunClassPage,
   ReferenceTable,
   Comparison,
   Dataset,

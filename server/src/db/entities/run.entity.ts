@@ -42,7 +42,7 @@ export class Run {
   @Column('varchar', { name: 'progress_phase', length: 32, default: '' })
   progressPhase!: string;
 
-  /** gzip (RFC 1952) of the result JSON, class rows included; null until done. */
+  /** gzip (RFC 1952) of the result JSON without class rows (those are in `run_class_page`). */
   @Column('blob', { nullable: true })
   result!: Buffer | null;
 

@@ -4,6 +4,7 @@ import { GasesRunsReferences1764705600000 } from './1764705600000-gases-runs-ref
 import { Datasets1764792000000 } from './1764792000000-datasets.js';
 import { AuditStudyScope1796300000000 } from './1796300000000-audit-study-scope.js';
 import { SignInLimits1796300060000 } from './1796300060000-sign-in-limits.js';
+import { RunClassPages1796310000000 } from './1796310000000-run-class-pages.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -13,4 +14,5 @@ export const MIGRATIONS = [
   Datasets1764792000000,
   AuditStudyScope1796300000000,
   SignInLimits1796300060000,
+  RunClassPages1796310000000,
 ];

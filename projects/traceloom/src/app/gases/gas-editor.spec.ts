@@ -13,8 +13,9 @@ describe('GasEditor', () => {
   let http: HttpTestingController;
   let el: HTMLElement;
 
-  async function render(role: Role = 'author'): Promise<void> {
+  async function render(role: Role = 'author', keepDrafts = false): Promise<void> {
     sessionStorage.clear();
+    if (!keepDrafts) localStorage.clear();
     TestBed.configureTestingModule({
       imports: [GasEditor],
       providers: testProviders(),
@@ -212,7 +213,7 @@ describe('GasEditor', () => {
       updatedAt: '',
     });
     await settle();
-    expect(navigate).toHaveBeenCalledWith(['/gases', 'g1']);
+    expect(navigate).toHaveBeenCalledWith(['/gases', 'g1'], { state: { showRuns: true } });
     // The saved gas shows its (empty) run history at once.
     http.expectOne('/api/gases/g1/runs').flush([]);
     await settle();
@@ -284,5 +285,56 @@ describe('GasEditor', () => {
     expect(el.querySelector('[data-testid="gas-read-only"]')).not.toBeNull();
     expect(el.querySelector('[data-testid="gas-save"]')).toBeNull();
     expect(input('gas-title').disabled).toBe(true);
+  });
+
+  it('keeps an unsaved form in the browser and restores it after a reload', async () => {
+    await render();
+    await type('gas-title', 'draft that survives');
+    await type('gas-formula', 'q^L/(1-q^L)');
+    http.match('/api/compute').forEach((r) => r.flush({ weights: [], canonical: [] }));
+    fixture.destroy();
+    TestBed.resetTestingModule();
+    await render('author', true); // the same study, as after a reload
+    await settle();
+    expect(input('gas-title').value).toBe('draft that survives');
+    expect(input('gas-formula').value).toBe('q^L/(1-q^L)');
+    expect(el.querySelector('[data-testid="gas-draft-restored"]')).not.toBeNull();
+    (el.querySelector('[data-testid="gas-draft-discard"]') as HTMLButtonElement).click();
+    await settle();
+    expect(input('gas-title').value).toBe('');
+    expect(Object.keys(localStorage).filter((k) => k.startsWith('traceloom.gas-draft.'))).toEqual(
+      [],
+    );
+    http.match('/api/compute').forEach((r) => r.flush({ weights: [], canonical: [] }));
+  });
+
+  it('makes one row per line when several lines are pasted into the values list', async () => {
+    await render();
+    (el.querySelector('[data-testid="gas-kind-values"] input') as HTMLInputElement).click();
+    await settle();
+    const paste = new Event('paste', { bubbles: true, cancelable: true });
+    Object.defineProperty(paste, 'clipboardData', {
+      value: { getData: () => '1/4\nq + 2*q^2 + O(q^5)\r\n\n3*q^3\n' },
+    });
+    input('gas-value-1').dispatchEvent(paste);
+    await settle();
+    expect(paste.defaultPrevented).toBe(true);
+    expect([1, 2, 3].map((i) => input(`gas-value-${i}`)?.value)).toEqual([
+      '1/4',
+      'q + 2*q^2 + O(q^5)',
+      '3*q^3',
+    ]);
+    expect(input('gas-value-4')).toBeNull();
+    http.match('/api/compute').forEach((r) => r.flush({ weights: [], canonical: [] }));
+  });
+
+  it('links every expression field to the syntax page', async () => {
+    await render();
+    const links = () =>
+      [...el.querySelectorAll('tl-syntax-link a')].map((a) => a.getAttribute('href'));
+    expect(links()).toEqual(['/help/spec#the-expression-language']);
+    (el.querySelector('[data-testid="gas-kind-spectrum"] input') as HTMLInputElement).click();
+    await settle();
+    expect(links().length).toBe(1);
   });
 });

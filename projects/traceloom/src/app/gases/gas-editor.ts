@@ -1,14 +1,17 @@
 import { RunEstimate } from '../runs/run-estimate';
 import {
+  afterNextRender,
   ChangeDetectionStrategy,
   Component,
   DestroyRef,
   computed,
   effect,
   inject,
+  Injector,
   input,
   signal,
 } from '@angular/core';
+import { DatePipe } from '@angular/common';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -25,6 +28,7 @@ import { Session } from '../core/session';
 import { canWriteGases } from './gas-roles';
 import { GasRuns } from '../runs/gas-runs';
 import { errorText } from './field-error';
+import { clearDraft, draftKey, GasDraft, readDraft, writeDraft } from './gas-draft';
 import { applyFieldErrors, controlPathFor, fillGasForm, gasForm, specFromForm } from './gas-form';
 import { GasNumericFields } from './gas-numeric-fields';
 import { GasSectorsFields } from './gas-sectors-fields';
@@ -56,6 +60,7 @@ import { GasWeights } from './gas-weights';
     GasRuns,
     GasVersions,
     GasWeights,
+    DatePipe,
   ],
   templateUrl: './gas-editor.html',
   styleUrl: './gas-editor.scss',
@@ -67,6 +72,7 @@ export class GasEditor {
   private readonly router = inject(Router);
   private readonly snackBar = inject(MatSnackBar);
   private readonly destroyRef = inject(DestroyRef);
+  private readonly injector = inject(Injector);
 
   /** Route `studies/:studyId/gases/new`: the study a new gas goes into. */
   readonly studyId = input<string>();
@@ -93,15 +99,23 @@ export class GasEditor {
     return study ? ['/studies', study] : ['/studies'];
   });
   protected readonly errorText = errorText;
+  /** The unsaved draft restored into the form, while its notice shows. */
+  protected readonly restoredDraft = signal<GasDraft | null>(null);
+  private readonly draftKey = computed(() => draftKey(this.gasId(), this.studyId()));
 
   constructor() {
-    this.form.valueChanges
-      .pipe(takeUntilDestroyed(this.destroyRef))
-      .subscribe(() => this.validate());
+    this.form.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe(() => {
+      this.validate();
+      this.keepDraft();
+    });
     effect(() => {
       const id = this.gasId();
       if (id) this.load(id);
-      else queueMicrotask(() => this.validate());
+      else
+        queueMicrotask(() => {
+          this.restoreDraft(null);
+          this.validate();
+        });
     });
     effect(() => (this.readOnly() ? this.form.disable() : this.form.enable()));
   }
@@ -116,6 +130,37 @@ export class GasEditor {
     const clean =
       problems.byControl.size === 0 && problems.other.length === 0 && !this.hasRequiredGaps();
     this.previewInput.set(clean ? spec : null);
+    // A refusal that no longer applies goes away once its cause is fixed.
+    if (clean && this.form.valid) this.saveError.set(null);
+  }
+
+  /** Discards the restored draft: the form shows the saved gas (or an empty one) again. */
+  protected discardDraft(): void {
+    clearDraft(this.draftKey());
+    this.restoredDraft.set(null);
+    const gas = this.gas();
+    if (gas) fillGasForm(this.form, gas.spec);
+    else this.form.reset();
+    this.form.markAsPristine();
+  }
+
+  /** Writes the form to the browser's storage while it has unsaved changes. */
+  private keepDraft(): void {
+    if (!this.form.dirty || this.readOnly()) return;
+    writeDraft(this.draftKey(), {
+      spec: specFromForm(this.form.getRawValue()),
+      savedAt: new Date().toISOString(),
+      baseVersion: this.gas()?.version ?? null,
+    });
+  }
+
+  /** Puts a stored draft into the form (after the saved gas, if any, was filled in). */
+  private restoreDraft(gas: GasDto | null): void {
+    const draft = readDraft(this.draftKey());
+    if (!draft || this.readOnly()) return;
+    fillGasForm(this.form, draft.spec);
+    this.form.markAsDirty();
+    this.restoredDraft.set(draft);
   }
 
   /** Shows a preview failure that names a field on that field (as the server's message). */
@@ -151,8 +196,11 @@ export class GasEditor {
         this.saving.set(false);
         this.gas.set(saved);
         this.form.markAsPristine();
+        clearDraft(this.draftKey());
+        this.restoredDraft.set(null);
         this.snackBar.open(`Saved as version ${saved.version}.`, undefined, { duration: 3000 });
-        if (!gas) void this.router.navigate(['/gases', saved.id]);
+        if (!gas) void this.router.navigate(['/gases', saved.id], { state: { showRuns: true } });
+        else this.showRuns();
       },
       error: (err: unknown) => {
         this.saving.set(false);
@@ -204,6 +252,8 @@ export class GasEditor {
         this.viewedVersion.set(null);
         fillGasForm(this.form, gas.spec);
         this.form.markAsPristine();
+        this.restoreDraft(gas);
+        if ((history.state as { showRuns?: boolean } | null)?.showRuns) this.showRuns();
       },
       error: (err: unknown) => {
         this.loading.set(false);
@@ -214,6 +264,20 @@ export class GasEditor {
         );
       },
     });
+  }
+
+  /** After a save: the runs of the saved version, with the Run button, come into view. */
+  private showRuns(): void {
+    afterNextRender(
+      () => {
+        const runs = document.getElementById('runs');
+        runs?.scrollIntoView({ block: 'start' });
+        runs
+          ?.querySelector<HTMLElement>('[data-testid="run-start"]')
+          ?.focus({ preventScroll: true });
+      },
+      { injector: this.injector },
+    );
   }
 
   private hasRequiredGaps(): boolean {

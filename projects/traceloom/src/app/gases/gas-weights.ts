@@ -6,6 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { SyntaxLink } from './syntax-link';
 import { errorText } from './field-error';
 import { GasForm } from './gas-form';
 import { LINE_KERNEL_EXAMPLE } from './gas-numeric';
@@ -21,6 +22,7 @@ import { LINE_KERNEL_EXAMPLE } from './gas-numeric';
     MatInputModule,
     MatRadioModule,
     MatSlideToggleModule,
+    SyntaxLink,
   ],
   templateUrl: './gas-weights.html',
   styleUrl: './gas-weights.scss',
@@ -36,6 +38,25 @@ export class GasWeights {
   protected addValue(): void {
     const rows = this.form().controls.values;
     rows.push(new FormControl('', { nonNullable: true }));
+    this.form().markAsDirty();
+  }
+
+  /**
+   * Pasting several lines into a value makes one row per line: the first replaces the pasted-into
+   * text's selection, the rest become new rows after it. A single line pastes as usual.
+   */
+  protected pasteValues(index: number, event: ClipboardEvent): void {
+    const lines = (event.clipboardData?.getData('text/plain') ?? '')
+      .split(/\r?\n/)
+      .map((line) => line.trim())
+      .filter((line) => line !== '');
+    if (lines.length < 2) return;
+    event.preventDefault();
+    const rows = this.form().controls.values;
+    rows.at(index).setValue(lines[0]!);
+    lines.slice(1).forEach((line, k) => {
+      rows.insert(index + 1 + k, new FormControl(line, { nonNullable: true }));
+    });
     this.form().markAsDirty();
   }
 

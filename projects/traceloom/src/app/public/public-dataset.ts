@@ -49,7 +49,16 @@ export class PublicDatasetPage {
   }
 
   protected jsonPath(hash: string): string {
-    return `/api/public/datasets/${hash}/export?format=json`;
+    return this.exportPath(hash, 'json');
+  }
+
+  protected exportPath(hash: string, format: 'json' | 'csv' | 'latex'): string {
+    return `/api/public/datasets/${hash}/export?format=${format}`;
+  }
+
+  /** The citation as a BibTeX entry or a CSL-JSON item (authors, public address, hash). */
+  protected citationPath(hash: string, format: 'bibtex' | 'csl'): string {
+    return `/api/public/datasets/${hash}/citation?format=${format}`;
   }
 
   protected copy(text: string): void {

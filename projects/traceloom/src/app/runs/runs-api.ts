@@ -1,5 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
+import { createParser } from 'eventsource-parser';
 import { Observable } from 'rxjs';
 import type { ComputeResult, GasSpecInput } from '@traceloom/shared/engine';
 import { Session } from '../core/session';
@@ -130,37 +131,49 @@ export class RunsApi {
   }
 
   /**
-   * The run's server-sent events. EventSource cannot send headers, so the token goes in the
-   * query (`access_token`), as the API allows for this one route. Completes after `end`.
+   * The run's server-sent events, read with `fetch` so the token travels in the Authorization
+   * header, never in a URL. Completes after `end`; errors when the stream fails or the server
+   * closes it first (token expired or revoked: `closed`), so the caller can fall back to polling.
    */
   events(id: string): Observable<RunEvent> {
     return new Observable<RunEvent>((subscriber) => {
-      const token = this.session.token() ?? '';
-      const url = `/api/runs/${encodeURIComponent(id)}/events?access_token=${encodeURIComponent(token)}`;
-      const source = new EventSource(url);
-      source.addEventListener('progress', (e) => {
-        const data = JSON.parse((e as MessageEvent<string>).data) as Omit<
-          Extract<RunEvent, { type: 'progress' }>,
-          'type'
-        >;
-        subscriber.next({ type: 'progress', ...data });
+      const abort = new AbortController();
+      const parser = createParser({
+        onEvent: (message) => {
+          const data = JSON.parse(message.data) as Record<string, unknown>;
+          if (message.event === 'progress') {
+            subscriber.next({ type: 'progress', ...data } as RunEvent);
+          } else if (message.event === 'end') {
+            subscriber.next({ type: 'end', ...data } as RunEvent);
+            subscriber.complete();
+            abort.abort();
+          } else if (message.event === 'closed') {
+            subscriber.error(new Error(`The progress stream closed: ${String(data['reason'])}.`));
+            abort.abort();
+          }
+        },
       });
-      source.addEventListener('end', (e) => {
-        const data = JSON.parse((e as MessageEvent<string>).data) as Omit<
-          Extract<RunEvent, { type: 'end' }>,
-          'type'
-        >;
-        subscriber.next({ type: 'end', ...data });
-        source.close();
-        subscriber.complete();
-      });
-      source.onerror = () => {
-        // A closed stream after `end` is normal; otherwise report so the caller can poll instead.
-        if (source.readyState === EventSource.CLOSED) {
-          subscriber.error(new Error('The progress stream closed.'));
+      const read = async () => {
+        const res = await fetch(`/api/runs/${encodeURIComponent(id)}/events`, {
+          headers: {
+            Authorization: `Bearer ${this.session.token() ?? ''}`,
+            Accept: 'text/event-stream',
+          },
+          signal: abort.signal,
+        });
+        if (!res.ok || !res.body) throw new Error(`The progress stream answered ${res.status}.`);
+        const reader = res.body.pipeThrough(new TextDecoderStream()).getReader();
+        for (;;) {
+          const { done, value } = await reader.read();
+          if (done) break;
+          parser.feed(value);
         }
+        if (!subscriber.closed) subscriber.error(new Error('The progress stream closed.'));
       };
-      return () => source.close();
+      read().catch((err: unknown) => {
+        if (!abort.signal.aborted) subscriber.error(err);
+      });
+      return () => abort.abort();
     });
   }
 }
