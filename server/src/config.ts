@@ -153,6 +153,14 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
       perUserCap: positiveInt(env, 'TRACELOOM_RUNS_PER_USER', DEFAULT_CONFIG.runs.perUserCap),
     },
     uploadLimitBytes: positiveInt(env, 'TRACELOOM_UPLOAD_LIMIT', DEFAULT_CONFIG.uploadLimitBytes),
+    ...(env.TRACELOOM_PREVIEWS_PER_10S
+      ? {
+          previewLimit: {
+            limit: positiveInt(env, 'TRACELOOM_PREVIEWS_PER_10S', 40),
+            windowMs: 10_000,
+          },
+        }
+      : {}),
     trustProxy: trustProxyOf(env.TRACELOOM_TRUST_PROXY),
     backups: env.TRACELOOM_BACKUP_DIR
       ? {
