@@ -1,4 +1,5 @@
 // `npm test`: install what is missing, build, then run every suite (engine, server, client, e2e).
+import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { buildAll, ensureInstalled, run } from './lib.mjs';
 
@@ -22,10 +23,25 @@ function ensureChromium() {
   process.exit(1);
 }
 
+/** pdflatex for the test that compiles the LaTeX exports (Debian's texlive-latex-base, when root). */
+function ensurePdflatex() {
+  if (spawnSync('sh', ['-c', 'command -v pdflatex']).status === 0) return;
+  if (process.getuid?.() !== 0) {
+    console.log('› pdflatex not found: the LaTeX compile test is skipped (apt-get install texlive-latex-base)');
+    return;
+  }
+  console.log('› installing Debian texlive-latex-base for the LaTeX export test…');
+  run('apt-get', ['update', '-q']);
+  run('apt-get', ['install', '-y', '-q', '--no-install-recommends', 'texlive-latex-base'], {
+    env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+  });
+}
+
 const times = {};
 const started = Date.now();
 ensureInstalled();
 ensureChromium();
+ensurePdflatex();
 times.build = timed(() => buildAll());
 times.engine = timed(() => run('npx', ['vitest', 'run', '--project', 'shared']));
 times.server = timed(() => run('npx', ['vitest', 'run', '--project', 'server']));
