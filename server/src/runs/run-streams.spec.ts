@@ -156,12 +156,17 @@ describe('run event streams', () => {
   });
 
   it('closes a stream when its token expires', async () => {
-    const short = signToken({ sub: author.id, tv: 0, role: 'author' }, tokenSecretOf(t), 2).token;
-    const stream = await openStream(streamPath(), { Authorization: bearer(short) });
+    // a run of its own that outlives the 2 s token (a finished run would end the stream first)
+    const other = await insertUser(t, 'author');
+    const otherToken = await tokenFor(t, other);
+    const own = await startRun(t, otherToken, await createGas(t, otherToken, await insertStudy(t, other), RUNAWAY_SPEC));
+    const short = signToken({ sub: other.id, tv: 0, role: 'author' }, tokenSecretOf(t), 2).token;
+    const stream = await openStream(`/api/runs/${own}/events`, { Authorization: bearer(short) });
     expect(stream.status).toBe(200);
     const t0 = Date.now();
     await stream.ended;
     expect(Date.now() - t0).toBeLessThan(3500);
     expect(stream.events.at(-1)).toEqual({ event: 'closed', data: { reason: 'token expired' } });
+    await request(t.app).post(`/api/runs/${own}/cancel`).set('Authorization', bearer(otherToken));
   });
 });
