@@ -195,6 +195,8 @@ describe('workbench in the browser', () => {
     await page.getByTestId('run-link').first().click();
     await openTab(page, 'Checks');
     await page.getByTestId('reference-upload-toggle').click();
+    // the upload panel renders after the click: wait for its drop zone before dropping a file
+    await page.getByTestId('reference-drop').waitFor();
     await page.evaluate((text) => {
       const drop = document.querySelector('[data-testid="reference-drop"]')!;
       const data = new DataTransfer();
