@@ -13,6 +13,10 @@ const env = {
   TRACELOOM_DB: process.env.TRACELOOM_DB ?? path.join(root, 'data', 'traceloom.sqlite'),
 };
 console.log('› starting the server (migrations run at start-up)…');
-const server = spawn(process.execPath, ['dist/server/main.js'], { cwd: root, env, stdio: 'inherit' });
+const server = spawn(process.execPath, ['dist/server/main.js'], {
+  cwd: root,
+  env,
+  stdio: 'inherit',
+});
 for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
 server.on('exit', (code) => process.exit(code ?? 0));

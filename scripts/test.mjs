@@ -27,7 +27,9 @@ function ensureChromium() {
 function ensurePdflatex() {
   if (spawnSync('sh', ['-c', 'command -v pdflatex']).status === 0) return;
   if (process.getuid?.() !== 0) {
-    console.log('› pdflatex not found: the LaTeX compile test is skipped (apt-get install texlive-latex-base)');
+    console.log(
+      '› pdflatex not found: the LaTeX compile test is skipped (apt-get install texlive-latex-base)',
+    );
     return;
   }
   console.log('› installing Debian texlive-latex-base for the LaTeX export test…');
@@ -53,7 +55,8 @@ times.client = timed(() =>
 );
 times.e2e = timed(() => run('npx', ['vitest', 'run', '--project', 'e2e']));
 console.log('\n✓ all suites passed');
-for (const [k, v] of Object.entries(times)) console.log(`  ${k.padEnd(8)} ${(v / 1000).toFixed(1)} s`);
+for (const [k, v] of Object.entries(times))
+  console.log(`  ${k.padEnd(8)} ${(v / 1000).toFixed(1)} s`);
 console.log(`  total    ${((Date.now() - started) / 1000).toFixed(1)} s`);
 
 function timed(fn) {

@@ -45,7 +45,12 @@ describe('main', () => {
     const port = await server.serving;
     expect(port).toBeGreaterThan(0);
     const health = await fetch(`http://localhost:${port}/api/health`);
-    expect(await health.json()).toEqual({ status: 'ok', version: '0.1.0', database: 'ok', mode: 'demo' });
+    expect(await health.json()).toEqual({
+      status: 'ok',
+      version: '0.1.0',
+      database: 'ok',
+      mode: 'demo',
+    });
     const login = await fetch(`http://localhost:${port}/api/auth/login`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },

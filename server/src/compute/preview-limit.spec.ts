@@ -3,7 +3,13 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Gas } from '../db/entities/index.js';
 import { bearer, TRAP_SPEC } from '../testing/gas-fixtures.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 import { PREVIEWS_PER_WINDOW } from './preview-limit.js';
 
 /** Replays the preview flood: unlimited previews, and a gas with an unknown function stored under load. */
@@ -35,7 +41,9 @@ describe('preview flood', () => {
   it(`answers ${PREVIEWS_PER_WINDOW} previews per person per window, then 429 with Retry-After; others unaffected`, async () => {
     // Warm the workers first (under load a fresh worker's start-up can exceed the preview's clock).
     for (let i = 0; i < 10 && (await preview(otherToken)).status !== 200; i++);
-    const answers = await Promise.all(Array.from({ length: PREVIEWS_PER_WINDOW + 20 }, () => preview(token)));
+    const answers = await Promise.all(
+      Array.from({ length: PREVIEWS_PER_WINDOW + 20 }, () => preview(token)),
+    );
     const statuses = answers.map((r) => r.status);
     // Let through: computed (200) or, queued behind each other on a busy machine, out of the
     // preview's time (422 too_heavy); either way the limit let exactly this many reach a worker.
@@ -51,7 +59,9 @@ describe('preview flood', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.field).toBe('spec.nMax');
     const computed = statuses.filter((s) => s === 200).length;
-    console.log(`preview flood: ${PREVIEWS_PER_WINDOW + 20} at once from one person, ${PREVIEWS_PER_WINDOW} let through (${computed} computed), 20 refused with 429`);
+    console.log(
+      `preview flood: ${PREVIEWS_PER_WINDOW + 20} at once from one person, ${PREVIEWS_PER_WINDOW} let through (${computed} computed), 20 refused with 429`,
+    );
   }, 120_000);
 
   it('refuses every gas with an unknown function while previews flood the workers (0 of 5 stored)', async () => {
@@ -61,7 +71,10 @@ describe('preview flood', () => {
     const before = await t.dataSource.getRepository(Gas).count();
     const answers = await Promise.all(
       Array.from({ length: 5 }, () =>
-        request(server).post(`/api/studies/${studyId}/gases`).set('Authorization', bearer(token)).send({ spec }),
+        request(server)
+          .post(`/api/studies/${studyId}/gases`)
+          .set('Authorization', bearer(token))
+          .send({ spec }),
       ),
     );
     await flood;
@@ -69,8 +82,12 @@ describe('preview flood', () => {
       expect([400, 503]).toContain(res.status);
       expect(res.body.error.field).toMatch(/^spec/);
     }
-    const refusedAsUnknown = answers.filter((r) => r.status === 400 && /frobnicate/.test(r.body.error.message));
-    console.log(`preview flood: gas with an unknown function refused ${answers.length} of 5 (${refusedAsUnknown.length} named the function)`);
+    const refusedAsUnknown = answers.filter(
+      (r) => r.status === 400 && /frobnicate/.test(r.body.error.message),
+    );
+    console.log(
+      `preview flood: gas with an unknown function refused ${answers.length} of 5 (${refusedAsUnknown.length} named the function)`,
+    );
     expect(await t.dataSource.getRepository(Gas).count()).toBe(before);
   }, 120_000);
 });

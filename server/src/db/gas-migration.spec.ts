@@ -2,7 +2,13 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { REFERENCE_CSV } from '../testing/matrix-fixtures.js';
 import { bearer, finishedRun } from '../testing/gas-fixtures.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 import { MIGRATIONS } from './migrations/index.js';
 import { GasesRunsReferences1764705600000 } from './migrations/1764705600000-gases-runs-references.js';
 
@@ -42,7 +48,9 @@ describe('gases, runs and references migration', () => {
       .send({ referenceId: upload.body.id });
     expect(compared.status).toBe(201);
     for (const table of OWN_TABLES) expect(await count(table), table).toBeGreaterThan(0);
-    const before = Object.fromEntries(await Promise.all(FOUNDATION_TABLES.map(async (n) => [n, await count(n)])));
+    const before = Object.fromEntries(
+      await Promise.all(FOUNDATION_TABLES.map(async (n) => [n, await count(n)])),
+    );
 
     const position = MIGRATIONS.indexOf(GasesRunsReferences1764705600000);
     expect(position).toBeGreaterThan(0);
@@ -53,7 +61,9 @@ describe('gases, runs and references migration', () => {
     for (const table of OWN_TABLES) expect(left, table).not.toContain(table);
     for (const table of FOUNDATION_TABLES) expect(await count(table), table).toBe(before[table]);
 
-    expect(await t.dataSource.runMigrations({ transaction: 'each' })).toHaveLength(MIGRATIONS.length - position);
+    expect(await t.dataSource.runMigrations({ transaction: 'each' })).toHaveLength(
+      MIGRATIONS.length - position,
+    );
     for (const table of FOUNDATION_TABLES) expect(await count(table), table).toBe(before[table]);
     expect(await t.dataSource.query('PRAGMA foreign_key_check')).toEqual([]);
     expect(await t.dataSource.query('PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }]);

@@ -7,7 +7,9 @@ import type { DataSource } from 'typeorm';
  * start a transaction from inside another one (use the `manager` they were given).
  */
 export function serializeTransactions(dataSource: DataSource): void {
-  const original = dataSource.transaction.bind(dataSource) as (...args: unknown[]) => Promise<unknown>;
+  const original = dataSource.transaction.bind(dataSource) as (
+    ...args: unknown[]
+  ) => Promise<unknown>;
   let tail: Promise<unknown> = Promise.resolve();
   dataSource.transaction = ((...args: unknown[]) => {
     const next = tail.then(

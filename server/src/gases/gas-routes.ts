@@ -4,7 +4,14 @@ import { parseId } from '../http/validate.js';
 import { GAS_EDITORS } from './gas-access.js';
 import { parseGasBody } from './gas-input.js';
 import { assertSpecEvaluates } from './gas-probe.js';
-import { createGas, deleteGas, getGas, getGasVersion, listGases, updateGas } from './gas-service.js';
+import {
+  createGas,
+  deleteGas,
+  getGas,
+  getGasVersion,
+  listGases,
+  updateGas,
+} from './gas-service.js';
 
 /** Gas routes: a study's gases, one gas, its versions. Study access is checked in the service. */
 export function gasRoutes(ctx: AppContext): RouteSpec[] {

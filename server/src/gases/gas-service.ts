@@ -145,17 +145,15 @@ export async function updateGas(
     const now = new Date().toISOString();
     const version = gas.currentVersion + 1;
     await addVersion(manager, actor, gasId, version, spec, now);
-    await manager
-      .getRepository(Gas)
-      .update(
-        { id: gasId },
-        {
-          currentVersion: version,
-          title: titleOf(spec),
-          updatedBy: { id: actor.id },
-          updatedAt: now,
-        },
-      );
+    await manager.getRepository(Gas).update(
+      { id: gasId },
+      {
+        currentVersion: version,
+        title: titleOf(spec),
+        updatedBy: { id: actor.id },
+        updatedAt: now,
+      },
+    );
     await recordAudit(manager, {
       actorId: actor.id,
       action: 'gas.update',

@@ -1,7 +1,13 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { bearer, createGas, startRun, TRAP_SPEC, waitForRun } from '../testing/gas-fixtures.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 
 let t: TestApp;
 let token: string;
@@ -28,7 +34,9 @@ describe('gases', () => {
     const gasId = await createGas(t, token, studyId);
     const runId = await startRun(t, token, gasId);
     await waitForRun(t, runId);
-    const put = await api('put', `/gases/${gasId}`).send({ spec: { ...TRAP_SPEC, title: 'trap, deeper', nMax: 6 } });
+    const put = await api('put', `/gases/${gasId}`).send({
+      spec: { ...TRAP_SPEC, title: 'trap, deeper', nMax: 6 },
+    });
     expect(put.status).toBe(200);
     expect(put.body).toMatchObject({ version: 2, title: 'trap, deeper', spec: { nMax: 6 } });
     expect(put.body.versions.map((v: { version: number }) => v.version)).toEqual([1, 2]);
@@ -38,7 +46,12 @@ describe('gases', () => {
     expect(run.body).toMatchObject({ gasVersion: 1, spec: { nMax: TRAP_SPEC.nMax }, studyId });
     const list = await api('get', `/studies/${studyId}/gases`);
     const row = list.body.find((g: { id: string }) => g.id === gasId);
-    expect(row).toMatchObject({ version: 2, statistics: 'fermion', weightsKind: 'formula', lastRun: { id: runId, status: 'done' } });
+    expect(row).toMatchObject({
+      version: 2,
+      statistics: 'fermion',
+      weightsKind: 'formula',
+      lastRun: { id: runId, status: 'done' },
+    });
     expect((await api('get', `/gases/${gasId}/versions/3`)).status).toBe(404);
   });
 
@@ -56,30 +69,63 @@ describe('gases', () => {
     const gasId = await createGas(t, token, studyId);
     expect((await api('get', `/gases/${gasId}`, outsiderToken)).status).toBe(404);
     expect((await api('get', `/studies/${studyId}/gases`, outsiderToken)).status).toBe(404);
-    expect((await api('post', `/studies/${studyId}/gases`, outsiderToken).send({ spec: TRAP_SPEC })).status).toBe(404);
+    expect(
+      (await api('post', `/studies/${studyId}/gases`, outsiderToken).send({ spec: TRAP_SPEC }))
+        .status,
+    ).toBe(404);
     expect((await api('get', `/gases/${gasId}`, reviewerToken)).status).toBe(200);
-    expect((await api('put', `/gases/${gasId}`, reviewerToken).send({ spec: TRAP_SPEC })).status).toBe(403);
+    expect(
+      (await api('put', `/gases/${gasId}`, reviewerToken).send({ spec: TRAP_SPEC })).status,
+    ).toBe(403);
     expect((await api('post', `/gases/${gasId}/runs`, reviewerToken).send({})).status).toBe(403);
   });
 
   it.each([
     [{ ...TRAP_SPEC, nMax: 201 }, 'spec.nMax', 'N_max: ', 'at most 200'],
     [{ ...TRAP_SPEC, order: '20001' }, 'spec.order', 'Order: ', 'more than 20000 steps'],
-    [{ ...TRAP_SPEC, classTable: 41, nMax: 50 }, 'spec.classTable', 'Class-table depth: ', 'at most 40'],
-    [{ ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q'.repeat(4097) } }, 'spec.weights.expression', 'Cycle-weight expression: ', '4096'],
-    [{ ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q^(L/2' } }, 'spec.weights.expression', 'Cycle-weight expression: ', 'cannot read'],
-    [{ ...TRAP_SPEC, weights: { kind: 'values', values: Array(1001).fill('1') } }, 'spec.weights.values', 'Cycle weights: ', 'the limit is 1000'],
+    [
+      { ...TRAP_SPEC, classTable: 41, nMax: 50 },
+      'spec.classTable',
+      'Class-table depth: ',
+      'at most 40',
+    ],
+    [
+      { ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q'.repeat(4097) } },
+      'spec.weights.expression',
+      'Cycle-weight expression: ',
+      '4096',
+    ],
+    [
+      { ...TRAP_SPEC, weights: { kind: 'formula', expression: 'q^(L/2' } },
+      'spec.weights.expression',
+      'Cycle-weight expression: ',
+      'cannot read',
+    ],
+    [
+      { ...TRAP_SPEC, weights: { kind: 'values', values: Array(1001).fill('1') } },
+      'spec.weights.values',
+      'Cycle weights: ',
+      'the limit is 1000',
+    ],
     [{ ...TRAP_SPEC, format: 'other' }, 'spec.format', 'Gas: ', 'traceloom.gas/1'],
-    [{ ...TRAP_SPEC, statistics: undefined }, 'spec.statistics', 'Statistics: ', 'must be "fermion" or "boson"'],
-  ])('refuses a bad spec with 400 naming the field and limit (%#)', async (spec, field, label, text) => {
-    const res = await api('post', `/studies/${studyId}/gases`).send({ spec });
-    expect(res.status).toBe(400);
-    expect(res.body.error.field).toBe(field);
-    // the message names the field as the gas form labels it, never by its internal path
-    expect(res.body.error.message.startsWith(label)).toBe(true);
-    expect(res.body.error.message).not.toContain('spec.');
-    expect(res.body.error.message).toContain(text);
-  });
+    [
+      { ...TRAP_SPEC, statistics: undefined },
+      'spec.statistics',
+      'Statistics: ',
+      'must be "fermion" or "boson"',
+    ],
+  ])(
+    'refuses a bad spec with 400 naming the field and limit (%#)',
+    async (spec, field, label, text) => {
+      const res = await api('post', `/studies/${studyId}/gases`).send({ spec });
+      expect(res.status).toBe(400);
+      expect(res.body.error.field).toBe(field);
+      // the message names the field as the gas form labels it, never by its internal path
+      expect(res.body.error.message.startsWith(label)).toBe(true);
+      expect(res.body.error.message).not.toContain('spec.');
+      expect(res.body.error.message).toContain(text);
+    },
+  );
 });
 
 describe('POST /compute (preview)', () => {
@@ -88,7 +134,10 @@ describe('POST /compute (preview)', () => {
     expect(res.status).toBe(200);
     expect(res.body.format).toBe('traceloom.result/1');
     // Z(1) of the trap = q^(1/2)/(1-q) = q^(1/2) + q^(3/2) + ... (geometric series).
-    expect(res.body.canonical[1].value.terms.slice(0, 2)).toEqual([['1/2', '1'], ['3/2', '1']]);
+    expect(res.body.canonical[1].value.terms.slice(0, 2)).toEqual([
+      ['1/2', '1'],
+      ['3/2', '1'],
+    ]);
   });
 
   it.each([

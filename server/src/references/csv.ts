@@ -15,7 +15,8 @@ export function parseCsv(text: string): Array<{ line: number; fields: string[] }
   let afterQuote = false;
   const endRecord = () => {
     fields.push(field);
-    if (!(fields.length === 1 && fields[0]!.trim() === '')) records.push({ line: startLine, fields });
+    if (!(fields.length === 1 && fields[0]!.trim() === ''))
+      records.push({ line: startLine, fields });
     fields = [];
     field = '';
     afterQuote = false;

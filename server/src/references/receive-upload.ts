@@ -30,7 +30,11 @@ export function safeFilename(name: string): string {
  * Reads a multipart body with multer into memory: one file in field `file` of at most
  * `limitBytes` (413 `file_too_large` beyond, nothing kept), a few short text fields.
  */
-export async function receiveUpload(req: Request, res: Response, limitBytes: number): Promise<Upload> {
+export async function receiveUpload(
+  req: Request,
+  res: Response,
+  limitBytes: number,
+): Promise<Upload> {
   const middleware = multer({
     storage: multer.memoryStorage(),
     limits: { fileSize: limitBytes, files: 1, fields: 8, fieldSize: 16 * 1024, parts: 12 },
@@ -50,11 +54,21 @@ export async function receiveUpload(req: Request, res: Response, limitBytes: num
       const field = err.code === 'LIMIT_UNEXPECTED_FILE' ? 'file' : (err.field ?? 'file');
       throw new AppError(400, 'invalid_upload', `${field}: ${err.message}.`, field);
     }
-    throw new AppError(400, 'invalid_upload', 'The upload could not be read as multipart form data.', 'file');
+    throw new AppError(
+      400,
+      'invalid_upload',
+      'The upload could not be read as multipart form data.',
+      'file',
+    );
   });
   const file = req.file;
   if (!file) {
-    throw new AppError(400, 'invalid_upload', 'file: send the table as a multipart form field named "file".', 'file');
+    throw new AppError(
+      400,
+      'invalid_upload',
+      'file: send the table as a multipart form field named "file".',
+      'file',
+    );
   }
   if (file.size === 0) throw new AppError(400, 'empty_file', 'file: the file is empty.', 'file');
   return {

@@ -1,4 +1,9 @@
-import { EngineError, MAX_EXPRESSION_LENGTH, MAX_NMAX, parseExpression } from '@traceloom/shared/engine';
+import {
+  EngineError,
+  MAX_EXPRESSION_LENGTH,
+  MAX_NMAX,
+  parseExpression,
+} from '@traceloom/shared/engine';
 import { AppError } from '../http/app-error.js';
 import type { ReferenceRow } from '../comparisons/compare-rows.js';
 import { parseCsv } from './csv.js';
@@ -39,7 +44,8 @@ export interface ParsedReference {
 /** Reads one row's N, value and note; returns the row or a message. */
 function readRow(line: number, n: unknown, value: unknown, note: unknown): ReferenceRow | string {
   const nText = typeof n === 'number' ? String(n) : typeof n === 'string' ? n.trim() : '';
-  if (!/^\d{1,4}$/.test(nText)) return `N must be a whole number from 0 to ${MAX_NMAX}, got "${String(n).slice(0, 40)}"`;
+  if (!/^\d{1,4}$/.test(nText))
+    return `N must be a whole number from 0 to ${MAX_NMAX}, got "${String(n).slice(0, 40)}"`;
   const N = Number(nText);
   if (N > MAX_NMAX) return `N = ${N} is beyond the largest N of ${MAX_NMAX}`;
   if (typeof value === 'number') {
@@ -65,7 +71,8 @@ function readRow(line: number, n: unknown, value: unknown, note: unknown): Refer
 function collect(parsed: ParsedReference, line: number, row: ReferenceRow | string): void {
   if (typeof row === 'string') return void parsed.errors.push({ line, message: row });
   const twin = parsed.rows.find((r) => r.N === row.N);
-  if (twin) parsed.errors.push({ line, message: `N = ${row.N} is already given on line ${twin.line}` });
+  if (twin)
+    parsed.errors.push({ line, message: `N = ${row.N} is already given on line ${twin.line}` });
   else parsed.rows.push(row);
 }
 
@@ -81,7 +88,12 @@ function tooManyRows(count: number): never {
 function fromCsv(text: string): ParsedReference {
   const trimmed = text.trimStart();
   if (trimmed.startsWith('{') || trimmed.startsWith('[')) {
-    throw new AppError(415, 'unsupported_content', 'The file claims to be CSV but holds JSON.', 'file');
+    throw new AppError(
+      415,
+      'unsupported_content',
+      'The file claims to be CSV but holds JSON.',
+      'file',
+    );
   }
   let records;
   try {
@@ -93,7 +105,12 @@ function fromCsv(text: string): ParsedReference {
   const parsed: ParsedReference = { kind: 'csv', rows: [], errors: [] };
   const [header, ...body] = records;
   const names = header?.fields.map((f) => f.trim().toLowerCase()) ?? [];
-  if (names[0] !== 'n' || names[1] !== 'value' || (names.length > 2 && names[2] !== 'note') || names.length > 3) {
+  if (
+    names[0] !== 'n' ||
+    names[1] !== 'value' ||
+    (names.length > 2 && names[2] !== 'note') ||
+    names.length > 3
+  ) {
     parsed.errors.push({ line: header?.line ?? 1, message: 'the header must be N,value,note' });
     return parsed;
   }
@@ -118,24 +135,46 @@ function fromJson(text: string): ParsedReference {
     data = JSON.parse(text);
   } catch (e) {
     const why = e instanceof Error ? e.message : 'it does not parse';
-    throw new AppError(415, 'unsupported_content', `The file claims to be JSON but is not: ${why}.`, 'file');
+    throw new AppError(
+      415,
+      'unsupported_content',
+      `The file claims to be JSON but is not: ${why}.`,
+      'file',
+    );
   }
   const parsed: ParsedReference = { kind: 'json', rows: [], errors: [] };
-  if (!data || typeof data !== 'object' || Array.isArray(data) || !Array.isArray((data as { rows?: unknown }).rows)) {
-    parsed.errors.push({ line: 1, message: 'a JSON reference table is an object {title?, normalization?, rows: [{N, value, note?}]}' });
+  if (
+    !data ||
+    typeof data !== 'object' ||
+    Array.isArray(data) ||
+    !Array.isArray((data as { rows?: unknown }).rows)
+  ) {
+    parsed.errors.push({
+      line: 1,
+      message:
+        'a JSON reference table is an object {title?, normalization?, rows: [{N, value, note?}]}',
+    });
     return parsed;
   }
-  const { title, normalization, rows } = data as { title?: unknown; normalization?: unknown; rows: unknown[] };
+  const { title, normalization, rows } = data as {
+    title?: unknown;
+    normalization?: unknown;
+    rows: unknown[];
+  };
   if (typeof title === 'string') parsed.title = title;
   if (typeof normalization === 'string') parsed.normalization = normalization;
   if (rows.length > REFERENCE_LIMITS.rows) tooManyRows(rows.length);
   rows.forEach((entry, i) => {
     const line = i + 1;
     if (!entry || typeof entry !== 'object' || Array.isArray(entry)) {
-      return void parsed.errors.push({ line, message: 'a row must be an object {N, value, note?}' });
+      return void parsed.errors.push({
+        line,
+        message: 'a row must be an object {N, value, note?}',
+      });
     }
     const extra = Object.keys(entry).filter((k) => !['N', 'value', 'note'].includes(k));
-    if (extra.length) return void parsed.errors.push({ line, message: `unknown key "${extra[0]!.slice(0, 40)}"` });
+    if (extra.length)
+      return void parsed.errors.push({ line, message: `unknown key "${extra[0]!.slice(0, 40)}"` });
     const { N, value, note } = entry as Record<string, unknown>;
     collect(parsed, line, readRow(line, N, value, note));
   });
@@ -149,7 +188,11 @@ function fromJson(text: string): ParsedReference {
  * syntax, duplicates, column and row caps). Row problems are collected with their line (JSON:
  * the row's position) so a dry run can show them all.
  */
-export function parseReferenceFile(bytes: Buffer, filename: string, contentType: string): ParsedReference {
+export function parseReferenceFile(
+  bytes: Buffer,
+  filename: string,
+  contentType: string,
+): ParsedReference {
   const kind = claimedKind(filename, contentType);
   const text = textContent(bytes, kind);
   const parsed = kind === 'csv' ? fromCsv(text) : fromJson(text);

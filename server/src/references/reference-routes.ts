@@ -13,7 +13,8 @@ export function referenceRoutes(ctx: AppContext): RouteSpec[] {
       path: '/studies/:id/references',
       access: CHECKERS,
       status: 201,
-      handler: ({ actor, params, req, res }) => uploadReference(ctx, actor, study(params.id), req, res),
+      handler: ({ actor, params, req, res }) =>
+        uploadReference(ctx, actor, study(params.id), req, res),
     },
     {
       method: 'get',

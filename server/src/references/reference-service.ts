@@ -40,7 +40,12 @@ export interface ReferenceDto extends Omit<ReferenceSummary, 'rowCount'> {
 }
 
 const uploadFieldsSchema = z.object({
-  title: z.string().trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters').optional(),
+  title: z
+    .string()
+    .trim()
+    .min(1, 'must not be empty')
+    .max(200, 'must be at most 200 characters')
+    .optional(),
   normalization: z
     .string()
     .trim()
@@ -91,7 +96,12 @@ async function parseInWorker(
   let output: { ok: true; parsed: ParsedReference } | WorkerAppError;
   try {
     output = (await computeServices(ctx).pools.quick.run(
-      { kind: 'reference', ...file, variable, ...(normalization === undefined ? {} : { normalization }) },
+      {
+        kind: 'reference',
+        ...file,
+        variable,
+        ...(normalization === undefined ? {} : { normalization }),
+      },
       { signal },
     )) as typeof output;
   } catch (err) {
@@ -104,7 +114,12 @@ async function parseInWorker(
       );
     }
     if (!signal.aborted) throw err;
-    throw new AppError(400, 'invalid_upload', `file: reading it took longer than ${READ_LIMIT_MS / 1000} s.`, 'file');
+    throw new AppError(
+      400,
+      'invalid_upload',
+      `file: reading it took longer than ${READ_LIMIT_MS / 1000} s.`,
+      'file',
+    );
   }
   if (!output.ok) {
     const { status, code, message, field } = output.appError;
@@ -116,7 +131,12 @@ async function parseInWorker(
 function firstError(errors: RowError[]): never {
   const { line, message } = errors[0]!;
   const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
-  throw new AppError(400, 'invalid_row', `line ${line}: ${message}${more}. Nothing was stored.`, 'file');
+  throw new AppError(
+    400,
+    'invalid_row',
+    `line ${line}: ${message}${more}. Nothing was stored.`,
+    'file',
+  );
 }
 
 /**
@@ -141,7 +161,9 @@ export async function uploadReference(
   }
   if (parsed.errors.length) firstError(parsed.errors);
   const normalization = parsed.normalization ?? '1';
-  const title = (input.title ?? parsed.title?.trim() ?? file.filename.replace(/\.[^.]*$/, '')).slice(0, 200) || 'reference table';
+  const title =
+    (input.title ?? parsed.title?.trim() ?? file.filename.replace(/\.[^.]*$/, '')).slice(0, 200) ||
+    'reference table';
   return ctx.dataSource.transaction(async (manager) => {
     const repo = manager.getRepository(ReferenceTable);
     const { id } = await repo.save(
@@ -167,12 +189,18 @@ export async function uploadReference(
       targetId: id,
       detail: { studyId, title, rows: parsed.rows.length, filename: file.filename },
     });
-    return toDto(await repo.findOneOrFail({ where: { id }, relations: { study: true, createdBy: true } }));
+    return toDto(
+      await repo.findOneOrFail({ where: { id }, relations: { study: true, createdBy: true } }),
+    );
   });
 }
 
 /** The study's reference tables, newest first. */
-export async function listReferences(ctx: AppContext, actor: Actor, studyId: string): Promise<ReferenceSummary[]> {
+export async function listReferences(
+  ctx: AppContext,
+  actor: Actor,
+  studyId: string,
+): Promise<ReferenceSummary[]> {
   await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
   const tables = await ctx.dataSource.getRepository(ReferenceTable).find({
     where: { study: { id: studyId } },
@@ -198,6 +226,10 @@ export async function loadVisibleReference(
 }
 
 /** One reference table with its rows. */
-export async function getReference(ctx: AppContext, actor: Actor, referenceId: string): Promise<ReferenceDto> {
+export async function getReference(
+  ctx: AppContext,
+  actor: Actor,
+  referenceId: string,
+): Promise<ReferenceDto> {
   return toDto(await loadVisibleReference(ctx, actor, referenceId));
 }

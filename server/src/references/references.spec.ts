@@ -134,21 +134,39 @@ describe('reference tables', () => {
     ['q^(-N^2/2)*x', 'normalization: unknown symbol x (it may use N and the variable q).'],
     ['t^N', 'normalization: unknown symbol t'],
     ['1/(N-2)', 'at N = 2'],
-  ])('refuses the normalization %j before storing, on its field, in a dry run too', async (norm, message) => {
-    const before = await stored();
-    for (const query of ['', '?dryRun=1']) {
-      const res = await upload(Buffer.from(TRAP_TABLE), 'preprint.csv', { normalization: norm }, query);
-      expect(res.status, JSON.stringify(res.body)).toBe(400);
-      expect(res.body.error).toMatchObject({ code: 'invalid_input', field: 'normalization' });
-      expect(res.body.error.message).toContain(message);
-    }
-    expect(await stored()).toBe(before);
-  });
+  ])(
+    'refuses the normalization %j before storing, on its field, in a dry run too',
+    async (norm, message) => {
+      const before = await stored();
+      for (const query of ['', '?dryRun=1']) {
+        const res = await upload(
+          Buffer.from(TRAP_TABLE),
+          'preprint.csv',
+          { normalization: norm },
+          query,
+        );
+        expect(res.status, JSON.stringify(res.body)).toBe(400);
+        expect(res.body.error).toMatchObject({ code: 'invalid_input', field: 'normalization' });
+        expect(res.body.error.message).toContain(message);
+      }
+      expect(await stored()).toBe(before);
+    },
+  );
 
   it('accepts a normalization in N and the variable, sums binding their own index', async () => {
-    const res = await upload(Buffer.from(TRAP_TABLE), 'p.csv', { normalization: 'q^(-N^2/2) * sum(q^k, k, 0, 0)' }, '?dryRun=1');
+    const res = await upload(
+      Buffer.from(TRAP_TABLE),
+      'p.csv',
+      { normalization: 'q^(-N^2/2) * sum(q^k, k, 0, 0)' },
+      '?dryRun=1',
+    );
     expect(res.status, JSON.stringify(res.body)).toBe(200);
-    const other = await upload(Buffer.from(TRAP_TABLE.replaceAll('q', 't')), 'p.csv', { normalization: 't^(-N^2/2)', variable: 't' }, '?dryRun=1');
+    const other = await upload(
+      Buffer.from(TRAP_TABLE.replaceAll('q', 't')),
+      'p.csv',
+      { normalization: 't^(-N^2/2)', variable: 't' },
+      '?dryRun=1',
+    );
     expect(other.status, JSON.stringify(other.body)).toBe(200);
   });
 
@@ -156,7 +174,11 @@ describe('reference tables', () => {
     const before = await stored();
     const res = await upload(Buffer.alloc(0), 'empty.csv');
     expect(res.status, JSON.stringify(res.body)).toBe(400);
-    expect(res.body.error).toMatchObject({ code: 'empty_file', field: 'file', message: 'file: the file is empty.' });
+    expect(res.body.error).toMatchObject({
+      code: 'empty_file',
+      field: 'file',
+      message: 'file: the file is empty.',
+    });
     expect(await stored()).toBe(before);
   });
 
@@ -231,12 +253,25 @@ describe('reference tables', () => {
     expect(res.body.rows).toEqual([
       { N: 1, agrees: true, agreesBelow: '4', firstMismatch: null },
       { N: 2, agrees: true, agreesBelow: '4', firstMismatch: null },
-      expect.objectContaining({ N: 3, agrees: false, agreesBelow: '3', firstMismatch: { exponent: '3', computed: '3', supplied: '4' } }),
+      expect.objectContaining({
+        N: 3,
+        agrees: false,
+        agreesBelow: '3',
+        firstMismatch: { exponent: '3', computed: '3', supplied: '4' },
+      }),
     ]);
     // The differing row carries both sides whole; agreeing rows do not.
     expect(res.body.rows[0].series).toBeUndefined();
     const { computed, supplied } = res.body.rows[2].series;
-    expect(supplied).toEqual({ order: '4', terms: [['0', '1'], ['1', '1'], ['2', '2'], ['3', '4']] });
+    expect(supplied).toEqual({
+      order: '4',
+      terms: [
+        ['0', '1'],
+        ['1', '1'],
+        ['2', '2'],
+        ['3', '4'],
+      ],
+    });
     // 1/(q;q)_3 = sum a(n) q^n with a(n) = round((n + 3)^2 / 12): 1, 1, 2, 3, 4, 5, 7, ... (OEIS A001399)
     computed.terms.forEach(([e, c]: [string, string]) =>
       expect(c).toBe(String(Math.round((Number(e) + 3) ** 2 / 12))),

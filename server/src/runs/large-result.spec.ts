@@ -6,7 +6,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Run } from '../db/entities/index.js';
 import { bearer, createGas, startRun, waitForRun } from '../testing/gas-fixtures.js';
 import { p99 } from '../testing/load-helpers.js';
-import { createTestApp, insertStudy, insertUser, tokenFor, type TestApp } from '../testing/test-app.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 import { ClassPager } from './class-pager.js';
 import { storeClassPage } from './class-pages.js';
 
@@ -55,14 +61,21 @@ process.on('SIGTERM', () => { console.log(JSON.stringify(counts)); process.exit(
 `;
 
 /** GET that drains the body without parsing it (so the client does not load the event loop). */
-function drain(path: string, auth?: string, method = 'GET'): Promise<{ status: number; bytes: number }> {
+function drain(
+  path: string,
+  auth?: string,
+  method = 'GET',
+): Promise<{ status: number; bytes: number }> {
   const { port } = server.address() as AddressInfo;
   return new Promise((resolve, reject) => {
-    const req = http.request({ port, path, method, headers: auth ? { Authorization: bearer(auth) } : {} }, (res) => {
-      let bytes = 0;
-      res.on('data', (chunk: Buffer) => (bytes += chunk.length));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, bytes }));
-    });
+    const req = http.request(
+      { port, path, method, headers: auth ? { Authorization: bearer(auth) } : {} },
+      (res) => {
+        let bytes = 0;
+        res.on('data', (chunk: Buffer) => (bytes += chunk.length));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, bytes }));
+      },
+    );
     req.on('error', reject);
     req.end();
   });
@@ -79,7 +92,10 @@ beforeAll(async () => {
   expect((await waitForRun(t, runId)).status).toBe('done');
   const t0 = performance.now();
   // The class table of N = 30 at this size, stored the way a run stores it (page by page).
-  const terms = Array.from({ length: TERMS }, (_, i) => `["${i + 30}","-12345678901234567890/${i + 7}"]`).join(',');
+  const terms = Array.from(
+    { length: TERMS },
+    (_, i) => `["${i + 30}","-12345678901234567890/${i + 7}"]`,
+  ).join(',');
   const pager = new ClassPager((page) => {
     pending.push(t.dataSource.transaction((m) => storeClassPage(m, runId, page)));
   });
@@ -91,7 +107,9 @@ beforeAll(async () => {
   }
   pager.flush();
   await Promise.all(pending);
-  await t.dataSource.getRepository(Run).update({ id: runId }, { classCounts: JSON.stringify({ 30: ROWS }) });
+  await t.dataSource
+    .getRepository(Run)
+    .update({ id: runId }, { classCounts: JSON.stringify({ 30: ROWS }) });
   console.log(`large data: class pages stored in ${(performance.now() - t0).toFixed(0)} ms`);
   const t1 = performance.now();
   const created = await request(t.app)
@@ -148,7 +166,10 @@ describe('large data stays off the main thread', () => {
   }, 300_000);
 
   it('lists datasets without their snapshots: fast for a person who sees none and for the owner', async () => {
-    for (const [who, auth, count] of [['outsider', outsiderToken, 0], ['owner', token, 1]] as const) {
+    for (const [who, auth, count] of [
+      ['outsider', outsiderToken, 0],
+      ['owner', token, 1],
+    ] as const) {
       const times: number[] = [];
       for (let i = 0; i < 20; i++) {
         const t0 = performance.now();
@@ -157,7 +178,9 @@ describe('large data stays off the main thread', () => {
         expect(res.status).toBe(200);
         expect(res.body).toHaveLength(count);
       }
-      console.log(`large data: GET /api/datasets for the ${who}: p99 ${p99(times).toFixed(1)} ms over 20 calls`);
+      console.log(
+        `large data: GET /api/datasets for the ${who}: p99 ${p99(times).toFixed(1)} ms over 20 calls`,
+      );
       // Before: 6-8 s per call. The bound leaves room for a loaded shared machine.
       expect(p99(times)).toBeLessThan(2000);
     }
@@ -174,7 +197,9 @@ describe('large data stays off the main thread', () => {
     expect(last.status).toBe(200);
     expect(last.body.result.classes).toHaveLength(ROWS - 500 * (pages - 1));
     expect(last.body.result.classes[0].size).toBe(String(500 * (pages - 1) + 1));
-    const bad = await request(t.app).get(`/api/runs/${runId}?classPage=1`).set('Authorization', bearer(token));
+    const bad = await request(t.app)
+      .get(`/api/runs/${runId}?classPage=1`)
+      .set('Authorization', bearer(token));
     expect(bad.status).toBe(400);
     expect(bad.body.error.field).toBe('classPage');
   });

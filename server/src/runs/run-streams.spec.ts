@@ -46,7 +46,10 @@ function openStream(path: string, headers: Record<string, string>): Promise<Open
     const req = http.get({ port, path, headers }, (res) => {
       const events: SseEvent[] = [];
       const ended = new Promise<void>((done) => res.on('close', done));
-      res.on('data', sseReader((e) => events.push(e)));
+      res.on(
+        'data',
+        sseReader((e) => events.push(e)),
+      );
       resolve({ status: res.statusCode ?? 0, events, ended, close: () => req.destroy() });
     });
     req.on('error', reject);
@@ -57,7 +60,12 @@ const streamPath = () => `/api/runs/${runId}/events`;
 
 beforeAll(async () => {
   t = await createTestApp({
-    runs: { ...DEFAULT_CONFIG.runs, wallClockMs: 120_000, streamsPerUser: PER_USER, streamsTotal: TOTAL },
+    runs: {
+      ...DEFAULT_CONFIG.runs,
+      wallClockMs: 120_000,
+      streamsPerUser: PER_USER,
+      streamsTotal: TOTAL,
+    },
   });
   author = await insertUser(t, 'author');
   token = await tokenFor(t, author);
@@ -95,7 +103,9 @@ describe('run event streams', () => {
     const f0 = performance.now();
     for (let batch = 0; batch < 1000; batch += 50) {
       const got = await Promise.all(
-        Array.from({ length: 50 }, () => openStream(streamPath(), { Authorization: bearer(reviewerToken) })),
+        Array.from({ length: 50 }, () =>
+          openStream(streamPath(), { Authorization: bearer(reviewerToken) }),
+        ),
       );
       for (const s of got) {
         statuses.push(s.status);
@@ -110,7 +120,9 @@ describe('run event streams', () => {
     expect(events.watchedRuns()).toBe(1);
     // The author may still open streams up to the total.
     const more = await Promise.all(
-      Array.from({ length: TOTAL - PER_USER + 1 }, () => openStream(streamPath(), { Authorization: bearer(token) })),
+      Array.from({ length: TOTAL - PER_USER + 1 }, () =>
+        openStream(streamPath(), { Authorization: bearer(token) }),
+      ),
     );
     opened.push(...more);
     expect(more.map((s) => s.status).sort()).toEqual([...Array(TOTAL - PER_USER).fill(200), 429]);
@@ -140,26 +152,41 @@ describe('run event streams', () => {
   it('closes a stream within about a second of sign-out', async () => {
     const other = await insertUser(t, 'author');
     const otherToken = await tokenFor(t, other);
-    const own = await startRun(t, otherToken, await createGas(t, otherToken, await insertStudy(t, other), RUNAWAY_SPEC));
-    const stream = await openStream(`/api/runs/${own}/events`, { Authorization: bearer(otherToken) });
+    const own = await startRun(
+      t,
+      otherToken,
+      await createGas(t, otherToken, await insertStudy(t, other), RUNAWAY_SPEC),
+    );
+    const stream = await openStream(`/api/runs/${own}/events`, {
+      Authorization: bearer(otherToken),
+    });
     expect(stream.status).toBe(200);
     await new Promise((r) => setTimeout(r, 300));
     expect(stream.events.some((e) => e.event === 'progress')).toBe(true);
     const t0 = Date.now();
-    expect((await request(t.app).post('/api/auth/logout').set('Authorization', bearer(otherToken))).status).toBe(204);
+    expect(
+      (await request(t.app).post('/api/auth/logout').set('Authorization', bearer(otherToken)))
+        .status,
+    ).toBe(204);
     await stream.ended;
     const after = Date.now() - t0;
     console.log(`streams: closed ${after} ms after sign-out`);
     expect(after).toBeLessThan(2000);
     expect(stream.events.at(-1)).toEqual({ event: 'closed', data: { reason: 'token revoked' } });
-    await request(t.app).post(`/api/runs/${own}/cancel`).set('Authorization', bearer(await tokenFor(t, other)));
+    await request(t.app)
+      .post(`/api/runs/${own}/cancel`)
+      .set('Authorization', bearer(await tokenFor(t, other)));
   });
 
   it('closes a stream when its token expires', async () => {
     // a run of its own that outlives the 2 s token (a finished run would end the stream first)
     const other = await insertUser(t, 'author');
     const otherToken = await tokenFor(t, other);
-    const own = await startRun(t, otherToken, await createGas(t, otherToken, await insertStudy(t, other), RUNAWAY_SPEC));
+    const own = await startRun(
+      t,
+      otherToken,
+      await createGas(t, otherToken, await insertStudy(t, other), RUNAWAY_SPEC),
+    );
     const short = signToken({ sub: other.id, tv: 0, role: 'author' }, tokenSecretOf(t), 2).token;
     const stream = await openStream(`/api/runs/${own}/events`, { Authorization: bearer(short) });
     expect(stream.status).toBe(200);

@@ -155,7 +155,10 @@ describe('runs', () => {
       .set('Authorization', bearer(token))
       .buffer(true)
       .parse((stream, done) => {
-        stream.on('data', sseReader((e) => events.push({ ...e, at: Date.now() })));
+        stream.on(
+          'data',
+          sseReader((e) => events.push({ ...e, at: Date.now() })),
+        );
         stream.on('end', () => done(null, ''));
       });
     expect(res.status).toBe(200);

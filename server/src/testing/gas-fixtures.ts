@@ -32,19 +32,29 @@ export const RUNAWAY_SPEC = {
 export const bearer = (token: string) => `Bearer ${token}`;
 
 /** Creates a gas through the API and returns its id. */
-export async function createGas(t: TestApp, token: string, studyId: string, spec: object = TRAP_SPEC): Promise<string> {
+export async function createGas(
+  t: TestApp,
+  token: string,
+  studyId: string,
+  spec: object = TRAP_SPEC,
+): Promise<string> {
   const res = await request(t.app)
     .post(`/api/studies/${studyId}/gases`)
     .set('Authorization', bearer(token))
     .send({ spec });
-  if (res.status !== 201) throw new Error(`gas creation answered ${res.status}: ${JSON.stringify(res.body)}`);
+  if (res.status !== 201)
+    throw new Error(`gas creation answered ${res.status}: ${JSON.stringify(res.body)}`);
   return res.body.id as string;
 }
 
 /** Starts a run through the API and returns its id. */
 export async function startRun(t: TestApp, token: string, gasId: string): Promise<string> {
-  const res = await request(t.app).post(`/api/gases/${gasId}/runs`).set('Authorization', bearer(token)).send({});
-  if (res.status !== 202) throw new Error(`run start answered ${res.status}: ${JSON.stringify(res.body)}`);
+  const res = await request(t.app)
+    .post(`/api/gases/${gasId}/runs`)
+    .set('Authorization', bearer(token))
+    .send({});
+  if (res.status !== 202)
+    throw new Error(`run start answered ${res.status}: ${JSON.stringify(res.body)}`);
   return res.body.id as string;
 }
 
@@ -59,7 +69,8 @@ export async function waitForRun(
   for (;;) {
     const run = await t.dataSource.getRepository(Run).findOneByOrFail({ id: runId });
     if (statuses.includes(run.status)) return run;
-    if (Date.now() > until) throw new Error(`run ${runId} still ${run.status} after ${timeoutMs} ms`);
+    if (Date.now() > until)
+      throw new Error(`run ${runId} still ${run.status} after ${timeoutMs} ms`);
     await new Promise((r) => setTimeout(r, 20));
   }
 }

@@ -167,7 +167,10 @@ export function featureMatrix(
         status: 201,
       };
     },
-    'GET /runs/:id/comparisons': async (actor) => ({ path: `/runs/${await runFor(actor)}/comparisons`, status: 200 }),
+    'GET /runs/:id/comparisons': async (actor) => ({
+      path: `/runs/${await runFor(actor)}/comparisons`,
+      status: 200,
+    }),
     'GET /runs/:id/product-form': async (actor) => ({
       path: `/runs/${await runFor(actor)}/product-form?of=row&N=2`,
       status: 200,

@@ -84,7 +84,15 @@ export function grandCheckNumeric(
       ? g.values
           .slice(0, spec.nMax + 1)
           .map((text, j) => supplied(text, names, values, prec, `grand.values.${j}`, truncations))
-      : grandExpressionCoefficients(spec, g.expression, canonical, names, values, prec, truncations);
+      : grandExpressionCoefficients(
+          spec,
+          g.expression,
+          canonical,
+          names,
+          values,
+          prec,
+          truncations,
+        );
   const digits = spec.precision!;
   const rows = xi.map((s, N) => ({ N, ...verdict(canonical[N]!, s, digits) }));
   const implied = impliedWeightsNumeric(xi, spec.statistics === 'fermion', prec);

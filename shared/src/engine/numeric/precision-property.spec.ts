@@ -57,7 +57,12 @@ describe('a finer precision never changes a shown digit (property)', () => {
         statistics: 'fermion',
         nMax: 6,
         at: { q: '1/7' },
-        weights: { kind: 'spectrum', expression: 'q^(p + 1/2)/(1 + q^(p + 1/2))', from: '0', to: null },
+        weights: {
+          kind: 'spectrum',
+          expression: 'q^(p + 1/2)/(1 + q^(p + 1/2))',
+          from: '0',
+          to: null,
+        },
       },
     ],
   ];

@@ -23,7 +23,10 @@ describe('Taylor coefficients by Chebyshev interpolation', () => {
   });
 
   it('1/(1 - x/2) on [-1, 1]: c_N = 2^-N (a pole at 2)', { timeout: 60_000 }, () => {
-    const f = (x: Real) => ({ value: div(fromInt(1), sub(fromInt(1), ldexp(x, -1), P), P), error: 0 });
+    const f = (x: Real) => ({
+      value: div(fromInt(1), sub(fromInt(1), ldexp(x, -1), P), P),
+      error: 0,
+    });
     const c = taylorByInterpolation(f, 10, fromNumber(1), P);
     c.forEach((e, N) => {
       const d = Math.abs(toNumber(sub(e.value, ldexp(fromInt(1), -N), P)));
@@ -47,18 +50,22 @@ describe('numeric grand check of an expression in kappa', () => {
     weights: { kind: 'spectrum', expression: 'q^(p + 1/2)', offset: '0', from: '0', to: null },
   };
 
-  it('the product form agrees on every row, within the stated tolerance', { timeout: 60_000 }, () => {
-    const r = compute({
-      ...gas,
-      grand: { kind: 'expression', expression: 'prod(1 + kappa*q^(n + 1/2), n, 0, inf)' },
-    });
-    const rows = r.grandCheck as NumericRowVerdict[];
-    expect(rows).toHaveLength(6);
-    for (const row of rows) {
-      expect(row.agrees).toBe(true);
-      expect(Number(row.tolerance)).toBeLessThan(1e-18);
-    }
-  });
+  it(
+    'the product form agrees on every row, within the stated tolerance',
+    { timeout: 60_000 },
+    () => {
+      const r = compute({
+        ...gas,
+        grand: { kind: 'expression', expression: 'prod(1 + kappa*q^(n + 1/2), n, 0, inf)' },
+      });
+      const rows = r.grandCheck as NumericRowVerdict[];
+      expect(rows).toHaveLength(6);
+      for (const row of rows) {
+        expect(row.agrees).toBe(true);
+        expect(Number(row.tolerance)).toBeLessThan(1e-18);
+      }
+    },
+  );
 
   it('a wrong grand function fails where it differs', { timeout: 60_000 }, () => {
     const r = compute({

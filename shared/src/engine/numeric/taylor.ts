@@ -1,6 +1,18 @@
 import type { Estimate } from './estimate.js';
 import { pi } from './elementary.js';
-import { add, div, fromInt, fromNumber, ldexp, mul, powInt, Real, sub, toNumber, ZERO } from './real.js';
+import {
+  add,
+  div,
+  fromInt,
+  fromNumber,
+  ldexp,
+  mul,
+  powInt,
+  Real,
+  sub,
+  toNumber,
+  ZERO,
+} from './real.js';
 import { cos } from './special/trig.js';
 
 /**
@@ -94,7 +106,8 @@ function coefficients(
     const scale = Math.abs(toNumber(rN));
     return {
       value: div(m, rN, prec),
-      error: (2 * valueError * absSum[N]!) / scale + Math.abs(toNumber(m)) * 2 ** -(prec - 8) / scale,
+      error:
+        (2 * valueError * absSum[N]!) / scale + (Math.abs(toNumber(m)) * 2 ** -(prec - 8)) / scale,
     };
   });
 }

@@ -54,7 +54,8 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
       if (Number.isNaN(probe[k]!)) return c;
       return constant(probe[k]!, probe[k + 1]!, slot());
     }
-    const out = names.length >= 2 && (mask & (mask - 1)) === 0 ? memo(c, Math.log2(mask), slot()) : c;
+    const out =
+      names.length >= 2 && (mask & (mask - 1)) === 0 ? memo(c, Math.log2(mask), slot()) : c;
     reads.set(out, mask);
     return out;
   };

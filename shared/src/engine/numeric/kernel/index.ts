@@ -381,7 +381,6 @@ function shownDigits(e: Estimate, D: number): number {
   return Math.max(0, Math.min(D, Math.floor(Math.log10(v / (2 * e.error))) + 1));
 }
 
-
 function debugLevels(
   print: (line: string) => void,
   m: number,

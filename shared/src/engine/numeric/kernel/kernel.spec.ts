@@ -120,16 +120,20 @@ describe('kernelTraces: finite-rank kernels', () => {
 });
 
 describe('kernelTraces: Mehler kernel (DLMF 18.18.28), eigenvalues t^n', () => {
-  it('t = 1/2, fermions, 12 digits: Z_L = 1/(1 - t^L), Z(N) = t^(N(N-1)/2) / prod (1 - t^k)', SLOW, () => {
-    const t = fromFraction(1n, 2n, P);
-    const r = kernelTraces(mehler(t), line, { digits: 12, nMax: 4, fermion: true });
-    let prod = ONE;
-    for (let N = 1; N <= 4; N++) {
-      within(r.traces[N - 1]!, div(ONE, sub(ONE, powInt(t, N, P), P), P), 12);
-      prod = mul(prod, sub(ONE, powInt(t, N, P), P), P);
-      within(r.fredholm[N]!, div(powInt(t, (N * (N - 1)) / 2, P), prod, P), 12);
-    }
-  });
+  it(
+    't = 1/2, fermions, 12 digits: Z_L = 1/(1 - t^L), Z(N) = t^(N(N-1)/2) / prod (1 - t^k)',
+    SLOW,
+    () => {
+      const t = fromFraction(1n, 2n, P);
+      const r = kernelTraces(mehler(t), line, { digits: 12, nMax: 4, fermion: true });
+      let prod = ONE;
+      for (let N = 1; N <= 4; N++) {
+        within(r.traces[N - 1]!, div(ONE, sub(ONE, powInt(t, N, P), P), P), 12);
+        prod = mul(prod, sub(ONE, powInt(t, N, P), P), P);
+        within(r.fredholm[N]!, div(powInt(t, (N * (N - 1)) / 2, P), prod, P), 12);
+      }
+    },
+  );
 });
 
 describe('kernelTraces: the line kernel (Hatsuda-Moriyama-Okuyama 2012, SOURCES.md)', () => {
@@ -140,21 +144,25 @@ describe('kernelTraces: the line kernel (Hatsuda-Moriyama-Okuyama 2012, SOURCES.
     return ([x, y]) =>
       div(ONE, mul(mul(twoPi, sqrt(mul(c2(x!), c2(y!), p), p), p), c2(sub(x!, y!, p)), p), bits);
   };
-  it('fermions, 15 digits: Tr rho = Z(1) = 1/4, Z(2) = 1/(16 pi), Z(3) = (pi - 3)/(64 pi), Z(4) = (10 - pi^2)/(1024 pi^2)', SLOW, () => {
-    const r = kernelTraces(lineKernel, line, { digits: 15, nMax: 4, fermion: true });
-    const exact = publishedLine();
-    within(r.traces[0]!, exact[0]!, 15);
-    for (let N = 1; N <= 4; N++) within(r.fredholm[N]!, exact[N - 1]!, 15);
-    // the trace route through the Newton recursion Z(2) = (Z_1^2 - Z_2) / 2 agrees
-    const z2 = div(
-      sub(mul(r.traces[0]!.value, r.traces[0]!.value, P), r.traces[1]!.value, P),
-      fromInt(2),
-      P,
-    );
-    expect(Math.abs(toNumber(sub(z2, exact[1]!, P)))).toBeLessThanOrEqual(
-      r.traces[0]!.error * 0.5 + r.traces[1]!.error,
-    );
-  });
+  it(
+    'fermions, 15 digits: Tr rho = Z(1) = 1/4, Z(2) = 1/(16 pi), Z(3) = (pi - 3)/(64 pi), Z(4) = (10 - pi^2)/(1024 pi^2)',
+    SLOW,
+    () => {
+      const r = kernelTraces(lineKernel, line, { digits: 15, nMax: 4, fermion: true });
+      const exact = publishedLine();
+      within(r.traces[0]!, exact[0]!, 15);
+      for (let N = 1; N <= 4; N++) within(r.fredholm[N]!, exact[N - 1]!, 15);
+      // the trace route through the Newton recursion Z(2) = (Z_1^2 - Z_2) / 2 agrees
+      const z2 = div(
+        sub(mul(r.traces[0]!.value, r.traces[0]!.value, P), r.traces[1]!.value, P),
+        fromInt(2),
+        P,
+      );
+      expect(Math.abs(toNumber(sub(z2, exact[1]!, P)))).toBeLessThanOrEqual(
+        r.traces[0]!.error * 0.5 + r.traces[1]!.error,
+      );
+    },
+  );
 });
 
 describe('kernelTraces: bad kernels', () => {
@@ -200,38 +208,51 @@ describe('kernelTraces: bad kernels', () => {
 });
 
 describe('kernelTraces: entries in double-double from the expression (the fast path)', () => {
-  const compiled = (text: string): KernelSource => (bits) =>
-    compileNumeric(text, { names: ['x', 'y'], prec: bits, field: 'weights.expression' });
+  const compiled =
+    (text: string): KernelSource =>
+    (bits) =>
+      compileNumeric(text, { names: ['x', 'y'], prec: bits, field: 'weights.expression' });
   const LINE = '1/(2*pi) / sqrt(2*cosh(x/2)) / (2*cosh((x-y)/2)) / sqrt(2*cosh(y/2))';
 
-  it('the line kernel at 15 digits: the published Z(1..4) (SOURCES.md), Z(5..8) as the Real path', SLOW, () => {
-    const opts = { digits: 15, nMax: 8, fermion: true };
-    const fast = kernelTraces(compiled(LINE), line, { ...opts, fast: compileFast(LINE, ['x', 'y']) });
-    const exact = publishedLine();
-    for (let N = 1; N <= 4; N++) within(fast.fredholm[N]!, exact[N - 1]!, 15);
-    const slow = kernelTraces(compiled(LINE), line, opts);
-    for (let N = 5; N <= 8; N++) {
-      const a = fast.fredholm[N]!;
-      const b = slow.fredholm[N]!;
-      expect(Math.abs(toNumber(sub(a.value, b.value, P)))).toBeLessThanOrEqual(a.error + b.error);
-    }
-  });
+  it(
+    'the line kernel at 15 digits: the published Z(1..4) (SOURCES.md), Z(5..8) as the Real path',
+    SLOW,
+    () => {
+      const opts = { digits: 15, nMax: 8, fermion: true };
+      const fast = kernelTraces(compiled(LINE), line, {
+        ...opts,
+        fast: compileFast(LINE, ['x', 'y']),
+      });
+      const exact = publishedLine();
+      for (let N = 1; N <= 4; N++) within(fast.fredholm[N]!, exact[N - 1]!, 15);
+      const slow = kernelTraces(compiled(LINE), line, opts);
+      for (let N = 5; N <= 8; N++) {
+        const a = fast.fredholm[N]!;
+        const b = slow.fredholm[N]!;
+        expect(Math.abs(toNumber(sub(a.value, b.value, P)))).toBeLessThanOrEqual(a.error + b.error);
+      }
+    },
+  );
 
-  it('a Mehler kernel written as an expression: eigenvalues t^n, t = 1/3 (DLMF 18.18.28)', SLOW, () => {
-    // rho(x, y) = (pi (1 - t^2))^(-1/2) exp(-((1 + t^2)(x^2 + y^2) - 4 t x y) / (2 (1 - t^2)))
-    const text = '1/sqrt(pi*(1 - 1/9)) * exp(-((1 + 1/9)*(x^2 + y^2) - 4/3*x*y) / (2*(1 - 1/9)))';
-    const r = kernelTraces(compiled(text), line, {
-      digits: 14,
-      nMax: 4,
-      fermion: true,
-      fast: compileFast(text, ['x', 'y']),
-    });
-    // Z(N) = t^(N(N-1)/2) / prod_(k=1..N) (1 - t^k) for eigenvalues t^n (q-binomial theorem)
-    const t = fromFraction(1n, 3n, P);
-    let prod: Real = ONE;
-    for (let N = 1; N <= 4; N++) {
-      prod = mul(prod, sub(ONE, powInt(t, N, P), P), P);
-      within(r.fredholm[N]!, div(powInt(t, (N * (N - 1)) / 2, P), prod, P), 14);
-    }
-  });
+  it(
+    'a Mehler kernel written as an expression: eigenvalues t^n, t = 1/3 (DLMF 18.18.28)',
+    SLOW,
+    () => {
+      // rho(x, y) = (pi (1 - t^2))^(-1/2) exp(-((1 + t^2)(x^2 + y^2) - 4 t x y) / (2 (1 - t^2)))
+      const text = '1/sqrt(pi*(1 - 1/9)) * exp(-((1 + 1/9)*(x^2 + y^2) - 4/3*x*y) / (2*(1 - 1/9)))';
+      const r = kernelTraces(compiled(text), line, {
+        digits: 14,
+        nMax: 4,
+        fermion: true,
+        fast: compileFast(text, ['x', 'y']),
+      });
+      // Z(N) = t^(N(N-1)/2) / prod_(k=1..N) (1 - t^k) for eigenvalues t^n (q-binomial theorem)
+      const t = fromFraction(1n, 3n, P);
+      let prod: Real = ONE;
+      for (let N = 1; N <= 4; N++) {
+        prod = mul(prod, sub(ONE, powInt(t, N, P), P), P);
+        within(r.fredholm[N]!, div(powInt(t, (N * (N - 1)) / 2, P), prod, P), 14);
+      }
+    },
+  );
 });

@@ -209,8 +209,7 @@ export function levelResult(
   const errC = coeff.map((_, N) =>
     N === 0
       ? 0
-      : N * delta * absSym[N - 1]! * 1.01 +
-        4 * N * nb * (dd ? DD_UNIT * absSym[N]! : fixedUnit),
+      : N * delta * absSym[N - 1]! * 1.01 + 4 * N * nb * (dd ? DD_UNIT * absSym[N]! : fixedUnit),
   );
   let values = coeff;
   let errs = errC;
@@ -241,7 +240,8 @@ export function levelResult(
 function truncatedProduct(a: Real[], b: Real[], nMax: number, prec: number): Real[] {
   const out: Real[] = new Array<Real>(nMax + 1).fill(ZERO);
   for (let i = 0; i <= nMax; i++)
-    for (let j = 0; i + j <= nMax; j++) out[i + j] = add(out[i + j]!, mul(a[i]!, b[j]!, prec), prec);
+    for (let j = 0; i + j <= nMax; j++)
+      out[i + j] = add(out[i + j]!, mul(a[i]!, b[j]!, prec), prec);
   return out;
 }
 

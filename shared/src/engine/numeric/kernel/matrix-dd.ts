@@ -118,7 +118,13 @@ export function tridiagonalizeDD(n: number, M: DD, p?: Pace): { d: DD; e: DD } {
 const SPLIT = 134217729; // 2^27 + 1
 
 /** Dekker splits x = x1 + x2 (26 + 27 bits) of x[from..to). */
-function splitInto(x: Float64Array, from: number, to: number, x1: Float64Array, x2: Float64Array): void {
+function splitInto(
+  x: Float64Array,
+  from: number,
+  to: number,
+  x1: Float64Array,
+  x2: Float64Array,
+): void {
   for (let j = from; j < to; j++) {
     const v = x[j]!;
     const t = SPLIT * v;

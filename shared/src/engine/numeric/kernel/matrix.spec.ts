@@ -1,5 +1,17 @@
 import { describe, expect, it } from 'vitest';
-import { add, div, fromFixed, fromNumber, mul, Real, sqrt, sub, toFixed, toNumber, ZERO } from '../real.js';
+import {
+  add,
+  div,
+  fromFixed,
+  fromNumber,
+  mul,
+  Real,
+  sqrt,
+  sub,
+  toFixed,
+  toNumber,
+  ZERO,
+} from '../real.js';
 import { DD_UNIT, ddAdd, ddDiv, ddMul, ddSqrt, ddToReal, R } from './double-double.js';
 import {
   determinantCoefficients,

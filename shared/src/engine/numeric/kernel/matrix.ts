@@ -34,7 +34,12 @@ function shiftRound(s: bigint, k: number): bigint {
  * banded powers T^k (bandwidth k) for k <= ceil(nMax / 2), then Tr T^(a+b) = sum_ij (T^a)_ij
  * (T^b)_ij. O(n nMax^2) operations instead of the O(n^3) products of the dense matrix.
  */
-export function tridiagonalPowerTraces(d: bigint[], e: bigint[], nMax: number, F: number): bigint[] {
+export function tridiagonalPowerTraces(
+  d: bigint[],
+  e: bigint[],
+  nMax: number,
+  F: number,
+): bigint[] {
   const n = d.length;
   const FB = BigInt(F);
   const K = Math.ceil(nMax / 2);
@@ -76,7 +81,8 @@ export function tridiagonalPowerTraces(d: bigint[], e: bigint[], nMax: number, F
     const b = L - a;
     let s = 0n;
     for (let i = 0; i < n; i++)
-      for (let j = Math.max(0, i - b); j <= Math.min(n - 1, i + b); j++) s += at(a, i, j) * at(b, i, j);
+      for (let j = Math.max(0, i - b); j <= Math.min(n - 1, i + b); j++)
+        s += at(a, i, j) * at(b, i, j);
     out.push((s + (1n << (FB - 1n))) >> FB);
   }
   return out;

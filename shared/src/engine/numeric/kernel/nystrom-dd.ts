@@ -165,5 +165,3 @@ function set(M: DDMatrix, i: number, j: number): void {
   M.hi[i * M.n + j] = M.hi[j * M.n + i] = R[0];
   M.lo[i * M.n + j] = M.lo[j * M.n + i] = R[1];
 }
-
-
