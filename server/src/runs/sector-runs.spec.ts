@@ -71,6 +71,30 @@ describe('sector runs on the worker pool', () => {
     expect(rows.body.result.classes).toEqual(direct.classes.filter((c) => c.N === 2));
   });
 
+  it('spreads a numeric sector sum over the pool with the one-thread answer', async () => {
+    // sum_n (-1)^n Z_n at q = 1/10 (the engine spec checks the values against mpmath); here the
+    // pool path (parts on worker threads, summed in a last task) must give the same result
+    const NUMERIC = {
+      format: 'traceloom.gas/1',
+      title: 'alternating sectors at q = 1/10',
+      statistics: 'fermion',
+      precision: 20,
+      at: { q: '1/10' },
+      nMax: 4,
+      classTable: 2,
+      weights: { kind: 'spectrum', expression: 'q^(abs(p) + abs(n))' },
+      sectors: { index: ['n'], from: [null], to: [null], weight: '(-1)^n' },
+    };
+    const runId = await startRun(t, token, await createGas(t, token, studyId, NUMERIC));
+    const run = await waitForRun(t, runId);
+    expect(run.status, run.error ?? '').toBe('done');
+    const res = await request(t.app).get(`/api/runs/${runId}`).set('Authorization', bearer(token));
+    const direct = JSON.parse(JSON.stringify(compute(NUMERIC)));
+    expect(untimed(res.body.result)).toEqual(untimed(direct));
+    expect(res.body.result.sectors.count).toBeGreaterThan(4);
+    expect(res.body.classCounts).toEqual({ 1: 1, 2: 2 });
+  });
+
   it('checks the summed table against an uploaded reference table, row by row', async () => {
     // the reference: a direct count over |n|, |p| <= 20 (every state outside lies beyond q^8), with
     // the coefficient of q^(5/2) in Z(2) deliberately wrong

@@ -1,9 +1,12 @@
 import { MessageChannel } from 'node:worker_threads';
 import {
   EngineError,
+  NumericSectorWalk,
   parseGasSpec,
   partFromData,
   SectorWalk,
+  type GasSpec,
+  type NumericSectorPart,
   type Progress,
   type SectorPartData,
 } from '@traceloom/shared/engine';
@@ -14,18 +17,43 @@ import type { RunOutput, WorkerRefusal } from './worker.js';
 /** Sectors one pool task computes at most (several tasks per shell keep every thread busy). */
 const CHUNK = 16;
 
-/**
- * True when a stored spec asks for a series sector sum (the run is then spread over the pool; a
- * numeric sector sum runs as one task).
- */
+/** True when a stored spec asks for a sector sum (series or numeric: spread over the pool). */
 export function isSectorSpec(spec: unknown): boolean {
   return (
     typeof spec === 'object' &&
     spec !== null &&
     'sectors' in spec &&
-    !!(spec as { sectors: unknown }).sectors &&
-    (spec as { precision?: unknown }).precision === undefined
+    !!(spec as { sectors: unknown }).sectors
   );
+}
+
+/** A sector part as it comes back from a pool task: series parts as data, numeric parts as is. */
+type PartData = SectorPartData | NumericSectorPart;
+
+/** The stopping rule of either mode behind one face: the next shell, and accepting its parts. */
+interface Walker {
+  next(): number[][] | null;
+  accept(parts: PartData[]): void;
+  total: number;
+}
+
+function walkerFor(gas: GasSpec): Walker {
+  if (gas.precision !== undefined) {
+    const walk = new NumericSectorWalk(gas);
+    return {
+      next: () => walk.next(),
+      accept: (parts) => walk.accept((parts as NumericSectorPart[]).map((p) => p.terms)),
+      total: 0,
+    };
+  }
+  const walk = new SectorWalk(gas, gas.order == null ? null : new Fraction(gas.order));
+  return {
+    next: () => walk.next(),
+    accept: (parts) => walk.accept((parts as SectorPartData[]).map(partFromData)),
+    get total() {
+      return walk.total;
+    },
+  };
 }
 
 /** The shell's sectors cut into about `threads` tasks of at most CHUNK sectors. */
@@ -51,17 +79,15 @@ export async function runSectorsOnPool(
 ): Promise<RunOutput | WorkerRefusal> {
   onMessage({ started: Date.now() });
   const t0 = performance.now();
-  const shells: SectorPartData[][] = [];
+  const shells: PartData[][] = [];
   try {
-    const gas = parseGasSpec(spec);
-    const cap = gas.order == null ? null : new Fraction(gas.order);
-    const walk = new SectorWalk(gas, cap);
+    const walk = walkerFor(parseGasSpec(spec));
     let done = 0;
     for (let list = walk.next(); list !== null; list = walk.next()) {
       const answers = await Promise.all(
         chunks(list, threads).map(async (sectors) => {
           const r = (await pool.run({ kind: 'sectorParts', spec, sectors }, { signal })) as
-            { ok: true; parts: SectorPartData[] } | WorkerRefusal;
+            { ok: true; parts: PartData[] } | WorkerRefusal;
           if (r.ok)
             onMessage({ phase: 'sectors', done: (done += r.parts.length), total: walk.total });
           return r;
@@ -69,9 +95,9 @@ export async function runSectorsOnPool(
       );
       const refused = answers.find((a): a is WorkerRefusal => !a.ok);
       if (refused) return refused;
-      const shell = answers.flatMap((a) => (a as { parts: SectorPartData[] }).parts);
+      const shell = answers.flatMap((a) => (a as { parts: PartData[] }).parts);
       shells.push(shell);
-      walk.accept(shell.map(partFromData));
+      walk.accept(shell);
     }
   } catch (e) {
     if (e instanceof EngineError) return { ok: false, message: e.message, field: e.field };

@@ -18,6 +18,13 @@ export type { SectorsSpec } from './sectors/schema.js';
 export { assembleSectors, sectorContext } from './sectors/compute-sectors.js';
 export { sectorPart } from './sectors/sector.js';
 export { SectorWalk } from './sectors/walk.js';
+export { assembleNumericSectors } from './sectors/numeric-sectors.js';
+export {
+  NumericSectorWalk,
+  numericSectorContext,
+  numericSectorPart,
+} from './sectors/numeric-part.js';
+export type { NumericSectorPart } from './sectors/numeric-part.js';
 export { partFromData, partToData } from './sectors/transfer.js';
 export type { SectorPartData } from './sectors/transfer.js';
 export { EngineCancelled, EngineError, describeError, withField } from './errors.js';

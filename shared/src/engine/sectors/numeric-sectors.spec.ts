@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { compute } from '../compute.js';
 import { EngineError } from '../errors.js';
+import { parseGasSpec } from '../spec/schema.js';
+import {
+  NumericSectorWalk,
+  numericSectorContext,
+  numericSectorPart,
+  type NumericSectorPart,
+} from './numeric-part.js';
+import { assembleNumericSectors } from './numeric-sectors.js';
 
 const gas = (sectors: object, expression = 'q^(abs(p) + abs(n))') => ({
   format: 'traceloom.gas/1',
@@ -49,5 +57,26 @@ describe('sector sums in numeric mode', () => {
     expect(e).toBeInstanceOf(EngineError);
     expect((e as EngineError).field).toBe('sectors');
     expect((e as EngineError).message).toMatch(/does not converge/);
+  });
+
+  it('sectors computed apart and posted as plain data sum to the same result (the pool path)', () => {
+    // the server computes each shell's parts on worker threads (structured clone drops the Real
+    // class) and sums them in one last task: the answer must be the one-thread answer exactly
+    const input = gas({ index: ['n'], from: [-3], to: [3], weight: '(-1)^n' });
+    const whole = compute(input);
+    const spec = parseGasSpec(input);
+    const ctx = numericSectorContext(spec);
+    const walk = new NumericSectorWalk(spec);
+    const parts: NumericSectorPart[] = [];
+    for (let list = walk.next(); list !== null; list = walk.next()) {
+      const shell = structuredClone(list.map((n) => numericSectorPart(ctx, n)));
+      walk.accept(shell.map((p) => p.terms));
+      parts.push(...shell);
+    }
+    const summed = assembleNumericSectors(spec, walk, parts, {}, 0, () => 0);
+    expect(summed.canonical).toEqual(whole.canonical);
+    expect(summed.classes).toEqual(whole.classes);
+    expect(summed.sectors!.count).toBe(7);
+    expect(summed.sectors!.rows).toEqual(whole.sectors!.rows);
   });
 });

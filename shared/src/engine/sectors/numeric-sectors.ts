@@ -1,4 +1,3 @@
-import { EngineError } from '../errors.js';
 import type { Truncation } from '../expr/evaluate.js';
 import type {
   ClassRowJson,
@@ -9,7 +8,7 @@ import type {
 } from '../result.js';
 import type { GasSpec } from '../spec/schema.js';
 import { grandCheckNumeric, referenceCheckNumeric } from '../numeric/checks.js';
-import { ERROR_ESTIMATE_TEXT, GUARD_DIGITS } from '../numeric/compute-numeric.js';
+import { ERROR_ESTIMATE_TEXT } from '../numeric/compute-numeric.js';
 import {
   addEstimates,
   agreeWithin,
@@ -21,23 +20,27 @@ import {
   type Estimate,
 } from '../numeric/estimate.js';
 import { airyFit } from '../numeric/airy-fit.js';
-import { bitsFor, fromInt, neg, ONE, ZERO } from '../numeric/real.js';
+import { fromInt, neg, ONE, ZERO } from '../numeric/real.js';
 import { recognizeRows } from '../numeric/recognize-rows.js';
-import { classSumNumeric, newtonNumeric, productNumeric, type Pace } from '../numeric/routes.js';
-import { fixedVariable, numericWeights, twoPrecision } from '../numeric/weights.js';
 import type { SectorProgress } from './compute-sectors.js';
-import { isBounded, lastShell, sectorBox, shell } from './enumerate.js';
-import { MAX_SECTORS, QUIET_SHELLS, STALL_SHELLS, ZERO_CONVENTION } from './walk.js';
+import {
+  NumericSectorWalk,
+  numericSectorContext,
+  numericSectorPart,
+  type NumericSectorContext,
+  type NumericSectorPart,
+} from './numeric-part.js';
+import { ZERO_CONVENTION } from './walk.js';
 
 const zero = (): Estimate => ({ value: ZERO, error: 0 });
 
 /**
  * Numeric mode with sectors: per sector the numeric gas with the indices bound (Newton recursion,
- * product form for spectra, class rows), summed as w(n) Z_n(N) with propagated errors. An
- * unbounded sum stops after QUIET_SHELLS shells whose every contribution lies below 10^-(D+2)
- * times the largest contribution of its row so far, with the shell maxima falling; the left-out
- * sectors are estimated by extending the last two shells geometrically (an estimate: it assumes
- * the decay goes on) and added to the error.
+ * product form for spectra, class rows), summed as w(n) Z_n(N) with propagated errors, shell by
+ * shell until `NumericSectorWalk` stops (see there); the left-out sectors are estimated by
+ * extending the last two shells geometrically (an estimate: it assumes the decay goes on) and added
+ * to the error. The sectors are computed here one after another; the server spreads the same parts
+ * over its worker pool and sums them with `assembleNumericSectors`.
  */
 export function computeNumericSectors(
   spec: GasSpec,
@@ -46,109 +49,84 @@ export function computeNumericSectors(
   now: () => number,
 ): ComputeResult {
   const t0 = now();
-  const digits = spec.precision!;
-  const prec = bitsFor(digits + GUARD_DIGITS);
-  const nMax = spec.nMax;
-  const fermion = spec.statistics === 'fermion';
-  const pace: Pace = {
+  const ctx = numericSectorContext(spec, {
     tick: progress.tick,
     ...(opts.shouldStop && { shouldStop: opts.shouldStop }),
-  };
-  const truncations: Truncation[] = [];
-  const q = fixedVariable(spec, prec, truncations);
-  const index = spec.sectors!.index;
-  const names = [...index, ...(q === undefined ? [] : [spec.variable])];
-  const weightOf = twoPrecision(spec.sectors!.weight, names, prec, 'sectors.weight', truncations);
-  const box = sectorBox(spec.sectors!);
-  const bounded = isBounded(box);
-  const tol = 10 ** -(digits + 2);
-  const sums: Partial<Record<Route, Estimate[]>> = { recursion: [exact(ONE)] };
-  for (let N = 1; N <= nMax; N++) sums.recursion!.push(zero());
-  const classSums = new Map<string, { row: ClassRowJson; est: Estimate }>();
-  const scale = new Array<number>(nMax + 1).fill(0);
-  const rows: (SectorRowJson & { terms: number[] })[] = [];
-  const shellSums: number[][] = [];
-  let quiet = 0;
-  let points = 0;
-  let record = Infinity;
-  let since = 0;
+  });
+  const walk = new NumericSectorWalk(spec);
+  const parts: NumericSectorPart[] = [];
   progress.phase('sectors', 0);
-  for (let r = 0; ; r++) {
-    if (bounded && r > lastShell(box)) break;
-    const list = shell(box, r);
-    if (rows.length + list.length > MAX_SECTORS)
-      throw new EngineError(
-        `the sector sum does not stop within ${MAX_SECTORS} sectors`,
-        'sectors',
-      );
-    const here = new Array<number>(nMax + 1).fill(0);
+  for (let list = walk.next(); list !== null; list = walk.next()) {
+    const shellParts: NumericSectorPart[] = [];
     for (const n of list) {
-      const at = n.map(fromInt);
-      const w = weightOf([...at, ...(q === undefined ? [] : [q])]);
-      const gas = numericWeights(spec, prec, pace, { names: index, values: at });
-      const Z = newtonNumeric(gas.weights, nMax, fermion, prec, pace);
-      const add = (route: Route, table: readonly Estimate[]): void => {
-        const acc = (sums[route] ??= [exact(ONE), ...Array.from({ length: nMax }, zero)]);
-        for (let N = 1; N <= nMax; N++)
-          acc[N] = addEstimates(acc[N]!, mulEstimates(w, table[N]!, prec), prec);
-      };
-      add('recursion', Z);
-      points += gas.spectrum?.points.length ?? 0;
-      if (gas.spectrum)
-        add(
-          'product',
-          productNumeric(gas.spectrum.points, nMax, fermion, prec, gas.spectrum.tail, pace),
-        );
-      for (let N = 1; N <= spec.classTable; N++)
-        classSumNumeric(
-          N,
-          gas.weights,
-          fermion,
-          prec,
-          (row) => {
-            const key = `${N}:${row.cycleType.join(';')}`;
-            const c = mulEstimates(w, row.contribution, prec);
-            const old = classSums.get(key);
-            const { contribution: _c, ...rest } = row;
-            classSums.set(key, {
-              row: { ...rest, contribution: toNumericJson(c, digits) },
-              est: old ? addEstimates(old.est, c, prec) : c,
-            });
-          },
-          pace,
-        );
-      const terms = Z.map((z) => size(w.value) * size(z.value));
-      for (let N = 1; N <= nMax; N++) {
-        scale[N] = Math.max(scale[N]!, terms[N]!);
-        here[N] = here[N]! + terms[N]!;
-      }
-      rows.push({
-        index: n,
-        weight: toNumericJson(w, digits),
-        valuations: [],
-        magnitudes: terms.slice(1).map((t) => (t > 0 ? Math.log10(t) : null)),
-        contributes: [],
-        contributed: false,
-        terms,
-      });
-      progress.step(rows.length, 0);
+      shellParts.push(numericSectorPart(ctx, n));
+      progress.step(parts.length + shellParts.length, 0);
     }
-    shellSums.push(here);
-    if (bounded) continue;
-    const peak = Math.max(...here.slice(1));
-    const silent = here.every((t, N) => N === 0 || t <= tol * scale[N]!);
-    quiet = silent ? quiet + 1 : 0;
-    if (peak < record) {
-      record = peak;
-      since = 0;
-    } else if (++since > STALL_SHELLS)
-      throw new EngineError(
-        'the sector sum does not converge: the contributions stop falling',
-        'sectors',
-      );
-    if (quiet >= QUIET_SHELLS && shellSums.length >= 2) break;
+    walk.accept(shellParts.map((p) => p.terms));
+    parts.push(...shellParts);
   }
-  const tails = bounded ? new Array<number>(nMax + 1).fill(0) : tailOf(shellSums, nMax);
+  return assembleNumericSectors(spec, walk, parts, opts, now() - t0, now, ctx);
+}
+
+/**
+ * The result of a numeric sector sum from its computed sectors (in walk order) and the finished
+ * walk: the summed routes with the tail estimate in the error, the class table summed over
+ * sectors, the checks, recognition and the Airy fit.
+ */
+export function assembleNumericSectors(
+  spec: GasSpec,
+  walk: NumericSectorWalk,
+  parts: readonly NumericSectorPart[],
+  opts: ComputeOptions,
+  sectorsMs: number,
+  now: () => number,
+  context?: NumericSectorContext,
+): ComputeResult {
+  const t0 = now() - sectorsMs;
+  const ctx = context ?? numericSectorContext(spec);
+  const { digits, prec, q, fermion } = ctx;
+  const nMax = spec.nMax;
+  const index = spec.sectors!.index;
+  const bounded = walk.bounded;
+  const tol = walk.tol;
+  const scale = walk.scale;
+  const truncations: Truncation[] = [...ctx.truncations];
+  const most = new Map<string, number>();
+  for (const p of parts)
+    for (const t of p.truncations) most.set(t.what, Math.max(most.get(t.what) ?? 0, t.terms));
+  for (const [what, terms] of most) truncations.push({ what, terms });
+  const sums: Partial<Record<Route, Estimate[]>> = {};
+  const add = (route: Route, table: readonly Estimate[]): void => {
+    const acc = (sums[route] ??= [exact(ONE), ...Array.from({ length: nMax }, zero)]);
+    for (let N = 1; N <= nMax; N++) acc[N] = addEstimates(acc[N]!, table[N]!, prec);
+  };
+  const classSums = new Map<string, { row: ClassRowJson; est: Estimate }>();
+  let points = 0;
+  const rows: (SectorRowJson & { terms: number[] })[] = [];
+  for (const part of parts) {
+    add('recursion', part.recursion);
+    if (part.product) add('product', part.product);
+    points += part.points;
+    for (const { key, row, c } of part.classes) {
+      const old = classSums.get(key);
+      classSums.set(key, {
+        row: old?.row ?? { ...row, contribution: toNumericJson(c, digits) },
+        est: old ? addEstimates(old.est, c, prec) : c,
+      });
+    }
+    rows.push({
+      index: part.index,
+      weight: toNumericJson(part.weight, digits),
+      valuations: [],
+      magnitudes: part.terms.slice(1).map((t) => (t > 0 ? Math.log10(t) : null)),
+      contributes: [],
+      contributed: false,
+      terms: part.terms,
+    });
+  }
+  sums.recursion ??= [exact(ONE), ...Array.from({ length: nMax }, zero)];
+  const shellCount = walk.shellSums.length;
+  const tails = walk.tails();
   return assemble();
 
   function assemble(): ComputeResult {
@@ -207,7 +185,7 @@ export function computeNumericSectors(
         errorEstimate: ERROR_ESTIMATE_TEXT,
         rule: bounded
           ? `every sector of the bounded ranges summed (${rows.length} sectors)`
-          : `sectors summed shell by shell over ${shellSums.length} shells (${rows.length} sectors) until two shells stayed below 10^-${digits + 2} of the largest contribution of each row; the left-out sectors are estimated geometrically from the last two shells and added to the error (an estimate, not a bound)`,
+          : `sectors summed shell by shell over ${shellCount} shells (${rows.length} sectors) until two shells stayed below 10^-${digits + 2} of the largest contribution of each row; the left-out sectors are estimated geometrically from the last two shells and added to the error (an estimate, not a bound)`,
         points: [],
         parity: false,
       },
@@ -255,18 +233,6 @@ export function computeNumericSectors(
     result.timings.totalMs = now() - t0;
     return result;
   }
-}
-
-/** The left-out sectors per row, estimated by extending the last two shells' sums geometrically. */
-function tailOf(shells: number[][], nMax: number): number[] {
-  const last = shells[shells.length - 1]!;
-  const prev = shells[shells.length - 2]!;
-  const tails = [0];
-  for (let N = 1; N <= nMax; N++) {
-    const ratio = Math.min(prev[N]! > 0 ? last[N]! / prev[N]! : 0, 0.9);
-    tails.push((last[N]! * ratio) / (1 - ratio) + last[N]!);
-  }
-  return tails;
 }
 
 /** Cycle weights of a numeric table by Newton's identities run backwards. */
