@@ -38,6 +38,9 @@ export function featureAccess(
     'POST /studies/:id/references': all,
     'GET /studies/:id/references': all,
     'GET /references/:id': all,
+    'PATCH /references/:id': all,
+    'DELETE /references/:id': all,
+    'GET /references/:id/comparisons': all,
     'POST /runs/:id/comparisons': all,
     'GET /runs/:id/comparisons': all,
     'GET /runs/:id/product-form': all,
@@ -74,11 +77,12 @@ export function featureMatrix(
       });
     return run.gas.study.id;
   };
-  const referenceFor = async (actor: User) => {
+  /** A table in the actor's study, uploaded by admin, or by the actor with `own`. */
+  const referenceFor = async (actor: User, own = false) => {
     const { default: request } = await import('supertest');
     const res = await request(app().app)
       .post(`/api/studies/${await studyOfRun(await runFor(actor))}/references`)
-      .set('Authorization', `Bearer ${await adminToken()}`)
+      .set('Authorization', `Bearer ${own ? await tokenFor(app(), actor) : await adminToken()}`)
       .attach('file', REFERENCE_CSV, 'table.csv');
     if (res.status !== 201)
       throw new Error(`upload answered ${res.status}: ${JSON.stringify(res.body)}`);
@@ -157,6 +161,19 @@ export function featureMatrix(
     }),
     'GET /references/:id': async (actor) => ({
       path: `/references/${await referenceFor(actor)}`,
+      status: 200,
+    }),
+    'PATCH /references/:id': async (actor) => ({
+      path: `/references/${await referenceFor(actor, true)}`,
+      body: { title: 'Renamed table', normalization: 'q^(N/2)' },
+      status: 200,
+    }),
+    'DELETE /references/:id': async (actor) => ({
+      path: `/references/${await referenceFor(actor, true)}`,
+      status: 204,
+    }),
+    'GET /references/:id/comparisons': async (actor) => ({
+      path: `/references/${await referenceFor(actor)}/comparisons`,
       status: 200,
     }),
     'POST /runs/:id/comparisons': async (actor) => {
