@@ -50,6 +50,11 @@ export const routes: Routes = [
         loadComponent: () => import('./runs/run-page').then((m) => m.RunPage),
       },
       {
+        path: 'references/:referenceId',
+        title: 'Reference table · Traceloom',
+        loadComponent: () => import('./checks/reference-page').then((m) => m.ReferencePage),
+      },
+      {
         path: 'datasets',
         title: 'Datasets · Traceloom',
         loadComponent: () => import('./datasets/dataset-list').then((m) => m.DatasetList),

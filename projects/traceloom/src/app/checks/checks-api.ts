@@ -77,6 +77,25 @@ export interface ComparisonDto {
   createdAt: string;
 }
 
+/** One comparison of a reference table with a run, as the table's page lists it. */
+export interface ReferenceComparison {
+  id: string;
+  runId: string;
+  gasId: string;
+  gasTitle: string;
+  gasVersion: number;
+  normalization: string;
+  summary: { agreeing: number; total: number };
+  createdAt: string;
+}
+
+/** The editable fields of a stored reference table. */
+export interface ReferencePatch {
+  title?: string;
+  normalization?: string;
+  note?: string;
+}
+
 /** Reference tables and comparisons. */
 @Injectable({ providedIn: 'root' })
 export class ChecksApi {
@@ -90,6 +109,20 @@ export class ChecksApi {
 
   reference(id: string): Observable<ReferenceDto> {
     return this.http.get<ReferenceDto>(`/api/references/${encodeURIComponent(id)}`);
+  }
+
+  update(id: string, patch: ReferencePatch): Observable<ReferenceDto> {
+    return this.http.patch<ReferenceDto>(`/api/references/${encodeURIComponent(id)}`, patch);
+  }
+
+  remove(id: string): Observable<void> {
+    return this.http.delete<void>(`/api/references/${encodeURIComponent(id)}`);
+  }
+
+  referenceComparisons(id: string): Observable<ReferenceComparison[]> {
+    return this.http.get<ReferenceComparison[]>(
+      `/api/references/${encodeURIComponent(id)}/comparisons`,
+    );
   }
 
   /** Parses the file on the server without storing it (`?dryRun=1`). */

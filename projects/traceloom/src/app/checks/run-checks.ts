@@ -1,3 +1,4 @@
+import { RouterLink } from '@angular/router';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -49,6 +50,7 @@ import type { VerdictLike } from './verdict-cells';
     Tex,
     NumericVerdicts,
     VerdictMatrix,
+    RouterLink,
   ],
   templateUrl: './run-checks.html',
   styleUrl: './run-checks.scss',

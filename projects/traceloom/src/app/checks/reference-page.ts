@@ -1,0 +1,234 @@
+import { ScrollingModule } from '@angular/cdk/scrolling';
+import { DatePipe } from '@angular/common';
+import { HttpClient } from '@angular/common/http';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import { forkJoin, map, of, switchMap, filter } from 'rxjs';
+import { messageOf } from '../core/api-error';
+import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
+import { showOnField } from '../core/form-errors';
+import { Session } from '../core/session';
+import { GasesApi } from '../gases/gases-api';
+import { canWriteGases } from '../gases/gas-roles';
+import { RunsApi } from '../runs/runs-api';
+import { ChecksApi, ReferenceComparison, ReferenceDto } from './checks-api';
+
+/** A finished run of the study that the table may be compared with. */
+interface RunChoice {
+  id: string;
+  label: string;
+}
+
+/** Rows shown as a plain table up to this many; longer tables scroll virtually. */
+const PLAIN_ROWS = 40;
+
+/**
+ * One reference table: its rows, every comparison with a run (linked), "compare with a run" over
+ * the study's finished runs, and edit / delete for the uploader or an editing role.
+ */
+@Component({
+  selector: 'tl-reference-page',
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    ReactiveFormsModule,
+    RouterLink,
+    ScrollingModule,
+  ],
+  templateUrl: './reference-page.html',
+  styleUrl: './reference-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ReferencePage {
+  private readonly api = inject(ChecksApi);
+  private readonly gases = inject(GasesApi);
+  private readonly runs = inject(RunsApi);
+  private readonly session = inject(Session);
+  private readonly dialog = inject(MatDialog);
+  private readonly snackBar = inject(MatSnackBar);
+  private readonly router = inject(Router);
+  private readonly http = inject(HttpClient);
+
+  readonly referenceId = input.required<string>();
+
+  protected readonly table = signal<ReferenceDto | null>(null);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly studyTitle = signal<string | null>(null);
+  protected readonly comparisons = signal<ReferenceComparison[] | null>(null);
+  protected readonly runChoices = signal<RunChoice[] | null>(null);
+  protected readonly chosenRun = signal<string | null>(null);
+  protected readonly comparing = signal(false);
+  protected readonly compareError = signal<string | null>(null);
+  protected readonly saving = signal(false);
+  protected readonly saveError = signal<string | null>(null);
+  protected readonly long = computed(() => (this.table()?.rows.length ?? 0) > PLAIN_ROWS);
+  protected readonly rowPx = 40;
+  protected readonly canChange = computed(() => {
+    const t = this.table();
+    const user = this.session.user();
+    return !!t && !!user && (canWriteGases(user.role) || t.createdBy.id === user.id);
+  });
+
+  protected readonly form = new FormGroup({
+    title: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
+    normalization: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
+    note: new FormControl('', { nonNullable: true }),
+  });
+
+  constructor() {
+    effect(() => this.load(this.referenceId()));
+  }
+
+  private load(id: string): void {
+    this.loadError.set(null);
+    this.api.reference(id).subscribe({
+      next: (table) => {
+        this.table.set(table);
+        this.form.reset({
+          title: table.title,
+          normalization: table.normalization,
+          note: table.note ?? '',
+        });
+        this.loadRuns(table.studyId);
+        this.http
+          .get<{ title: string }>(`/api/studies/${encodeURIComponent(table.studyId)}`)
+          .subscribe({ next: (s) => this.studyTitle.set(s.title), error: () => undefined });
+      },
+      error: (err: unknown) => this.loadError.set(messageOf(err)),
+    });
+    this.loadComparisons(id);
+  }
+
+  private loadComparisons(id: string): void {
+    this.api.referenceComparisons(id).subscribe({
+      next: (list) => this.comparisons.set(list),
+      error: (err: unknown) => this.compareError.set(messageOf(err)),
+    });
+  }
+
+  /** Every finished run of every gas of the study, newest first. */
+  private loadRuns(studyId: string): void {
+    this.gases
+      .list(studyId)
+      .pipe(
+        switchMap((gases) =>
+          gases.length === 0
+            ? of([])
+            : forkJoin(
+                gases.map((g) =>
+                  this.runs.list(g.id).pipe(
+                    map((runs) =>
+                      runs
+                        .filter((r) => r.status === 'done')
+                        .map((r) => ({
+                          id: r.id,
+                          at: r.finishedAt ?? r.createdAt,
+                          label: `${g.title}, version ${r.gasVersion}, finished ${new Date(
+                            r.finishedAt ?? r.createdAt,
+                          ).toLocaleString()}`,
+                        })),
+                    ),
+                  ),
+                ),
+              ),
+        ),
+        map((lists) => lists.flat().sort((a, b) => b.at.localeCompare(a.at))),
+      )
+      .subscribe({
+        next: (choices) => this.runChoices.set(choices.map(({ id, label }) => ({ id, label }))),
+        error: (err: unknown) => this.compareError.set(messageOf(err)),
+      });
+  }
+
+  protected compare(): void {
+    const runId = this.chosenRun();
+    const table = this.table();
+    if (!runId || !table) return;
+    this.comparing.set(true);
+    this.compareError.set(null);
+    this.api.compare(runId, { referenceId: table.id }).subscribe({
+      next: (c) => {
+        this.comparing.set(false);
+        this.snackBar.open(
+          `Compared: ${c.summary.agreeing} of ${c.summary.total} rows agree.`,
+          undefined,
+          { duration: 4000 },
+        );
+        this.loadComparisons(table.id);
+      },
+      error: (err: unknown) => {
+        this.comparing.set(false);
+        this.compareError.set(messageOf(err));
+      },
+    });
+  }
+
+  protected save(): void {
+    const table = this.table();
+    if (!table || this.form.invalid) return;
+    const v = this.form.getRawValue();
+    this.saving.set(true);
+    this.saveError.set(null);
+    this.api.update(table.id, v).subscribe({
+      next: (updated) => {
+        this.saving.set(false);
+        this.table.set(updated);
+        this.form.markAsPristine();
+        this.snackBar.open('Reference table saved.', undefined, { duration: 3000 });
+      },
+      error: (err: unknown) => {
+        this.saving.set(false);
+        if (!showOnField(this.form, err)) this.saveError.set(messageOf(err));
+      },
+    });
+  }
+
+  protected confirmDelete(): void {
+    const table = this.table();
+    if (!table) return;
+    const n = this.comparisons()?.length ?? 0;
+    const data: ConfirmData = {
+      title: 'Delete this reference table?',
+      message: `“${table.title}” and its ${n} comparison${n === 1 ? '' : 's'} will be removed. This cannot be undone.`,
+      confirmLabel: 'Delete table',
+    };
+    this.dialog
+      .open<ConfirmDialog, ConfirmData, boolean>(ConfirmDialog, { data })
+      .afterClosed()
+      .pipe(
+        filter((yes) => yes === true),
+        switchMap(() => this.api.remove(table.id)),
+      )
+      .subscribe({
+        next: () => {
+          this.snackBar.open(`Reference table “${table.title}” deleted.`, undefined, {
+            duration: 4000,
+          });
+          void this.router.navigate(['/studies', table.studyId]);
+        },
+        error: (err: unknown) => this.saveError.set(messageOf(err)),
+      });
+  }
+}
