@@ -15,6 +15,9 @@ const TIMING_SPECS = [
   'server/src/runs/run-streams.spec.ts',
 ];
 
+/** Specs that start redis-server and worker processes (queue mode). */
+const QUEUE_SPECS = 'server/src/queue/**/*.spec.ts';
+
 /**
  * Node-side test projects. The Angular client's unit tests run through `ng test`
  * (the @angular/build unit-test builder), not from here.
@@ -32,7 +35,7 @@ export default defineConfig({
           name: 'server',
           environment: 'node',
           include: ['server/src/**/*.spec.ts'],
-          exclude: TIMING_SPECS,
+          exclude: [...TIMING_SPECS, QUEUE_SPECS],
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },
@@ -47,6 +50,18 @@ export default defineConfig({
           include: TIMING_SPECS,
           testTimeout: 60_000,
           hookTimeout: 60_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        // Queue mode: a Redis server and worker processes of its own (skipped without redis-server).
+        resolve: { alias },
+        test: {
+          name: 'server-queue',
+          environment: 'node',
+          include: [QUEUE_SPECS],
+          testTimeout: 180_000,
+          hookTimeout: 120_000,
           fileParallelism: false,
         },
       },

@@ -39,15 +39,33 @@ function ensurePdflatex() {
   });
 }
 
+/** Debian's redis-server for the queue-mode suite (installed when root, else the suite skips). */
+function ensureRedis() {
+  if (spawnSync('sh', ['-c', 'command -v redis-server']).status === 0) return;
+  if (process.getuid?.() !== 0) {
+    console.log(
+      '› redis-server not found: the queue suite is skipped (apt-get install redis-server)',
+    );
+    return;
+  }
+  console.log('› installing Debian redis-server for the queue suite…');
+  run('apt-get', ['update', '-q']);
+  run('apt-get', ['install', '-y', '-q', 'redis-server'], {
+    env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+  });
+}
+
 const times = {};
 const started = Date.now();
 ensureInstalled();
 ensureChromium();
 ensurePdflatex();
+ensureRedis();
 times.build = timed(() => buildAll());
 times.engine = timed(() => run('npx', ['vitest', 'run', '--project', 'shared']));
 times.server = timed(() => run('npx', ['vitest', 'run', '--project', 'server']));
 times.timing = timed(() => run('npx', ['vitest', 'run', '--project', 'server-timing']));
+times.queue = timed(() => run('npx', ['vitest', 'run', '--project', 'server-queue']));
 times.client = timed(() =>
   run('npx', ['ng', 'test', 'traceloom', '--watch=false'], {
     env: { ...process.env, NG_CLI_ANALYTICS: 'false', CI: '1' },

@@ -60,6 +60,10 @@ export interface RunLimits {
   streamsPerUser?: number;
   /** Progress streams open at once on the whole server. */
   streamsTotal?: number;
+  /** Queue mode (`TRACELOOM_QUEUE_URL`): runs go to worker processes through Redis. */
+  queueUrl?: string;
+  /** Runs handed to the queue at once in queue mode (`TRACELOOM_QUEUE_SLOTS`, default 16). */
+  queueSlots?: number;
 }
 
 /** The password hashing cost used outside tests (OWASP Password Storage Cheat Sheet minimum). */
@@ -107,8 +111,18 @@ export function trustProxyOf(raw: string | undefined): boolean | number | string
   return raw;
 }
 
+/** `TRACELOOM_QUEUE_URL`: a redis:// (or rediss://) address, or undefined when unset. */
+export function queueUrlOf(env: NodeJS.ProcessEnv): string | undefined {
+  const raw = env.TRACELOOM_QUEUE_URL;
+  if (raw === undefined || raw === '') return undefined;
+  if (!/^rediss?:\/\/[^\s/]+/.test(raw)) {
+    throw new Error(`TRACELOOM_QUEUE_URL must look like redis://host:port, got "${raw}"`);
+  }
+  return raw;
+}
+
 /** A positive integer from the environment, or `fallback` when unset. */
-function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
+export function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
   const raw = env[name];
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
@@ -124,7 +138,8 @@ function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: number): nu
  * `TRACELOOM_UPLOAD_LIMIT`, and the signing keys `TRACELOOM_TOKEN_SECRET`,
  * `TRACELOOM_TOKEN_SECRETS_PREVIOUS`, `TRACELOOM_KEY_FILE` (default: `traceloom.key` beside the
  * database), scheduled backups `TRACELOOM_BACKUP_DIR`, `TRACELOOM_BACKUP_EVERY_HOURS` (24),
- * `TRACELOOM_BACKUP_KEEP` (7), `TRACELOOM_TRUST_PROXY`; throws a one-line message naming the variable when a value is
+ * `TRACELOOM_BACKUP_KEEP` (7), `TRACELOOM_TRUST_PROXY`, queue mode `TRACELOOM_QUEUE_URL` with
+ * `TRACELOOM_QUEUE_SLOTS` (16); throws a one-line message naming the variable when a value is
  * unusable.
  */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
@@ -151,6 +166,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
       wallClockMs: positiveInt(env, 'TRACELOOM_RUN_WALL_MS', DEFAULT_CONFIG.runs.wallClockMs),
       threads: positiveInt(env, 'TRACELOOM_RUN_THREADS', DEFAULT_CONFIG.runs.threads),
       perUserCap: positiveInt(env, 'TRACELOOM_RUNS_PER_USER', DEFAULT_CONFIG.runs.perUserCap),
+      ...(queueUrlOf(env) && {
+        queueUrl: queueUrlOf(env),
+        queueSlots: positiveInt(env, 'TRACELOOM_QUEUE_SLOTS', 16),
+      }),
     },
     uploadLimitBytes: positiveInt(env, 'TRACELOOM_UPLOAD_LIMIT', DEFAULT_CONFIG.uploadLimitBytes),
     ...(env.TRACELOOM_PREVIEWS_PER_10S

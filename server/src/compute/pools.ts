@@ -30,6 +30,17 @@ function workerOptions() {
   };
 }
 
+/** The pool runs compute on: `threads` warm workers, each with the run heap limit. */
+export function createRunPool(limits: Pick<RunLimits, 'threads' | 'maxOldGenerationSizeMb'>) {
+  return new Piscina({
+    ...workerOptions(),
+    minThreads: limits.threads,
+    maxThreads: limits.threads,
+    idleTimeout: 60_000,
+    resourceLimits: { maxOldGenerationSizeMb: limits.maxOldGenerationSizeMb },
+  });
+}
+
 /**
  * Builds the pools. Each run gets a worker with a heap limit (`resourceLimits`); aborting a
  * task's signal terminates its worker, which piscina replaces. Workers are kept warm so the
@@ -37,13 +48,7 @@ function workerOptions() {
  */
 export function createWorkerPools(limits: RunLimits): WorkerPools {
   const base = workerOptions();
-  const runs = new Piscina({
-    ...base,
-    minThreads: limits.threads,
-    maxThreads: limits.threads,
-    idleTimeout: 60_000,
-    resourceLimits: { maxOldGenerationSizeMb: limits.maxOldGenerationSizeMb },
-  });
+  const runs = createRunPool(limits);
   const quick = new Piscina({
     ...base,
     minThreads: 1,

@@ -1,6 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { RunEventHub } from '../runs/run-events.js';
+import { lazyRemoteRuns } from '../queue/lazy-remote.js';
 import { RunExecutor } from '../runs/run-executor.js';
 import { createWorkerPools, type WorkerPools } from './pools.js';
 
@@ -22,7 +23,9 @@ export function computeServices(ctx: AppContext): ComputeServices {
   const existing = byDataSource.get(ctx.dataSource);
   if (existing) return existing;
   const pools = createWorkerPools(ctx.config.runs);
-  const executor = new RunExecutor(ctx.dataSource, pools, ctx.config.runs);
+  const { queueUrl, queueSlots = 16 } = ctx.config.runs;
+  const remote = queueUrl ? lazyRemoteRuns(queueUrl, queueSlots) : null;
+  const executor = new RunExecutor(ctx.dataSource, pools, ctx.config.runs, console.error, remote);
   const events = new RunEventHub(ctx.dataSource, executor, {
     streamsPerUser: ctx.config.runs.streamsPerUser ?? 8,
     streamsTotal: ctx.config.runs.streamsTotal ?? 200,

@@ -1,4 +1,3 @@
-import { MessageChannel } from 'node:worker_threads';
 import { gunzipSync, gzipSync } from 'node:zlib';
 import type { ComputeResult, Progress } from '@traceloom/shared/engine';
 import type { DataSource } from 'typeorm';
@@ -6,10 +5,9 @@ import { recordAudit } from '../audit/record-audit.js';
 import type { WorkerPools } from '../compute/pools.js';
 import type { RunLimits } from '../config.js';
 import { Run, type RunStatus } from '../db/entities/index.js';
-import { isSectorSpec, runSectorsOnPool } from './sector-runs.js';
+import { runOnPool, type RunMessage } from './run-on-pool.js';
 import { dropClassPages, storeClassPage } from './class-pages.js';
-import type { ClassPageData } from './class-pager.js';
-import type { RunOutput, WorkerRefusal } from './worker.js';
+import type { RunQueue } from '../queue/lazy-remote.js';
 
 /** Stored progress is written at most this often (the live value is kept in memory). */
 const STORE_EVERY_MS = 250;
@@ -45,7 +43,8 @@ interface ActiveRun {
 }
 
 /**
- * Runs queued runs on the worker pool, at most `threads` at once, sharing the threads fairly:
+ * Runs queued runs on the worker pool (or hands them to the job queue in queue mode, see
+ * ../queue/README.md), at most `threads` (queue: `slots`) at once, sharing them fairly:
  * one person's runs never hold more than `threads - 1` of them (at least one), and a free thread
  * goes to the oldest run of whoever has the fewest running.
  * Enforces the wall-clock limit by aborting the task (piscina terminates the worker), keeps live
@@ -68,6 +67,8 @@ export class RunExecutor {
     private readonly pools: WorkerPools,
     private readonly limits: RunLimits,
     private readonly log: (err: unknown) => void = console.error,
+    /** The job queue runs go to instead of the pool (`TRACELOOM_QUEUE_URL`), or null. */
+    private readonly remote: RunQueue | null = null,
   ) {
     this.ready = this.recover().catch((err: unknown) => this.log(err));
   }
@@ -80,7 +81,12 @@ export class RunExecutor {
 
   /** Worker threads one person's runs may hold at once: always one fewer than there are. */
   get threadsPerUser(): number {
-    return Math.max(1, this.limits.threads - 1);
+    return Math.max(1, this.capacity - 1);
+  }
+
+  /** Runs held at once: the pool's threads, or the queue's slots in queue mode. */
+  private get capacity(): number {
+    return this.remote?.slots ?? this.limits.threads;
   }
 
   /** The live progress of a running run, or null when it is not running here. */
@@ -142,6 +148,7 @@ export class RunExecutor {
     this.stopped = true;
     this.queue.length = 0;
     await this.ready;
+    await this.remote?.close();
     await this.pools.destroy();
   }
 
@@ -202,7 +209,7 @@ export class RunExecutor {
   }
 
   private pump(): void {
-    while (!this.stopped && this.active.size < this.limits.threads) {
+    while (!this.stopped && this.active.size < this.capacity) {
       const picked = this.next();
       if (!picked) break;
       const { runId, userId } = picked;
@@ -239,10 +246,7 @@ export class RunExecutor {
     await this.dataSource.transaction((manager) => dropClassPages(manager, runId));
     // Class rows arrive page by page while the worker computes; each is stored as it comes.
     let pageWrites: Promise<unknown> = Promise.resolve();
-    let pagesReceived = 0;
-    let pageArrived = () => {};
     let startedAt = new Date();
-    const channel = new MessageChannel();
     const limit = () => {
       active.stop = 'timeout';
       active.controller.abort();
@@ -250,17 +254,13 @@ export class RunExecutor {
     // Until the worker says it has begun (a fresh worker first loads the engine), only a
     // generous start-up limit applies; the run's own wall-clock limit starts with the work.
     let timer = setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
-    const onMessage = (
-      p: Progress | { started: number } | { partial: Uint8Array } | { page: ClassPageData },
-    ): void => {
+    const onMessage = (p: RunMessage): void => {
       if ('partial' in p) {
         active.partial = p.partial;
         return;
       }
       if ('page' in p) {
         const page = p.page;
-        pagesReceived += 1;
-        pageArrived();
         pageWrites = pageWrites.then(() =>
           this.dataSource.transaction((manager) => storeClassPage(manager, runId, page)),
         );
@@ -284,39 +284,13 @@ export class RunExecutor {
         { progressDone: p.done, progressTotal: p.total, progressPhase: p.phase },
       ).catch((err: unknown) => this.log(err));
     };
-    channel.port1.on('message', onMessage);
     let outcome: Partial<Run> & { status: RunStatus };
     try {
       const spec: unknown = JSON.parse(run.gasVersion.spec);
       const signal = active.controller.signal;
-      const output = isSectorSpec(spec)
-        ? await runSectorsOnPool(this.pools.runs, this.limits.threads, spec, signal, onMessage)
-        : ((await this.pools.runs.run(
-            { kind: 'run', spec, port: channel.port2 },
-            { transferList: [channel.port2], signal },
-          )) as RunOutput | WorkerRefusal);
-      // The pages travel on their own port: wait for the last ones before closing it.
-      if (output.ok && output.pages !== undefined && pagesReceived < output.pages) {
-        const expected = output.pages;
-        await new Promise<void>((resolve) => {
-          pageArrived = () => {
-            if (pagesReceived >= expected) resolve();
-          };
-        });
-      }
-      // A result assembled elsewhere (sector runs) still holds its class rows: page it now.
-      if (output.ok && output.pages === undefined) {
-        const paged = (await this.pools.runs.run(
-          { kind: 'pageResult', gzip: output.gzip },
-          { signal },
-        )) as { gzip: Uint8Array; pages: ClassPageData[] };
-        output.gzip = paged.gzip;
-        for (const page of paged.pages) {
-          pageWrites = pageWrites.then(() =>
-            this.dataSource.transaction((manager) => storeClassPage(manager, runId, page)),
-          );
-        }
-      }
+      const output = this.remote
+        ? await this.remote.run(`${runId}-a${run.requeues}`, spec, signal, onMessage)
+        : await runOnPool(this.pools.runs, this.limits.threads, spec, signal, onMessage);
       outcome = output.ok
         ? {
             status: 'done',
@@ -334,7 +308,6 @@ export class RunExecutor {
       outcome = this.stoppedOutcome(active, err);
     } finally {
       clearTimeout(timer);
-      channel.port1.close();
     }
     try {
       await pageWrites;
