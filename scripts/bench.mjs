@@ -3,7 +3,8 @@
 // agree. Options: --quick (2 runs instead of 5), --runs N, --no-build, --direct (also time the
 // CLI without npm in front), and task names to filter. --scaling: trap and ring at three sizes
 // with fitted growth exponents (bench-scaling.mjs); --preview: the latency of POST /api/compute
-// (bench-preview.mjs), also measured at the end of a full run.
+// (bench-preview.mjs), also measured at the end of a full run; --queue: 8 runs on 1 and on 2
+// worker processes through the job queue (bench-queue.mjs).
 import { spawnSync } from 'node:child_process';
 import {
   existsSync,
@@ -20,6 +21,7 @@ import path from 'node:path';
 import { buildAll, root } from './lib.mjs';
 import { benchPreview, printPreview } from './bench-preview.mjs';
 import { runScaling } from './bench-scaling.mjs';
+import { benchQueue } from './bench-queue.mjs';
 
 const args = process.argv.slice(2);
 const flag = (name) => args.includes(name);
@@ -255,6 +257,11 @@ const previewRequests = flag('--quick') ? 20 : 40;
 if (flag('--preview')) {
   rmSync(work, { recursive: true, force: true });
   printPreview(await benchPreview({ requests: previewRequests }), previewRequests);
+  process.exit(0);
+}
+if (flag('--queue')) {
+  rmSync(work, { recursive: true, force: true });
+  await benchQueue();
   process.exit(0);
 }
 

@@ -22,6 +22,7 @@ export const HELP_PAGES: readonly HelpPage[] = [
   { slug: 'datasets', title: 'Datasets' },
   { slug: 'api', title: 'HTTP API' },
   { slug: 'operations', title: 'Operations and security' },
+  { slug: 'deployment', title: 'Server and workers' },
   { slug: 'cli', title: 'Command line' },
 ];
 
