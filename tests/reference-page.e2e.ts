@@ -98,3 +98,44 @@ describe('the reference table page', () => {
     await context.close();
   }, 180_000);
 });
+
+describe('implied cycle weights on the Checks tab', () => {
+  it('shows each implied Z_L beside the entered one, a differing one term by term', async () => {
+    const author = (await signInApi(server.baseUrl, 'author@demo.test', PASSWORD)).token;
+    const [study] = (await call(author, 'GET', '/studies')).json;
+    // The bosonic grand function supplied for fermions: Z_1 implied agrees, Z_2 does not.
+    const spec = {
+      ...TRAP,
+      title: 'Trap with the bosonic grand function',
+      grand: { kind: 'expression', expression: '1/qpoch(kappa*q^(1/2), q, inf)' },
+    };
+    const gas = await call(author, 'POST', `/studies/${study.id}/gases`, { spec });
+    expect(gas.status).toBe(201);
+    const run = await call(author, 'POST', `/gases/${gas.json.id}/runs`, {});
+    await expect
+      .poll(async () => (await call(author, 'GET', `/runs/${run.json.id}`)).json.status, {
+        timeout: 60_000,
+      })
+      .toBe('done');
+    const { page, context } = await browser.newPage();
+    await signInPage(page, 'author@demo.test', PASSWORD);
+    await page.goto(`/runs/${run.json.id}`);
+    await page.getByRole('tab', { name: 'Checks' }).click();
+    const table = page.getByRole('table', { name: 'Implied weights' });
+    await table.waitFor();
+    const rows = table.locator('tbody tr');
+    expect(await rows.count()).toBe(4);
+    expect(await rows.nth(0).innerText()).toContain('the same');
+    expect(await rows.nth(1).innerText()).toContain('differs');
+    // every row shows the implied series itself, not only the verdict
+    expect(await table.getByTestId('implied-value').count()).toBe(4);
+    const sides = page.getByRole('table', {
+      name: 'Z_2: the entered weight (computed) beside the one implied by the supplied Ξ',
+    });
+    await sides.waitFor();
+    expect(await sides.innerText()).toContain('✗ differs');
+    await sides.scrollIntoViewIfNeeded();
+    await browser.screenshot(page, 'implied-weights');
+    await context.close();
+  }, 180_000);
+});

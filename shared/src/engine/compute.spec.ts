@@ -50,6 +50,17 @@ describe('grand check', () => {
     // the implied weights show which Z_L is wrong: Z_1 agrees, Z_2 does not
     expect(r.impliedWeights![0]!.agrees).toBe(true);
     expect(r.impliedWeights![1]!.agrees).toBe(false);
+    // the implied Z_L themselves: log 1/(kappa q^(1/2); q)_inf = sum_L kappa^L q^(L/2)/(L(1-q^L))
+    // (log(1-x) = -sum x^L/L, common practice), so the fermionic reading of L = 2,
+    // -2 [kappa^2], is -q/(1-q^2) = -(q + q^3 + q^5 + ...)
+    const z2 = r.impliedWeights![1]!.implied!;
+    expect(z2.order).toBe('16');
+    expect(z2.terms.slice(0, 3)).toEqual([
+      ['1', '-1'],
+      ['3', '-1'],
+      ['5', '-1'],
+    ]);
+    expect(r.impliedWeights![0]!.implied!.terms[0]).toEqual(['1/2', '1']);
   });
 
   it('coefficients: a table with one wrong coefficient is reported at that coefficient', () => {

@@ -6,6 +6,7 @@ import { KSeries, kLog } from '../grand/kseries.js';
 import { frac } from '../rational.js';
 import { compareSeries, Verdict } from '../series/compare.js';
 import { scale } from '../series/arith.js';
+import { toValueJson, type ValueJson } from '../series/format.js';
 import { Series } from '../series/series.js';
 import type { GasSpec } from '../spec/schema.js';
 
@@ -19,8 +20,11 @@ export type CheckedVerdict =
 /** Verdict for one N (grand and reference checks). */
 export type RowVerdict = CheckedVerdict & { N: number };
 
-/** Verdict for one cycle weight implied by a supplied grand function. */
-export type WeightVerdict = CheckedVerdict & { L: number };
+/**
+ * Verdict for one cycle weight implied by a supplied grand function, with the implied Z_L itself
+ * (`implied`, shown beside the entered one; absent in results stored before it was added).
+ */
+export type WeightVerdict = CheckedVerdict & { L: number; implied?: ValueJson };
 
 /** Outcome of the grand check. */
 export interface GrandOutcome {
@@ -84,7 +88,11 @@ export function grandCheck(
   for (let L = 1; L < count && L <= spec.nMax; L++) {
     const sign = fermion && L % 2 === 0 ? -1 : 1;
     const implied = scale(logXi.at(L), frac(sign * L));
-    impliedWeights.push({ L, ...compareSeries(weights[L - 1]!, implied) });
+    impliedWeights.push({
+      L,
+      ...compareSeries(weights[L - 1]!, implied),
+      implied: toValueJson(implied),
+    });
   }
   return { rows, impliedWeights };
 }

@@ -1,4 +1,5 @@
 import { RouterLink } from '@angular/router';
+import type { SeriesJson } from './series-diff';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -91,6 +92,12 @@ export class RunChecks {
 
   constructor() {
     effect(() => this.load(this.run()));
+  }
+
+  /** The implied Z_L itself of a series verdict (results stored before it was kept have none). */
+  protected impliedOf(w: unknown): SeriesJson | null {
+    const implied = (w as { implied?: SeriesJson }).implied;
+    return implied && Array.isArray(implied.terms) ? implied : null;
   }
 
   /** An implied-weight verdict in words (numeric ones state their tolerance). */
