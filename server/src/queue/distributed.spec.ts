@@ -163,9 +163,8 @@ describe.skipIf(!available)('runs on the job queue with two worker processes', (
     let reason: string | undefined;
     const by = Date.now() + 20_000;
     while (Date.now() < by) {
-      const job = await queue.getJob(jobId);
-      state = (await job?.getState()) ?? 'gone';
-      reason = job?.failedReason;
+      state = await queue.getJobState(jobId);
+      reason = (await queue.getJob(jobId))?.failedReason;
       if (state !== 'active') break;
       await new Promise((r) => setTimeout(r, 50));
     }
@@ -192,4 +191,49 @@ describe.skipIf(!available)('runs on the job queue with two worker processes', (
       expect(await finishes(id)).toBe(1);
     }
   }, 180_000);
+
+  it('keeps the per-person cap and the wall-clock limit on the server, whatever worker computes', async () => {
+    const strict = await createTestApp({
+      runs: {
+        threads: 1,
+        wallClockMs: 1500,
+        perUserCap: 1,
+        maxOldGenerationSizeMb: 512,
+        previewMs: 1500,
+        queueUrl: redis.url,
+        queueSlots: 4,
+      },
+    });
+    try {
+      const person = await insertUser(strict, 'author');
+      const key = await tokenFor(strict, person);
+      const gasId = await createGas(strict, key, await insertStudy(strict, person), RUNAWAY_SPEC);
+      const runId = await startRun(strict, key, gasId);
+      const second = await request(strict.app)
+        .post(`/api/gases/${gasId}/runs`)
+        .set('Authorization', bearer(key))
+        .send({});
+      expect(second.status).toBe(429);
+      expect(second.body.error.code).toBe('too_many_runs');
+      const until = Date.now() + 60_000;
+      let run = await strict.dataSource.getRepository(Run).findOneByOrFail({ id: runId });
+      while (['queued', 'running'].includes(run.status) && Date.now() < until) {
+        await new Promise((r) => setTimeout(r, 50));
+        run = await strict.dataSource.getRepository(Run).findOneByOrFail({ id: runId });
+      }
+      expect(run.status).toBe('failed');
+      expect(run.error).toBe('stopped after the wall-clock limit of 1.5 s for one run');
+      // and the worker let go of it
+      let state = '';
+      const by = Date.now() + 20_000;
+      while (Date.now() < by) {
+        state = await queue.getJobState(`${runId}-a0`);
+        if (state !== 'active') break;
+        await new Promise((r) => setTimeout(r, 50));
+      }
+      expect(state).toBe('failed');
+    } finally {
+      await strict.close();
+    }
+  }, 90_000);
 });

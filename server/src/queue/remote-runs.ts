@@ -109,17 +109,18 @@ export class RemoteRuns {
         this.cancel(jobId).catch((err: unknown) => this.log(err));
         throw signal.reason;
       }
-      const job = await this.queue.getJob(jobId);
-      if (!job) {
+      // the state first, then the job: a job read before it finished has no result yet
+      const state = await this.queue.getJobState(jobId);
+      if (state === 'unknown') {
         await this.add(jobId, data); // lost with Redis's data: queue it again
-      } else {
-        const state = await job.getState();
-        if (state === 'completed') {
-          const result = decodeResult(job.returnvalue as WireResult);
-          await job.remove().catch((err: unknown) => this.log(err));
-          return result;
+      } else if (state === 'completed' || state === 'failed') {
+        const job = await this.queue.getJob(jobId);
+        if (state === 'failed' || !job?.returnvalue) {
+          throw new Error(`the worker failed: ${job?.failedReason ?? 'the job left no result'}`);
         }
-        if (state === 'failed') throw new Error(`the worker failed: ${job.failedReason}`);
+        const result = decodeResult(job.returnvalue as WireResult);
+        await job.remove().catch((err: unknown) => this.log(err));
+        return result;
       }
       await sleep(POLL_MS, undefined, { signal }).catch(() => {});
     }
