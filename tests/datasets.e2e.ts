@@ -151,6 +151,13 @@ describe('datasets in the browser', () => {
     const hash = /SHA-256 ([0-9a-f]{64})/.exec(citation)?.[1];
     expect(hash).toBe(promised);
     expect(citation).toContain('Trap table for the group, version 1');
+    // The citation files on the dataset page as well.
+    expect(await s.page.getByRole('link', { name: 'BibTeX' }).getAttribute('href')).toBe(
+      `/api/public/datasets/${hash}/citation?format=bibtex`,
+    );
+    expect(await s.page.getByRole('link', { name: 'CSL-JSON' }).getAttribute('href')).toBe(
+      `/api/public/datasets/${hash}/citation?format=csl`,
+    );
     await s.page.getByTestId('dataset-verify').click();
     await expect(s.page.getByTestId('dataset-verify-result').innerText()).resolves.toContain(
       'every value matches',
@@ -173,6 +180,13 @@ describe('datasets in the browser', () => {
       expect(href).toBe(`/api/public/datasets/${hash}/${format}`);
       expect((await fetch(`${server.baseUrl}${href}`)).status).toBe(200);
     }
+    // The gas as defined, and one sentence of what is known (orders, rows, checks).
+    const definition = await p.page.getByTestId('public-definition').innerText();
+    expect(definition).toContain('Z_L = q^(L/2)/(1-q^L)');
+    expect(definition).toContain('qpoch(-kappa*q^(1/2), q, inf)');
+    const known = await p.page.getByTestId('public-known').innerText();
+    expect(known).toContain('Z(N) for N = 0 to 4 (5 of 5 rows determined)');
+    expect(known).toMatch(/checks: \d+ passes, 0 fails, 0 waived of \d+/);
     await browser.screenshot(p.page, 'datasets-public');
     await p.context.close();
     const exported = await fetch(

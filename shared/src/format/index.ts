@@ -3,6 +3,7 @@
  * coefficient matrix, and reads stored verdicts; used by the CLI, the server and the client.
  * It imports no engine code (types only), so the client can load it without the engine.
  */
+export * from './gas-definition.js';
 export * from './known.js';
 export * from './largen-text.js';
 export * from './latex-layout.js';

@@ -130,6 +130,11 @@ export class DatasetPage {
     this.dataset.set(d);
   }
 
+  /** The citation file of a locked dataset (the public route; a locked dataset is public). */
+  protected citationPath(hash: string, format: 'bibtex' | 'csl'): string {
+    return `/api/public/datasets/${encodeURIComponent(hash)}/citation?format=${format}`;
+  }
+
   /** Locking cannot be undone: first names the hash-to-be and what it freezes, then locks. */
   protected lock(d: DatasetDto): void {
     this.busy.set(true);

@@ -5,7 +5,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
 import { DatasetsApi, PublicDataset } from '../datasets/datasets-api';
-import { rowValueText } from '@traceloom/shared/format';
+import { gasDefinition, knownSentence, rowValueText } from '@traceloom/shared/format';
 import { LogoMark } from '../shell/logo-mark';
 
 /**
@@ -46,6 +46,29 @@ export class PublicDatasetPage {
           ),
       });
     });
+  }
+
+  /** The stored spec as labelled lines. */
+  protected definition(doc: PublicDataset['document']) {
+    return gasDefinition(doc.snapshot.spec as unknown as Parameters<typeof gasDefinition>[0]);
+  }
+
+  /** One sentence of what is known: orders, determined rows, checks passed. */
+  protected knownText(doc: PublicDataset['document']): string {
+    const r = { ...doc.snapshot.result, spec: doc.snapshot.spec } as unknown as Parameters<
+      typeof knownSentence
+    >[0];
+    const rows = doc.snapshot.result.canonical;
+    const determined = rows.filter(
+      (c) => (c as { determined?: boolean }).determined !== false,
+    ).length;
+    const checks = doc.checks ?? [];
+    const count = (status: string) => checks.filter((c) => c.status === status).length;
+    const verdicts = checks.length
+      ? `; checks: ${count('passes')} passes, ${count('fails')} fails, ${count('waived')} waived of ${checks.length}`
+      : '; no checks were stated';
+    const known = knownSentence(r);
+    return `Z(N) for N = 0 to ${rows.length - 1} (${determined} of ${rows.length} rows determined): ${known}${verdicts}.`;
   }
 
   protected jsonPath(hash: string): string {
