@@ -253,7 +253,10 @@ export class RunExecutor {
     };
     // Until the worker says it has begun (a fresh worker first loads the engine), only a
     // generous start-up limit applies; the run's own wall-clock limit starts with the work.
-    let timer = setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
+    // In queue mode a run may wait in Redis for a free worker: its clock starts with the work.
+    let timer = this.remote
+      ? undefined
+      : setTimeout(limit, this.limits.wallClockMs + START_GRACE_MS);
     const onMessage = (p: RunMessage): void => {
       if ('partial' in p) {
         active.partial = p.partial;
