@@ -1,6 +1,5 @@
 import { ScrollingModule } from '@angular/cdk/scrolling';
 import { DatePipe } from '@angular/common';
-import { HttpClient } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
   Component,
@@ -28,6 +27,7 @@ import { Session } from '../core/session';
 import { GasesApi } from '../gases/gases-api';
 import { canWriteGases } from '../gases/gas-roles';
 import { RunsApi } from '../runs/runs-api';
+import { StudyCrumb } from '../studies/study-crumb';
 import { ChecksApi, ReferenceComparison, ReferenceDto } from './checks-api';
 
 /** A finished run of the study that the table may be compared with. */
@@ -56,6 +56,7 @@ const PLAIN_ROWS = 40;
     ReactiveFormsModule,
     RouterLink,
     ScrollingModule,
+    StudyCrumb,
   ],
   templateUrl: './reference-page.html',
   styleUrl: './reference-page.scss',
@@ -69,13 +70,11 @@ export class ReferencePage {
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly http = inject(HttpClient);
 
   readonly referenceId = input.required<string>();
 
   protected readonly table = signal<ReferenceDto | null>(null);
   protected readonly loadError = signal<string | null>(null);
-  protected readonly studyTitle = signal<string | null>(null);
   protected readonly comparisons = signal<ReferenceComparison[] | null>(null);
   protected readonly runChoices = signal<RunChoice[] | null>(null);
   protected readonly chosenRun = signal<string | null>(null);
@@ -112,9 +111,6 @@ export class ReferencePage {
           note: table.note ?? '',
         });
         this.loadRuns(table.studyId);
-        this.http
-          .get<{ title: string }>(`/api/studies/${encodeURIComponent(table.studyId)}`)
-          .subscribe({ next: (s) => this.studyTitle.set(s.title), error: () => undefined });
       },
       error: (err: unknown) => this.loadError.set(messageOf(err)),
     });

@@ -59,7 +59,19 @@ describe('GasEditor', () => {
 
   afterEach(() => {
     vi.useRealTimers();
+    // the breadcrumb names the study: answer its request wherever a test did not
+    for (const req of http.match((r) => /^\/api\/studies\/[^/]+$/.test(r.url)))
+      req.flush({ title: 'Trap study' });
     http.verify();
+  });
+
+  it('names the study in the breadcrumb', async () => {
+    await render();
+    http.expectOne(`/api/studies/${STUDY}`).flush({ title: 'Trap study' });
+    await settle();
+    const crumbs = el.querySelector('nav.crumbs')?.textContent ?? '';
+    expect(crumbs).toContain('Trap study');
+    expect(crumbs).not.toMatch(/\bStudy\b/);
   });
 
   it('names the field when a required value is missing', async () => {

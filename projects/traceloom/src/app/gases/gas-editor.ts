@@ -1,3 +1,4 @@
+import { StudyCrumb } from '../studies/study-crumb';
 import { RunEstimate } from '../runs/run-estimate';
 import {
   afterNextRender,
@@ -45,6 +46,7 @@ import { GasWeights } from './gas-weights';
 @Component({
   selector: 'tl-gas-editor',
   imports: [
+    StudyCrumb,
     RunEstimate,
     ReactiveFormsModule,
     MatButtonModule,

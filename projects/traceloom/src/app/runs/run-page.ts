@@ -1,3 +1,4 @@
+import { StudyCrumb } from '../studies/study-crumb';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -35,6 +36,7 @@ import { groupTruncations, truncationText } from './truncations';
 @Component({
   selector: 'tl-run-page',
   imports: [
+    StudyCrumb,
     DatePipe,
     MatButtonModule,
     MatIconModule,
