@@ -55,12 +55,21 @@ describe('StudyMembers', () => {
 
   afterEach(() => httpTesting.verify());
 
+  /** Opens the Material member picker; its options (rendered in the overlay). */
+  async function openPicker(): Promise<HTMLElement[]> {
+    one<HTMLElement>('member-select')
+      .querySelector<HTMLElement>('.mat-mdc-select-trigger')!
+      .click();
+    await fixture.whenStable();
+    return [...document.querySelectorAll<HTMLElement>('[data-testid="member-option"]')];
+  }
+
   it('offers only people who are neither owner nor member', async () => {
     render(true);
     httpTesting.expectOne('/api/users/directory').flush([{ ...OWNER, role: 'author' }, ILSE, KAI]);
     await fixture.whenStable();
-    const options = [...one<HTMLSelectElement>('member-select').options].map((o) => o.value);
-    expect(options).toEqual(['', KAI.id]);
+    const options = await openPicker();
+    expect(options.map((o) => o.textContent)).toEqual([expect.stringContaining('Kai')]);
     expect(all('member-row').map((r) => r.textContent)).toEqual([
       expect.stringContaining('Ilse Varga'),
     ]);
@@ -70,9 +79,8 @@ describe('StudyMembers', () => {
     render(true);
     httpTesting.expectOne('/api/users/directory').flush([ILSE, KAI]);
     await fixture.whenStable();
-    const select = one<HTMLSelectElement>('member-select');
-    select.value = KAI.id;
-    select.dispatchEvent(new Event('change'));
+    (await openPicker())[0]!.click();
+    await fixture.whenStable();
     one<HTMLButtonElement>('member-add').click();
     const req = httpTesting.expectOne('/api/studies/study-1/members');
     expect(req.request.method).toBe('POST');

@@ -13,6 +13,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
 import { messageOf } from '../core/api-error';
 import { DirectoryEntryDto, StudyDto } from '@traceloom/shared/api';
 import { ROLE_LABELS } from '../core/roles';
@@ -21,7 +22,14 @@ import { StudiesApi } from './studies-api';
 /** The owner and members of a study; the owner and admins add and remove members here. */
 @Component({
   selector: 'tl-study-members',
-  imports: [FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  imports: [
+    FormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatSelectModule,
+  ],
   templateUrl: './study-members.html',
   styleUrl: './study-members.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
