@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { readResultVerdicts, readVerdict, verdictText } from './verdicts.js';
+import { checkStatusText, readResultVerdicts, readVerdict, verdictText } from './verdicts.js';
 
 describe('verdicts in words and stored verdicts (worked by hand)', () => {
   it('reads the older side names expected/found as computed/supplied', () => {
@@ -41,4 +41,17 @@ describe('verdicts in words and stored verdicts (worked by hand)', () => {
     ],
     [{ agrees: true, tolerance: '3e-20', difference: '0' }, 'agrees within 3e-20 (difference 0)'],
   ])('%j -> %s', (v, text) => expect(verdictText(v as never)).toBe(text));
+});
+
+describe('checkStatusText', () => {
+  it.each([
+    ['green', 'passes'],
+    ['red', 'fails'],
+    ['passes', 'passes'],
+    ['fails', 'fails'],
+    ['waived', 'waived'],
+    ['not compared', 'not compared'],
+  ])('%s reads as %s', (stored, shown) => {
+    expect(checkStatusText(stored)).toBe(shown);
+  });
 });

@@ -75,6 +75,17 @@ export function readResultVerdicts<T extends object>(r: T): T {
   return out as T;
 }
 
+/** Check status words of datasets locked before the statuses were named passes / fails. */
+const OLD_CHECK_STATUS: Record<string, string> = { green: 'passes', red: 'fails' };
+
+/**
+ * A dataset check's status as people read it: passes, fails, waived or not compared; documents
+ * locked earlier say green / red, which read as passes / fails (the locked bytes stay as they are).
+ */
+export function checkStatusText(status: string): string {
+  return OLD_CHECK_STATUS[status] ?? status;
+}
+
 /** `q^40` for the phrase "agrees below q^40" (exponent 0 written as `q^0`). */
 function powerOf(variable: string, exponent: string): string {
   return plainPower(variable, exponent) || `${variable}^0`;

@@ -5,7 +5,12 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
 import { DatasetsApi, PublicDataset } from '../datasets/datasets-api';
-import { gasDefinition, knownSentence, rowValueText } from '@traceloom/shared/format';
+import {
+  checkStatusText,
+  gasDefinition,
+  knownSentence,
+  rowValueText,
+} from '@traceloom/shared/format';
 import { LogoMark } from '../shell/logo-mark';
 
 /**
@@ -30,6 +35,8 @@ export class PublicDatasetPage {
   protected readonly copied = signal(false);
   /** A row's value, or "not determined (O(q^k))" (honest rows). */
   protected readonly valueText = rowValueText;
+  /** passes / fails / waived / not compared (older documents' green / red read as such). */
+  protected readonly statusText = checkStatusText;
 
   constructor() {
     effect(() => {
@@ -63,7 +70,8 @@ export class PublicDatasetPage {
       (c) => (c as { determined?: boolean }).determined !== false,
     ).length;
     const checks = doc.checks ?? [];
-    const count = (status: string) => checks.filter((c) => c.status === status).length;
+    const count = (status: string) =>
+      checks.filter((c) => checkStatusText(c.status) === status).length;
     const verdicts = checks.length
       ? `; checks: ${count('passes')} passes, ${count('fails')} fails, ${count('waived')} waived of ${checks.length}`
       : '; no checks were stated';
