@@ -62,6 +62,8 @@ ensureChromium();
 ensurePdflatex();
 ensureRedis();
 times.build = timed(() => buildAll());
+// formatting and a type check of every spec and e2e file (after the build: specs import shared/dist)
+times.lint = timed(() => run('npm', ['run', '-s', 'lint']));
 times.engine = timed(() => run('npx', ['vitest', 'run', '--project', 'shared']));
 times.server = timed(() => run('npx', ['vitest', 'run', '--project', 'server']));
 times.timing = timed(() => run('npx', ['vitest', 'run', '--project', 'server-timing']));

@@ -52,7 +52,7 @@ describe('faults a client can cause answer 4xx, never 500', () => {
       .set('Authorization', bearer(token))
       .set('Content-Type', 'application/json')
       .set('Content-Encoding', 'gzip')
-      .serialize((body: Buffer) => body)
+      .serialize(((body: Buffer) => body) as unknown as (obj: unknown) => string)
       .send(Buffer.from('this is not gzip at all'));
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_body');
@@ -61,7 +61,7 @@ describe('faults a client can cause answer 4xx, never 500', () => {
       .post('/api/auth/login')
       .set('Content-Type', 'application/json')
       .set('Content-Encoding', 'gzip')
-      .serialize((body: Buffer) => body)
+      .serialize(((body: Buffer) => body) as unknown as (obj: unknown) => string)
       .send(gzipSync(JSON.stringify({ email: 'x@example.test', password: 'not the password' })));
     expect(ok.body.error).toMatchObject({ code: 'invalid_credentials' });
   });

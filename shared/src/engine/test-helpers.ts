@@ -1,7 +1,15 @@
 // Helpers shared by the engine's spec files (not exported from the package).
 import Fraction from 'fraction.js';
 import { evaluateSeries } from './expr/evaluate.js';
+import type { AnyValueJson } from './result.js';
+import type { ValueJson } from './series/format.js';
 import { Series } from './series/series.js';
+
+/** A value of a series-mode result as a series value (fails the test on a numeric value). */
+export function seriesOf(v: AnyValueJson): ValueJson {
+  if (!('terms' in v)) throw new Error(`expected a series value, got ${JSON.stringify(v)}`);
+  return v;
+}
 
 /** Evaluate an expression in q at order `order` (null = exact). */
 export function ser(text: string, order: string | number | null = null, bindings = {}): Series {

@@ -117,7 +117,7 @@ describe('lowestExponentBound is never above a computed lowest exponent', () => 
     ],
   ] as const;
   it.each(gases)('%s', (_, spec) => {
-    for (let n = 2; n <= spec.nMax; n++) {
+    for (let n = 2; n <= (spec.nMax as number); n++) {
       const r = compute({ ...spec, nMax: n });
       const a = r.orderAdvice;
       const v = lowest(r.canonical[n]!.value);

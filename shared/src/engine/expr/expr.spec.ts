@@ -130,7 +130,7 @@ describe('expression language', () => {
       nMax: 3,
       allowKappa: true,
     });
-    const c2 = (v as { at(j: number): never }).at(2);
+    const c2 = (v as unknown as { at(j: number): never }).at(2);
     expect(compareSeries(ser('q^2/((1-q)*(1-q^2))', 12), c2).agrees).toBe(true);
   });
 });
