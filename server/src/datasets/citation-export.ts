@@ -2,19 +2,9 @@ import type { Response } from 'express';
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
 import { mailServices } from '../mail/mailer.js';
+import { citationAuthors } from './dataset-authors.js';
 import type { DatasetDocument } from './dataset-document.js';
 import { lockedByHash } from './export-service.js';
-
-/** The people a citation names: who made the dataset, then each reviewer who approved it. */
-export function citationAuthors(doc: DatasetDocument): string[] {
-  const names = [doc.createdBy.displayName];
-  for (const r of doc.reviews) {
-    if (r.verdict === 'approve' && !names.includes(r.reviewer.displayName)) {
-      names.push(r.reviewer.displayName);
-    }
-  }
-  return names;
-}
 
 /** BibTeX's special characters escaped (common practice: braces around a backslash command). */
 function bibText(text: string): string {

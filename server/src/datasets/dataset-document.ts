@@ -5,6 +5,7 @@ import type { Dataset } from '../db/entities/index.js';
 import { datasetChecks } from './dataset-checks.js';
 import { person, type DatasetChildren } from './dataset-dto.js';
 import { canonicalText } from './canonical-json.js';
+import { datasetAuthors } from './dataset-authors.js';
 import { readSnapshot, type DatasetSnapshot } from './snapshot.js';
 
 /** Format name of a dataset document. */
@@ -21,6 +22,8 @@ export interface DatasetDocument {
   study: { id: string; title: string };
   createdBy: DatasetPersonDto;
   createdAt: string;
+  /** The citation's authors, in order (documents locked before authors were chosen lack it). */
+  authors?: DatasetPersonDto[];
   lockedBy: DatasetPersonDto;
   lockedAt: string;
   snapshot: DatasetSnapshot;
@@ -47,6 +50,7 @@ export function buildDocument(
     study: { id: d.study.id, title: d.study.title },
     createdBy: person(d.createdBy),
     createdAt: d.createdAt,
+    authors: datasetAuthors(d, children).authors,
     lockedBy,
     lockedAt,
     snapshot,

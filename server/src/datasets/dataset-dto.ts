@@ -12,6 +12,12 @@ import type { Actor } from '../http/route-table.js';
 import { datasetChecks } from './dataset-checks.js';
 import { knownSentence } from '@traceloom/shared/format';
 import { canonicalRows, readSnapshot, snapshotOrder } from './snapshot.js';
+import { canEditAuthors, datasetAuthors } from './dataset-authors.js';
+
+function authorsOf(d: Dataset, children: DatasetChildren) {
+  const { authors, edited } = datasetAuthors(d, children);
+  return { authors, authorsEdited: edited };
+}
 
 /** A person as datasets name them (no e-mail: exports and the public page carry these). */
 export function person(user: Pick<User, 'id' | 'displayName'>): DatasetPersonDto {
@@ -174,8 +180,10 @@ export async function toDatasetDto(
       at: c.createdAt,
     })),
     citation: citationOf(d),
+    ...authorsOf(d, children),
     can: {
       edit: d.state === 'draft' && (isCreator || steward || actor.role === 'admin'),
+      editAuthors: canEditAuthors(actor, d),
       requestReview: open && (isCreator || steward),
       review: d.state === 'in_review' && requested,
       waive: open && steward,

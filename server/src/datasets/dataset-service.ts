@@ -23,6 +23,7 @@ import {
 } from './dataset-access.js';
 import { latestVerdicts, person, toDatasetDto, toSummary } from './dataset-dto.js';
 import type { DatasetSnapshot } from './snapshot.js';
+import { canEditAuthors, writeAuthors } from './dataset-authors.js';
 
 /**
  * `POST /runs/:id/datasets`: a draft snapshot of a finished run (spec version, full result,
@@ -170,7 +171,10 @@ function assertCanEditDraft(actor: Actor, d: Dataset): void {
   }
 }
 
-/** `PATCH /datasets/:id`: title and description of a draft. */
+/**
+ * `PATCH /datasets/:id`: title and description of a draft; the citation's authors until the
+ * lock (`writeAuthors`). A body with authors only may reach a dataset in review.
+ */
 export async function patchDataset(
   ctx: AppContext,
   actor: Actor,
@@ -179,8 +183,12 @@ export async function patchDataset(
 ): Promise<DatasetDto> {
   await ctx.dataSource.transaction(async (manager) => {
     const d = await loadWritableDataset(manager, actor, datasetId);
+    // The caller's part before the body is read: someone who may change neither is refused.
+    if (!canEditAuthors(actor, d)) assertCanEditDraft(actor, d);
+    const { authors, ...input } = patch();
+    if (authors !== undefined) await writeAuthors(manager, actor, d, authors);
+    if (input.title === undefined && input.description === undefined) return;
     assertCanEditDraft(actor, d);
-    const input = patch();
     const before = { title: d.title, description: d.description };
     await manager
       .getRepository(Dataset)

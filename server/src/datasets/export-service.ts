@@ -7,7 +7,14 @@ import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { DATASET_RELATIONS, loadVisibleDataset } from './dataset-access.js';
-import { canonicalHash, DATASET_FORMAT, datasetCsv, datasetLatex } from './dataset-document.js';
+import { citationAuthors } from './dataset-authors.js';
+import {
+  canonicalHash,
+  DATASET_FORMAT,
+  datasetCsv,
+  datasetLatex,
+  type DatasetDocument,
+} from './dataset-document.js';
 import { citationOf, supersededBy, toSummary } from './dataset-dto.js';
 import { readSnapshot } from './snapshot.js';
 
@@ -112,11 +119,13 @@ export async function lockedByHash(ctx: AppContext, hash: string | undefined): P
 /** `GET /public/datasets/:hash` (no sign-in): a locked dataset's document and citation. */
 export async function publicDataset(ctx: AppContext, hash: string | undefined) {
   const d = await lockedByHash(ctx, hash);
+  const document = JSON.parse(d.canonical!) as DatasetDocument;
   return {
     hash: d.hash,
     citation: citationOf(d),
+    authors: citationAuthors(document),
     supersededBy: await supersededBy(ctx.dataSource.manager, d.id, true),
-    document: JSON.parse(d.canonical!) as unknown,
+    document: document as unknown,
   };
 }
 

@@ -6,6 +6,7 @@ export const DATASET_LIMITS = {
   commentMax: 5000,
   reasonMax: 2000,
   reviewersMax: 20,
+  authorsMax: 50,
   checkKeyMax: 64,
 } as const;
 
@@ -41,12 +42,28 @@ export const datasetCreateSchema = z.strictObject({
 /** Parsed dataset creation body. */
 export type DatasetCreateRequest = z.infer<typeof datasetCreateSchema>;
 
-/** Body of `PATCH /api/datasets/:id`; at least one field. */
+/** The citation's authors: study members' ids in citation order, each once. */
+const authorsSchema = z
+  .array(idSchema, { error: 'must be a list of user ids' })
+  .min(1, 'must name at least one author')
+  .max(DATASET_LIMITS.authorsMax, `must name at most ${DATASET_LIMITS.authorsMax} authors`)
+  .refine((ids) => new Set(ids).size === ids.length, { message: 'must name each author once' });
+
+/**
+ * Body of `PATCH /api/datasets/:id`; at least one field. Title and description change on a
+ * draft only; `authors` (the citation's authors) until the dataset is locked.
+ */
 export const datasetPatchSchema = z
-  .strictObject({ title: titleSchema.optional(), description: descriptionSchema.optional() })
-  .refine((patch) => patch.title !== undefined || patch.description !== undefined, {
-    message: 'give at least one of title, description',
-  });
+  .strictObject({
+    title: titleSchema.optional(),
+    description: descriptionSchema.optional(),
+    authors: authorsSchema.optional(),
+  })
+  .refine(
+    (patch) =>
+      patch.title !== undefined || patch.description !== undefined || patch.authors !== undefined,
+    { message: 'give at least one of title, description, authors' },
+  );
 
 /** Parsed dataset patch. */
 export type DatasetPatchRequest = z.infer<typeof datasetPatchSchema>;
@@ -192,9 +209,18 @@ export interface DatasetDto extends DatasetSummaryDto {
   }>;
   /** Ready to paste: title, version, date, hash (locked datasets only). */
   citation: string | null;
+  /**
+   * The citation's authors in order: as edited before the lock, else the dataset's maker and
+   * each reviewer whose latest verdict approves it. A lock freezes them into the document.
+   */
+  authors: DatasetPersonDto[];
+  /** True when someone chose the authors (false: the default list above). */
+  authorsEdited: boolean;
   /** What the caller may do now. */
   can: {
     edit: boolean;
+    /** Change the citation's authors: the dataset's maker or a steward, until it is locked. */
+    editAuthors: boolean;
     requestReview: boolean;
     review: boolean;
     waive: boolean;

@@ -54,6 +54,13 @@ export class Dataset {
   @Column('text')
   snapshot!: string;
 
+  /**
+   * JSON list of user ids: the citation's authors as chosen before the lock; null = the default
+   * (the maker, then the approving reviewers). The lock copies the people into the document.
+   */
+  @Column('text', { nullable: true })
+  authors!: string | null;
+
   /** SHA-256 (hex) of `canonical`; set when locked. */
   @Column('varchar', { length: 64, nullable: true })
   hash!: string | null;

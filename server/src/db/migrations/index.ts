@@ -5,6 +5,7 @@ import { Datasets1764792000000 } from './1764792000000-datasets.js';
 import { AuditStudyScope1796300000000 } from './1796300000000-audit-study-scope.js';
 import { SignInLimits1796300060000 } from './1796300060000-sign-in-limits.js';
 import { RunClassPages1796310000000 } from './1796310000000-run-class-pages.js';
+import { DatasetAuthors1796320000000 } from './1796320000000-dataset-authors.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -15,4 +16,5 @@ export const MIGRATIONS = [
   AuditStudyScope1796300000000,
   SignInLimits1796300060000,
   RunClassPages1796310000000,
+  DatasetAuthors1796320000000,
 ];

@@ -62,8 +62,11 @@ function dataset(over: Partial<DatasetDto> = {}): DatasetDto {
     reviews: [],
     comments: [],
     citation: null,
+    authors: [{ id: 'a1', displayName: 'Ines Okafor' }],
+    authorsEdited: false,
     can: {
       edit: false,
+      editAuthors: false,
       requestReview: false,
       review: false,
       waive: true,
@@ -91,9 +94,16 @@ describe('DatasetPage', () => {
     TestBed.tick();
     http.expectOne(`/api/datasets/${ID}`).flush(d);
     await fixture.whenStable();
-    http
-      .match(`/api/studies/${STUDY}`)
-      .forEach((r) => r.flush({ id: STUDY, members: [], owner: { id: 'a1' } }));
+    http.match(`/api/studies/${STUDY}`).forEach((r) =>
+      r.flush({
+        id: STUDY,
+        owner: { id: 'a1', displayName: 'Ines Okafor' },
+        members: [
+          { id: 'r1', displayName: 'Tomas Varga', role: 'reviewer' },
+          { id: 'a2', displayName: 'Ravi Anand', role: 'author' },
+        ],
+      }),
+    );
     await fixture.whenStable();
   }
 
@@ -170,6 +180,7 @@ describe('DatasetPage', () => {
         lockBlockers: [],
         can: {
           edit: false,
+          editAuthors: false,
           requestReview: false,
           review: false,
           waive: false,
@@ -182,5 +193,53 @@ describe('DatasetPage', () => {
     expect(testId('dataset-export-json')).not.toBeNull();
     expect(testId('dataset-public-link')?.getAttribute('href')).toBe(`/public/${hash}`);
     expect(testId('dataset-lock')).toBeNull();
+  });
+
+  it('names the authors, and lets the maker add, reorder and save them before the lock', async () => {
+    await render('author', dataset({ can: { ...dataset().can, editAuthors: true } }));
+    const section = () => testId('dataset-authors')!.textContent!;
+    expect(section()).toContain('Ines Okafor');
+    expect(section()).toContain('the reviewers who approved it');
+    (testId('dataset-authors-edit') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    // Add Ravi Anand through the Material select, as a person would (open it, pick the option).
+    (
+      el.querySelector('[data-testid="dataset-author-add"] .mat-mdc-select-trigger') as HTMLElement
+    ).click();
+    await fixture.whenStable();
+    const option = [...document.querySelectorAll('mat-option')].find((o) =>
+      o.textContent!.includes('Ravi Anand'),
+    ) as HTMLElement;
+    option.click();
+    await fixture.whenStable();
+    (el.querySelector('[aria-label="Move Ravi Anand up"]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    const rows = [...el.querySelectorAll('[data-testid="dataset-author-row"]')];
+    expect(rows.map((r) => r.querySelector('.name')!.textContent!.trim())).toEqual([
+      'Ravi Anand',
+      'Ines Okafor',
+    ]);
+    (testId('dataset-authors-save') as HTMLButtonElement).click();
+    const req = http.expectOne(`/api/datasets/${ID}`);
+    expect(req.request.method).toBe('PATCH');
+    expect(req.request.body).toEqual({ authors: ['a2', 'a1'] });
+    req.flush(
+      dataset({
+        authorsEdited: true,
+        authors: [
+          { id: 'a2', displayName: 'Ravi Anand' },
+          { id: 'a1', displayName: 'Ines Okafor' },
+        ],
+      }),
+    );
+    await fixture.whenStable();
+    expect(testId('dataset-authors-list')?.textContent).toContain('Ravi Anand, Ines Okafor');
+    expect(section()).toContain('a lock freezes them');
+  });
+
+  it('offers no author editing to someone who may not', async () => {
+    await render('reviewer', dataset());
+    expect(testId('dataset-authors-list')?.textContent).toContain('Ines Okafor');
+    expect(testId('dataset-authors-edit')).toBeNull();
   });
 });

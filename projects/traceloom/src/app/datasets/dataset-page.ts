@@ -22,6 +22,7 @@ import type { Observable } from 'rxjs';
 import { ApiError, messageOf } from '../core/api-error';
 import { downloadText, fileStem } from '../exports/export-files';
 import { rowValueText } from '@traceloom/shared/format';
+import { DatasetAuthors } from './dataset-authors';
 import { DatasetReviewPanel } from './dataset-review-panel';
 import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswer } from './datasets-api';
@@ -48,6 +49,7 @@ const EXPORT_TYPES: Record<ExportFormat, [ext: string, type: string]> = {
     MatSelectModule,
     RouterLink,
     DatasetReviewPanel,
+    DatasetAuthors,
   ],
   templateUrl: './dataset-page.html',
   styleUrl: './dataset-page.scss',

@@ -36,6 +36,8 @@ export interface MailboxMessage {
 export interface PublicDataset {
   hash: string;
   citation: string;
+  /** The citation's authors, frozen by the lock. */
+  authors: string[];
   supersededBy: { id: string; version: number } | null;
   document: {
     title: string;
@@ -88,8 +90,11 @@ export class DatasetsApi {
     return this.http.get<DatasetDto>(`/api/datasets/${enc(id)}`);
   }
 
-  /** Title and description of a draft. */
-  update(id: string, body: { title?: string; description?: string }): Observable<DatasetDto> {
+  /** Title and description of a draft; the citation's authors until the lock. */
+  update(
+    id: string,
+    body: { title?: string; description?: string; authors?: string[] },
+  ): Observable<DatasetDto> {
     return this.http.patch<DatasetDto>(`/api/datasets/${enc(id)}`, body);
   }
 

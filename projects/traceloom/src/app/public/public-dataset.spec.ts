@@ -58,9 +58,13 @@ describe('PublicDatasetPage', () => {
     const fixture = TestBed.createComponent(PublicDatasetPage);
     fixture.componentRef.setInput('hash', HASH);
     TestBed.tick();
-    http
-      .expectOne(`/api/public/datasets/${HASH}`)
-      .flush({ hash: HASH, citation: 'c', supersededBy: null, document: OLD_DOCUMENT });
+    http.expectOne(`/api/public/datasets/${HASH}`).flush({
+      hash: HASH,
+      citation: 'c',
+      authors: ['Ines Okafor', 'Tomas Varga'],
+      supersededBy: null,
+      document: OLD_DOCUMENT,
+    });
     await fixture.whenStable();
     const el: HTMLElement = fixture.nativeElement;
     const text = el.textContent ?? '';
@@ -77,6 +81,9 @@ describe('PublicDatasetPage', () => {
     );
     expect(el.querySelector('[data-testid="public-definition"]')?.textContent).toContain(
       'Z_L = q^(L/2)/(1-q^L)',
+    );
+    expect(el.querySelector('[data-testid="public-authors"]')?.textContent).toContain(
+      'Authors: Ines Okafor, Tomas Varga',
     );
     http.verify();
   });
