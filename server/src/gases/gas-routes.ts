@@ -3,6 +3,7 @@ import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
 import { parseId } from '../http/validate.js';
 import { GAS_EDITORS } from './gas-access.js';
 import { parseGasBody } from './gas-input.js';
+import { assertNamesKnown } from './gas-names.js';
 import { assertSpecEvaluates } from './gas-probe.js';
 import {
   createGas,
@@ -19,6 +20,7 @@ export function gasRoutes(ctx: AppContext): RouteSpec[] {
   const gas = (id: string | undefined) => parseId(id, 'The gas');
   const checkedSpec = async (body: unknown) => {
     const spec = parseGasBody(body);
+    assertNamesKnown(spec);
     await assertSpecEvaluates(ctx, spec);
     return spec;
   };

@@ -47,6 +47,8 @@ export type { ValueJson } from './series/format.js';
 export { substitute } from './series/substitute.js';
 export { KSeries } from './grand/kseries.js';
 export { evaluateExpression, evaluateSeries } from './expr/evaluate.js';
+export { EXACT_FUNCTIONS } from './expr/functions.js';
+export { NUMERIC_FUNCTIONS } from './numeric/expr/functions.js';
 export type { Truncation } from './expr/evaluate.js';
 export { parseExpression, DISABLED_FUNCTIONS, limitedMath } from './expr/sandbox.js';
 export { cycleWeights } from './weights.js';

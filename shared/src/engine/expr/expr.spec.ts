@@ -6,6 +6,7 @@ import { compareSeries } from '../series/compare.js';
 import { toText } from '../series/format.js';
 import { coeffs, ser } from '../test-helpers.js';
 import { evaluateExpression, Truncation } from './evaluate.js';
+import { EXACT_FUNCTIONS } from './functions.js';
 import { DISABLED_FUNCTIONS, limitedMath, parseExpression } from './sandbox.js';
 
 describe('the limited mathjs instance', () => {
@@ -132,5 +133,18 @@ describe('expression language', () => {
     });
     const c2 = (v as unknown as { at(j: number): never }).at(2);
     expect(compareSeries(ser('q^2/((1-q)*(1-q^2))', 12), c2).agrees).toBe(true);
+  });
+});
+
+describe('EXACT_FUNCTIONS, the names the exact language knows', () => {
+  // Each listed name reaches its own case of callFunction: called with no arguments it
+  // complains about its arguments (or their value), never that the function is unknown.
+  it.each(EXACT_FUNCTIONS)('%s is dispatched, not unknown', (name) => {
+    expect(() => ser(`${name}()`, 5)).toThrow(EngineError);
+    expect(() => ser(`${name}()`, 5)).not.toThrow(/unknown function/);
+  });
+
+  it('a name outside the list is an unknown function', () => {
+    expect(() => ser('thetta3(0, q)', 5)).toThrow(/unknown function thetta3/);
   });
 });

@@ -154,6 +154,30 @@ function binom(x: Fraction, k: number): Fraction {
   return r;
 }
 
+/**
+ * Every function name the exact expression language knows. It is the gate of `callFunction`: a
+ * name outside it is an unknown function, so a cheap check of names (before a gas is stored)
+ * and the engine agree.
+ */
+export const EXACT_FUNCTIONS: readonly string[] = [
+  'sum',
+  'prod',
+  'qpoch',
+  'theta1',
+  'theta2',
+  'theta3',
+  'theta4',
+  'abs',
+  'binom',
+  'factorial',
+  'exp',
+  'log',
+  'pexp',
+  'plog',
+  'O',
+];
+const known = new Set(EXACT_FUNCTIONS);
+
 /** Dispatch one function call of the expression language. */
 export function callFunction(
   name: string,
@@ -162,6 +186,7 @@ export function callFunction(
   evaluate: Evaluate,
 ): Value {
   if (disabled.has(name)) throw new EngineError(`function ${name} is disabled`);
+  if (!known.has(name)) throw new EngineError(`unknown function ${name}`);
   const ev = (i: number): Value => evaluate(args[i]!, ctx);
   switch (name) {
     case 'sum':
