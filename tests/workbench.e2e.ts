@@ -61,6 +61,14 @@ async function openDemoStudy(page: Page): Promise<void> {
   await page.getByTestId('study-heading').waitFor();
 }
 
+/** True when the element is wholly inside the window (not below the fold). */
+async function inViewport(page: Page, testId: string): Promise<boolean> {
+  return page.getByTestId(testId).evaluate((el) => {
+    const r = el.getBoundingClientRect();
+    return r.top >= 0 && r.bottom <= window.innerHeight;
+  });
+}
+
 async function openTab(page: Page, name: string): Promise<void> {
   await page.getByRole('tab', { name }).click();
 }
@@ -98,16 +106,16 @@ describe('workbench in the browser', () => {
     await page.getByTestId('gas-heading').filter({ hasText: GAS_TITLE }).waitFor();
     await page.getByTestId('gas-version-1').waitFor();
 
+    // Save brings the Run button into view; Run opens the run's page and follows it live.
+    expect(await page.getByTestId('run-start').isVisible()).toBe(true);
+    expect(await inViewport(page, 'run-start')).toBe(true);
+    await browser.screenshot(page, 'workbench-after-save');
     await page.getByTestId('run-start').click();
-    await page.getByTestId('run-progress').waitFor();
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/);
+    await page.getByTestId('run-heading').waitFor();
     await browser.screenshot(page, 'workbench-run-progress');
-    await page.getByTestId('run-open').waitFor({ timeout: 60_000 });
-    await page.getByTestId('run-row').first().waitFor();
-    expect(await page.getByTestId('run-row').first().getAttribute('data-status')).toBe('done');
-    await browser.screenshot(page, 'workbench-run-history');
-
-    await page.getByTestId('run-open').click();
-    await page.getByTestId('canonical-table').waitFor();
+    await page.getByTestId('canonical-table').waitFor({ timeout: 60_000 });
+    expect(await page.getByTestId('run-page-status').innerText()).toContain('Done');
     const lead3 = page.getByTestId('canonical-lead-3');
     expect(await lead3.getAttribute('data-plain')).toBe('q^(9/2)');
     expect(await page.getByTestId('canonical-agree-3').innerText()).toMatch(/agree/);
@@ -164,10 +172,12 @@ describe('workbench in the browser', () => {
     expect(await page.getByTestId('gas-title').isDisabled()).toBe(true);
     await browser.screenshot(page, 'workbench-gas-old-version');
     await page.getByTestId('gas-latest').click();
+    await page.getByTestId('run-row').first().waitFor();
+    expect(await page.getByTestId('run-row').first().getAttribute('data-status')).toBe('done');
+    await browser.screenshot(page, 'workbench-run-history');
     await page.getByTestId('run-start').click();
-    await expect.poll(() => page.getByTestId('run-row').count(), { timeout: 10_000 }).toBe(2);
-    await page.getByTestId('run-open').waitFor({ timeout: 60_000 });
-    await page.getByTestId('run-open').click();
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/);
+    await page.getByTestId('canonical-table').waitFor({ timeout: 60_000 });
     await openTab(page, 'Checks');
     await page.getByTestId('grand-check').waitFor();
     await page.getByTestId('matrix-all-agree').waitFor();

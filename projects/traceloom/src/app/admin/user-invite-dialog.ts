@@ -4,6 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
 import { messageOf } from '../core/api-error';
 import { parseForRequest, showOnField } from '../core/form-errors';
 import { API_LIMITS, InviteResponse, ROLES, Role, inviteSchema } from '@traceloom/shared/api';
@@ -20,6 +21,7 @@ import { UsersApi } from './users-api';
     MatDialogModule,
     MatFormFieldModule,
     MatInputModule,
+    MatSelectModule,
   ],
   templateUrl: './user-invite-dialog.html',
   styleUrl: './user-invite-dialog.scss',

@@ -1,4 +1,5 @@
 import { ScrollingModule } from '@angular/cdk/scrolling';
+import { SyntaxLink } from '../shared/syntax-link';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -46,6 +47,7 @@ const PLAIN_ROWS = 40;
 @Component({
   selector: 'tl-reference-page',
   imports: [
+    SyntaxLink,
     DatePipe,
     MatButtonModule,
     MatFormFieldModule,

@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, input, output, signal } from '@angular/core';
+import { SyntaxLink } from '../shared/syntax-link';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -18,6 +19,7 @@ export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
 @Component({
   selector: 'tl-reference-upload',
   imports: [
+    SyntaxLink,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,

@@ -67,6 +67,10 @@ describe('GasEditor', () => {
 
   it('names the study in the breadcrumb', async () => {
     await render();
+    // While the title loads: a quiet bar, no placeholder word.
+    const loading = el.querySelector('nav.crumbs')?.textContent ?? '';
+    expect(loading).not.toMatch(/\b[Ss]tudy\b/);
+    expect(el.querySelector('nav.crumbs .tl-skeleton')).not.toBeNull();
     http.expectOne(`/api/studies/${STUDY}`).flush({ title: 'Trap study' });
     await settle();
     const crumbs = el.querySelector('nav.crumbs')?.textContent ?? '';
@@ -342,11 +346,43 @@ describe('GasEditor', () => {
 
   it('links every expression field to the syntax page', async () => {
     await render();
-    const links = () =>
-      [...el.querySelectorAll('tl-syntax-link a')].map((a) => a.getAttribute('href'));
-    expect(links()).toEqual(['/help/spec#the-expression-language']);
-    (el.querySelector('[data-testid="gas-kind-spectrum"] input') as HTMLInputElement).click();
-    await settle();
-    expect(links().length).toBe(1);
+    const SYNTAX = '/help/spec#the-expression-language';
+    /** The syntax link in the field's own hint, or in the hint line of its group of fields. */
+    const linkBeside = (id: string) => {
+      const field = input(id);
+      expect(field, id).not.toBeNull();
+      const own = field.closest('mat-form-field')?.querySelector('tl-syntax-link a');
+      const group = field.closest('.grid, fieldset')?.querySelector('p tl-syntax-link a');
+      return (own ?? group)?.getAttribute('href');
+    };
+    const click = async (selector: string) => {
+      (el.querySelector(selector) as HTMLElement).click();
+      await settle();
+    };
+    expect(linkBeside('gas-formula')).toBe(SYNTAX);
+    await click('[data-testid="gas-kind-values"] input');
+    expect(linkBeside('gas-value-1')).toBe(SYNTAX);
+    await click('[data-testid="gas-kind-spectrum"] input');
+    for (const id of [
+      'gas-spectrum',
+      'gas-spectrum-offset',
+      'gas-spectrum-from',
+      'gas-spectrum-to',
+    ])
+      expect(linkBeside(id), id).toBe(SYNTAX);
+    await click('[data-testid="gas-numeric"] button');
+    for (const id of ['gas-at', 'gas-recognize-basis']) expect(linkBeside(id), id).toBe(SYNTAX);
+    await click('[data-testid="gas-kind-kernel"] input');
+    for (const id of ['gas-kernel', 'gas-kernel-from', 'gas-kernel-to'])
+      expect(linkBeside(id), id).toBe(SYNTAX);
+    await click('[data-testid="gas-grand-expression"] input');
+    expect(linkBeside('gas-grand-text')).toBe(SYNTAX);
+    await click('[data-testid="gas-grand-coefficients"] input');
+    expect(linkBeside('gas-grand-values')).toBe(SYNTAX);
+    await click('[data-testid="gas-sectors"] button');
+    for (const id of ['gas-sector-weight', 'gas-sector-from-0', 'gas-sector-to-0'])
+      expect(linkBeside(id), id).toBe(SYNTAX);
+    http.match('/api/compute').forEach((r) => r.flush({ weights: [], canonical: [] }));
+    http.match('/api/compute/estimate').forEach((r) => r.flush({}));
   });
 });

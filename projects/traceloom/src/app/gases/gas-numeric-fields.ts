@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { SyntaxLink } from '../shared/syntax-link';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
@@ -14,6 +15,7 @@ import { GasForm } from './gas-form';
 @Component({
   selector: 'tl-gas-numeric-fields',
   imports: [
+    SyntaxLink,
     ReactiveFormsModule,
     MatFormFieldModule,
     MatInputModule,

@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { SyntaxLink } from '../shared/syntax-link';
 import { ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -20,6 +21,7 @@ const NEXT_NAMES = ['n', 'm', 'k'];
 @Component({
   selector: 'tl-gas-sectors-fields',
   imports: [
+    SyntaxLink,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,

@@ -6,7 +6,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { SyntaxLink } from './syntax-link';
+import { SyntaxLink } from '../shared/syntax-link';
 import { errorText } from './field-error';
 import { GasForm } from './gas-form';
 import { LINE_KERNEL_EXAMPLE } from './gas-numeric';

@@ -11,10 +11,10 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { ApiError, messageOf } from '../core/api-error';
 import { RunProgressPanel } from './run-progress';
-import { RunStatus, RunSummary, RunsApi, isActive, runErrorText } from './runs-api';
+import { RunStartState, RunStatus, RunSummary, RunsApi, isActive, runErrorText } from './runs-api';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
 
 /** Starting a run of a gas, following it live, and the gas's run history. */
@@ -34,6 +34,7 @@ import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
 })
 export class GasRuns {
   private readonly api = inject(RunsApi);
+  private readonly router = inject(Router);
 
   readonly gasId = input.required<string>();
   readonly latestVersion = input.required<number>();
@@ -46,8 +47,6 @@ export class GasRuns {
   protected readonly loadError = signal<string | null>(null);
   protected readonly starting = signal(false);
   protected readonly startError = signal<string | null>(null);
-  /** The warnings of the run just started (order too low for some rows, a slow class table). */
-  protected readonly startWarnings = signal<string[]>([]);
   /** The run followed live (the newest active one). */
   protected readonly followed = signal<string | null>(null);
   protected readonly version = computed(() => this.viewedVersion() ?? this.latestVersion());
@@ -63,14 +62,13 @@ export class GasRuns {
   protected start(): void {
     this.starting.set(true);
     this.startError.set(null);
-    this.startWarnings.set([]);
     const version = this.viewedVersion() ?? undefined;
     this.api.start(this.gasId(), version).subscribe({
       next: (run) => {
         this.starting.set(false);
-        this.startWarnings.set(run.warnings ?? []);
-        this.followed.set(run.id);
-        this.reload(this.gasId());
+        // The run's page follows it live and shows its results when done; it keeps the warnings.
+        const state: RunStartState = { startWarnings: run.warnings ?? [] };
+        void this.router.navigate(['/runs', run.id], { state });
       },
       error: (err: unknown) => {
         this.starting.set(false);

@@ -13,7 +13,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTabsModule } from '@angular/material/tabs';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { RunChecks } from '../checks/run-checks';
 import { ApiError, messageOf } from '../core/api-error';
 import { Session } from '../core/session';
@@ -29,7 +29,7 @@ import { RunProgressPanel } from './run-progress';
 import { RunEstimate } from './run-estimate';
 import { routeName } from '@traceloom/shared/format';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
-import { RunDto, RunsApi, isActive, runErrorText } from './runs-api';
+import { RunDto, RunStartState, RunsApi, isActive, runErrorText } from './runs-api';
 import { groupTruncations, truncationText } from './truncations';
 
 /** One run: status and timings, then its canonical table, class table, checks and plots. */
@@ -61,6 +61,7 @@ import { groupTruncations, truncationText } from './truncations';
 export class RunPage {
   private readonly api = inject(RunsApi);
   private readonly session = inject(Session);
+  private readonly router = inject(Router);
 
   /** Route `runs/:runId`. */
   readonly runId = input.required<string>();
@@ -69,6 +70,8 @@ export class RunPage {
   protected readonly loading = signal(true);
   protected readonly error = signal<string | null>(null);
   protected readonly tab = signal(0);
+  /** Warnings answered when this run was started from the editor (kept across a reload). */
+  protected readonly startWarnings = signal<string[]>(this.readStartWarnings());
   protected readonly truncations = groupTruncations;
   protected readonly truncationText = truncationText;
   protected readonly variable = computed(() => this.run()?.spec.variable ?? 'q');
@@ -91,6 +94,13 @@ export class RunPage {
 
   constructor() {
     effect(() => this.load(this.runId()));
+  }
+
+  private readStartWarnings(): string[] {
+    const state = (this.router.currentNavigation()?.extras.state ?? history.state) as
+      Partial<RunStartState> | null | undefined;
+    const warnings = state?.startWarnings;
+    return Array.isArray(warnings) ? warnings.filter((w) => typeof w === 'string') : [];
   }
 
   protected load(id: string): void {

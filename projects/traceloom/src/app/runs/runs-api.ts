@@ -55,6 +55,11 @@ export interface RunStarted {
   warnings?: string[];
 }
 
+/** The navigation state a started run's page receives: the warnings the start answered. */
+export interface RunStartState {
+  startWarnings: string[];
+}
+
 /** `POST /api/compute/estimate`: the class table's cost, the order advice, warnings, refusal. */
 export interface RunEstimateDto {
   estimate: {
