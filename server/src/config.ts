@@ -2,6 +2,7 @@ import path from 'node:path';
 import { keysFromEnv, type TokenKeys } from './auth/token-keys.js';
 import { DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from './auth/sign-in-guards.js';
 import type { BackupSchedule } from './db/backup-schedule.js';
+import { DEFAULT_REFERENCE_QUOTA, type ReferenceQuota } from './references/reference-quota.js';
 
 /** How the server seeds data at start. */
 export type ServerMode = 'demo' | 'production' | 'test';
@@ -38,6 +39,8 @@ export interface ServerConfig {
   runs: RunLimits;
   /** Largest reference-table upload accepted, in bytes. */
   uploadLimitBytes: number;
+  /** Reference-table quotas per study and per person; `DEFAULT_REFERENCE_QUOTA` when absent. */
+  referenceQuota?: ReferenceQuota;
   /** Scheduled backups (`TRACELOOM_BACKUP_DIR`), or null when off. */
   backups: BackupSchedule | null;
   /** Previews (`POST /api/compute`) one person may ask for per window. */
@@ -133,6 +136,22 @@ export function positiveInt(env: NodeJS.ProcessEnv, name: string, fallback: numb
 }
 
 /**
+ * `TRACELOOM_STUDY_REFERENCE_MB` / `_TABLES` and `TRACELOOM_USER_REFERENCE_MB` / `_TABLES`: the
+ * reference-table quotas of a study and of a person (defaults in `DEFAULT_REFERENCE_QUOTA`).
+ */
+function referenceQuotaOf(env: NodeJS.ProcessEnv): ReferenceQuota {
+  const d = DEFAULT_REFERENCE_QUOTA;
+  const mb = (name: string, bytes: number) => positiveInt(env, name, bytes / 2 ** 20) * 2 ** 20;
+  return {
+    ...d,
+    studyBytes: mb('TRACELOOM_STUDY_REFERENCE_MB', d.studyBytes),
+    studyTables: positiveInt(env, 'TRACELOOM_STUDY_REFERENCE_TABLES', d.studyTables),
+    userBytes: mb('TRACELOOM_USER_REFERENCE_MB', d.userBytes),
+    userTables: positiveInt(env, 'TRACELOOM_USER_REFERENCE_TABLES', d.userTables),
+  };
+}
+
+/**
  * Reads `PORT`, `TRACELOOM_DB`, `TRACELOOM_MODE`, `TRACELOOM_STATIC`, and the run and upload
  * limits `TRACELOOM_RUN_WALL_MS`, `TRACELOOM_RUN_THREADS`, `TRACELOOM_RUNS_PER_USER`,
  * `TRACELOOM_UPLOAD_LIMIT`, and the signing keys `TRACELOOM_TOKEN_SECRET`,
@@ -172,6 +191,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
       }),
     },
     uploadLimitBytes: positiveInt(env, 'TRACELOOM_UPLOAD_LIMIT', DEFAULT_CONFIG.uploadLimitBytes),
+    referenceQuota: referenceQuotaOf(env),
     ...(env.TRACELOOM_PREVIEWS_PER_10S
       ? {
           previewLimit: {

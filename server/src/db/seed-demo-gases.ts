@@ -4,7 +4,7 @@ import { compute, type GasSpecInput, type ValueJson } from '@traceloom/shared/en
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/record-audit.js';
 import { compareSeriesRows } from '../comparisons/compare-rows.js';
-import { parseReferenceFile } from '../references/reference-parse.js';
+import { parseReferenceFile, referenceFacts } from '../references/reference-parse.js';
 import { Comparison, Gas, GasVersion, ReferenceTable, Run, type User } from './entities/index.js';
 
 /** The harmonic trap: Z_L = q^(L/2)/(1-q^L), whose grand function is (-kappa q^(1/2); q)_inf. */
@@ -154,6 +154,7 @@ export async function seedDemoGases(
       contentType: 'text/csv',
       sha256: createHash('sha256').update(bytes).digest('hex'),
       rows: JSON.stringify(parsed.rows),
+      ...referenceFacts(bytes, parsed.rows),
       normalization,
       variable: 'q',
       note: 'Low-N table for the harmonic trap, as sent to us before submission.',

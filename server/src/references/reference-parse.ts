@@ -7,6 +7,7 @@ import {
 import { AppError } from '../http/app-error.js';
 import type { ReferenceRow } from '../comparisons/compare-rows.js';
 import { parseCsv } from './csv.js';
+import { assertDense, mostRows } from './reference-density.js';
 import { claimedKind, textContent } from './sniff.js';
 
 /** Caps of a reference table. */
@@ -27,6 +28,14 @@ const DECIMAL_NUMBER = /^[+-]?(\d+\.\d*|\.\d+|\d+(\.\d*)?[eE][+-]?\d+)$/;
  */
 export function isNumericTable(rows: readonly Pick<ReferenceRow, 'value'>[]): boolean {
   return rows.length > 0 && rows.every((r) => DECIMAL_NUMBER.test(r.value.trim()));
+}
+
+/** The columns a stored table keeps beside its bytes and rows, so lists read neither. */
+export function referenceFacts(
+  bytes: Buffer,
+  rows: readonly ReferenceRow[],
+): { sizeBytes: number; rowCount: number; numeric: boolean } {
+  return { sizeBytes: bytes.length, rowCount: rows.length, numeric: isNumericTable(rows) };
 }
 
 /** What an uploaded file holds. */
@@ -194,6 +203,8 @@ export function parseReferenceFile(
   contentType: string,
 ): ParsedReference {
   const kind = claimedKind(filename, contentType);
+  // A sparse file is refused before megabytes of blank lines are decoded and read.
+  assertDense(bytes.length, mostRows(bytes, kind));
   const text = textContent(bytes, kind);
   const parsed = kind === 'csv' ? fromCsv(text) : fromJson(text);
   parsed.numeric = isNumericTable(parsed.rows);

@@ -11,7 +11,9 @@ import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { canSee, loadVisibleStudy, STUDY_RELATIONS } from '../studies/study-access.js';
-import { isNumericTable, type ParsedReference, type RowError } from './reference-parse.js';
+import { referenceFacts, type ParsedReference, type RowError } from './reference-parse.js';
+import { assertDense } from './reference-density.js';
+import { assertWithinQuota, DEFAULT_REFERENCE_QUOTA } from './reference-quota.js';
 import { computeServices } from '../compute/services.js';
 import type { WorkerAppError } from '../runs/worker.js';
 import { receiveUpload, type Upload } from './receive-upload.js';
@@ -70,8 +72,8 @@ function toSummary(table: ReferenceTable): ReferenceSummary {
     normalization: table.normalization,
     variable: table.variable,
     note: table.note,
-    numeric: isNumericTable(JSON.parse(table.rows) as ReferenceRow[]),
-    rowCount: (JSON.parse(table.rows) as unknown[]).length,
+    numeric: table.numeric,
+    rowCount: table.rowCount,
     createdAt: table.createdAt,
     createdBy: personRef(table.createdBy),
   };
@@ -152,10 +154,16 @@ export async function uploadReference(
   res: Response,
 ): Promise<ReferenceDto | { rows: ReferenceRow[]; errors: RowError[]; numeric: boolean }> {
   await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
+  const quota = ctx.config.referenceQuota ?? DEFAULT_REFERENCE_QUOTA;
+  const who = { userId: actor.id, studyId };
+  const dryRun = req.query.dryRun === '1' || req.query.dryRun === 'true';
   const { file, fields } = await receiveUpload(req, res, ctx.config.uploadLimitBytes);
   const input = parseInput(uploadFieldsSchema, fields);
+  // Before the worker reads it; checked again in the transaction that stores it.
+  if (!dryRun) await assertWithinQuota(ctx.dataSource.manager, quota, who, file.bytes.length);
   const parsed = await parseInWorker(ctx, file, input.normalization, input.variable ?? 'q');
-  if (req.query.dryRun === '1' || req.query.dryRun === 'true') {
+  assertDense(file.bytes.length, parsed.rows.length + parsed.errors.length);
+  if (dryRun) {
     res.status(200);
     return { rows: parsed.rows, errors: parsed.errors, numeric: parsed.numeric ?? false };
   }
@@ -165,6 +173,7 @@ export async function uploadReference(
     (input.title ?? parsed.title?.trim() ?? file.filename.replace(/\.[^.]*$/, '')).slice(0, 200) ||
     'reference table';
   return ctx.dataSource.transaction(async (manager) => {
+    await assertWithinQuota(manager, quota, who, file.bytes.length);
     const repo = manager.getRepository(ReferenceTable);
     const { id } = await repo.save(
       repo.create({
@@ -175,6 +184,7 @@ export async function uploadReference(
         contentType: (file.contentType || 'application/octet-stream').slice(0, 100),
         sha256: createHash('sha256').update(file.bytes).digest('hex'),
         rows: JSON.stringify(parsed.rows),
+        ...referenceFacts(file.bytes, parsed.rows),
         normalization,
         variable: input.variable ?? 'q',
         note: input.note ?? '',
@@ -202,11 +212,18 @@ export async function listReferences(
   studyId: string,
 ): Promise<ReferenceSummary[]> {
   await loadVisibleStudy(ctx.dataSource.manager, actor, studyId);
-  const tables = await ctx.dataSource.getRepository(ReferenceTable).find({
-    where: { study: { id: studyId } },
-    relations: { study: true, createdBy: true },
-    order: { createdAt: 'DESC' },
-  });
+  // Explicit columns: neither the uploaded bytes nor the rows are read for a list.
+  const tables = await ctx.dataSource
+    .getRepository(ReferenceTable)
+    .createQueryBuilder('r')
+    .innerJoin('r.study', 'study')
+    .innerJoin('r.createdBy', 'by')
+    .select(['r.id', 'r.title', 'r.filename', 'r.contentType', 'r.sha256', 'r.normalization'])
+    .addSelect(['r.variable', 'r.note', 'r.numeric', 'r.rowCount', 'r.createdAt'])
+    .addSelect(['study.id', 'by.id', 'by.displayName'])
+    .where('r.study_id = :studyId', { studyId })
+    .orderBy('r.createdAt', 'DESC')
+    .getMany();
   return tables.map(toSummary);
 }
 

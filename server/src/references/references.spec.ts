@@ -69,10 +69,15 @@ describe('reference tables', () => {
       [3, 2],
       [4, 3],
     ]);
+    // The bytes are never read with the row; asked for, they are the upload's.
     const row = await t.dataSource
       .getRepository(ReferenceTable)
-      .findOneByOrFail({ id: res.body.id });
+      .createQueryBuilder('r')
+      .addSelect('r.fileBytes')
+      .where('r.id = :id', { id: res.body.id })
+      .getOneOrFail();
     expect(row.fileBytes.equals(bytes)).toBe(true);
+    expect(row.sizeBytes).toBe(bytes.length);
     const list = await request(t.app)
       .get(`/api/studies/${studyId}/references`)
       .set('Authorization', bearer(token));

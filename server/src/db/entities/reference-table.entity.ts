@@ -24,9 +24,21 @@ export class ReferenceTable {
   @Column('varchar', { length: 200 })
   title!: string;
 
-  /** The uploaded bytes, unchanged. */
-  @Column('blob', { name: 'file_bytes' })
+  /** The uploaded bytes, unchanged; never read with the row (`select: false`). */
+  @Column('blob', { name: 'file_bytes', select: false })
   fileBytes!: Buffer;
+
+  /** Length of the uploaded bytes, counted by the quotas. */
+  @Column('integer', { name: 'size_bytes', default: 0 })
+  sizeBytes!: number;
+
+  /** Rows read from the file (the length of `rows`), for lists. */
+  @Column('integer', { name: 'row_count', default: 0 })
+  rowCount!: number;
+
+  /** Every value is a decimal number (`isNumericTable`), for lists. */
+  @Column('boolean', { default: false })
+  numeric!: boolean;
 
   @Column('varchar', { length: 255 })
   filename!: string;

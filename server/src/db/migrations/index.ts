@@ -6,6 +6,7 @@ import { AuditStudyScope1796300000000 } from './1796300000000-audit-study-scope.
 import { SignInLimits1796300060000 } from './1796300060000-sign-in-limits.js';
 import { RunClassPages1796310000000 } from './1796310000000-run-class-pages.js';
 import { DatasetAuthors1796320000000 } from './1796320000000-dataset-authors.js';
+import { ReferenceFacts1796330000000 } from './1796330000000-reference-facts.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -17,4 +18,5 @@ export const MIGRATIONS = [
   SignInLimits1796300060000,
   RunClassPages1796310000000,
   DatasetAuthors1796320000000,
+  ReferenceFacts1796330000000,
 ];
