@@ -197,7 +197,7 @@ export function kernelTraces(
     const done = converged(out, D);
     if (opts.debug) debugLevels(opts.debug, trip[2], ls, out);
     const next = done ? trip[2] : nextResolution(trip, out, D);
-    const nextTooBig = family.at(next).nodes.length > maxPoints;
+    const nextTooBig = family.points(next) > maxPoints;
     if (done || nextTooBig) {
       const l3 = ls[2];
       const rule = family.at(trip[2]);

@@ -202,7 +202,7 @@ export function tridiagonalEigenvaluesFloat(d0: number[], e0: number[]): number[
       }
       if (m === l || iter++ > 60) break;
       let g = (d[l + 1]! - d[l]!) / (2 * e[l]!);
-      let r = Math.hypot(g, 1);
+      let r = hypot(g, 1);
       g = d[m]! - d[l]! + e[l]! / (g + (g >= 0 ? Math.abs(r) : -Math.abs(r)));
       let s = 1;
       let c = 1;
@@ -211,7 +211,7 @@ export function tridiagonalEigenvaluesFloat(d0: number[], e0: number[]): number[
       for (; i >= l; i--) {
         let f = s * e[i]!;
         const b = c * e[i]!;
-        r = Math.hypot(f, g);
+        r = hypot(f, g);
         e[i + 1] = r;
         if (r === 0) {
           d[i + 1]! -= pp;
@@ -235,6 +235,12 @@ export function tridiagonalEigenvaluesFloat(d0: number[], e0: number[]): number[
     }
   }
   return d;
+}
+
+/** sqrt(a^2 + b^2): Math.hypot only where the squares would leave the normal range (it is slow). */
+function hypot(a: number, b: number): number {
+  const s = a * a + b * b;
+  return s > 1e-290 && s < 1e290 ? Math.sqrt(s) : Math.hypot(a, b);
 }
 
 /** e_0..e_k of the numbers xs (float64). */

@@ -33,6 +33,8 @@ export interface Rule {
 /** A family of rules with a resolution parameter m that refinement doubles. */
 export interface RuleFamily {
   at(m: number): Rule;
+  /** The number of nodes of the rule at m (without building it). */
+  points(m: number): number;
   /** True when the rule at m contains the nodes of the rule at m / 2 (trapezoid-type). */
   nested: boolean;
 }
@@ -55,6 +57,7 @@ export function lineFamily(X: Real, prec: number): RuleFamily {
   const T = asinh(SINH_RATIO, prec);
   return {
     nested: true,
+    points: (m) => 2 * m + 1,
     at(m: number): Rule {
       const half = sinhNodes(a, T, m, prec);
       const nodes: Real[] = [];
@@ -101,6 +104,7 @@ export function halfLineFamily(
   const lo = fromNumber(Math.floor(tLo * 8) / 8);
   return {
     nested: true,
+    points: (m) => m + 1,
     at(m: number): Rule {
       const nodes: Real[] = [];
       const weights: Real[] = [];
@@ -132,6 +136,7 @@ export function circleFamily(a: Real, b: Real, prec: number): RuleFamily {
   const P = sub(b, a, prec);
   return {
     nested: true,
+    points: (m) => 2 * m,
     at(m: number): Rule {
       const n = 2 * m;
       const w = div(P, fromInt(n), prec);
@@ -156,6 +161,7 @@ export function intervalFamily(a: Real, b: Real, prec: number): RuleFamily {
   const r = ldexp(sub(b, a, prec), -1);
   return {
     nested: false,
+    points: (m) => m,
     at(m: number): Rule {
       const gl = gaussLegendre(m, prec);
       const nodes = gl.x.map((x) => add(c, mul(r, x, prec), prec));
@@ -237,15 +243,25 @@ function asinh(v: number, prec: number): Real {
   return t;
 }
 
-/** Half of the sinh rule: x_k = a sinh(T k / m), w_k = a cosh(T k / m) T / m for k = 0..m. */
+/**
+ * Half of the sinh rule: x_k = a sinh(T k / m), w_k = a cosh(T k / m) T / m for k = 0..m, from
+ * E_k = exp(T k / m) = E_1^k (products instead of m exponentials; 16 + log2(m) guard bits cover
+ * the rounding the products accumulate).
+ */
 function sinhNodes(a: Real, T: Real, m: number, prec: number): { x: Real[]; w: Real[] } {
+  const p = prec + 16 + Math.ceil(Math.log2(m + 1));
   const x: Real[] = [];
   const w: Real[] = [];
-  const h = div(T, fromInt(m), prec);
+  const h = div(T, fromInt(m), p);
+  const step = exp(h, p);
+  const stepInv = div(ONE, step, p);
+  let E: Real = ONE;
+  let Einv: Real = ONE;
   for (let k = 0; k <= m; k++) {
-    const t = mul(T, fromFraction(BigInt(k), BigInt(m), prec), prec);
-    x.push(mul(a, sinh(t, prec + 4), prec));
-    w.push(mul(mul(a, cosh(t, prec + 4), prec), h, prec));
+    x.push(k === 0 ? ZERO : mul(a, ldexp(sub(E, Einv, p), -1), prec));
+    w.push(mul(mul(a, ldexp(add(E, Einv, p), -1), p), h, prec));
+    E = mul(E, step, p);
+    Einv = mul(Einv, stepInv, p);
   }
   return { x, w };
 }
