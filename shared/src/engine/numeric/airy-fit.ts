@@ -96,14 +96,29 @@ function taylorSteps(a: number, y: number, yp: number, b: number): [number, numb
   return [y, yp];
 }
 
-let startCache: [number, number] | null = null;
+/** Spacing of the grid between X_SERIES and X_ASYMPTOTIC where (Ai, Ai') is kept. */
+const GRID_STEP = 0.5;
+/** (Ai, Ai') at x = X_ASYMPTOTIC - j GRID_STEP, integrated downwards once (a fit asks thousands of x). */
+let grid: [number, number][] | null = null;
+
+function airyGrid(): [number, number][] {
+  if (grid) return grid;
+  const s = asymptotic(X_ASYMPTOTIC);
+  const v = Math.exp(s.logAi);
+  grid = [[v, v * s.dlogAi]];
+  for (let x = X_ASYMPTOTIC; x > X_SERIES; x -= GRID_STEP) {
+    const [y, yp] = grid[grid.length - 1]!;
+    grid.push(taylorSteps(x, y, yp, x - GRID_STEP));
+  }
+  return grid;
+}
 
 /**
  * Float64 log Ai(x) with d/dx log Ai(x), for fitting (relative accuracy ~1e-14; the engine's
  * high-precision Ai is a separate function). Large x: the asymptotic series DLMF 9.7.5/9.7.6;
- * x <= 1.5: the Maclaurin series DLMF 9.4.1; between them: Taylor steps of Ai'' = x Ai from
- * x = 10, which is the stable direction for the decaying solution. Valid for x above the first
- * zero of Ai (about -2.338); NaN there and below.
+ * x <= 1.5: the Maclaurin series DLMF 9.4.1; between them: a Taylor step of Ai'' = x Ai from the
+ * grid point just above x, the grid integrated down from x = 10 (the stable direction for the
+ * decaying solution). Valid for x above the first zero of Ai (about -2.338); NaN there and below.
  */
 export function logAiry(x: number): LogAiry {
   if (!Number.isFinite(x)) return { logAi: NaN, dlogAi: NaN };
@@ -112,12 +127,10 @@ export function logAiry(x: number): LogAiry {
   let aip: number;
   if (x <= X_SERIES) [ai, aip] = maclaurin(x);
   else {
-    if (!startCache) {
-      const s = asymptotic(X_ASYMPTOTIC);
-      const v = Math.exp(s.logAi);
-      startCache = [v, v * s.dlogAi];
-    }
-    [ai, aip] = taylorSteps(X_ASYMPTOTIC, startCache[0], startCache[1], x);
+    const j = Math.floor((X_ASYMPTOTIC - x) / GRID_STEP);
+    const [y, yp] = airyGrid()[j]!;
+    const from = X_ASYMPTOTIC - j * GRID_STEP;
+    [ai, aip] = from === x ? [y, yp] : taylorSteps(from, y, yp, x);
   }
   if (!(ai > 0)) return { logAi: NaN, dlogAi: NaN };
   return { logAi: Math.log(ai), dlogAi: aip / ai };

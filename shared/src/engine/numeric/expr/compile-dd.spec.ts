@@ -49,6 +49,27 @@ const CASES: [string, number[][]][] = [
   ],
 ];
 
+// exp and cosh of a sum of one-variable parts are taken as products of memoised factors
+// (separable.ts), with the whole argument's exponential where a factor leaves the float range
+CASES.push(
+  [
+    'exp(x - y) + cosh(3*(x + y)/2 - 1) - exp(-(2*x - y/3))',
+    [
+      [0.3, -1.7],
+      [12.5, 11.75],
+      [-20, 3],
+    ],
+  ],
+  [
+    '1/cosh((x - y)/2) * exp((x - y)/4)',
+    [
+      [1500, 1499.5],
+      [-1500, -1498],
+      [700, 690],
+    ],
+  ],
+);
+
 describe('double-double evaluation of elementary expressions', () => {
   for (const [text, points] of CASES)
     it(`${text} agrees with the Real evaluator to 2^-96`, () => {

@@ -14,6 +14,7 @@ import {
   ddSqrt,
   R,
 } from '../kernel/double-double.js';
+import { type Code, factorised, type SeparableContext } from './separable.js';
 
 /**
  * A fast evaluator of the elementary part of the expression language in double-double (about 104
@@ -121,6 +122,13 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
         const fn = n as FunctionNode;
         const name = (fn.fn as unknown as { name?: string }).name ?? '';
         if (!UNARY.has(name) || fn.args.length !== 1) return null;
+        if ((name === 'exp' || name === 'cosh') && names.length >= 2) {
+          const f = factorised(name, fn.args[0]!, separable);
+          if (f) {
+            reads.set(f.code, f.mask);
+            return f.code;
+          }
+        }
         const a = compile(fn.args[0]!);
         if (!a) return null;
         return finish(unary(name, a, slot()), readsOf(a));
@@ -128,6 +136,32 @@ export function compileFast(text: string, names: readonly string[]): FastCompile
       default:
         return null;
     }
+  };
+  const maskOf = (n: MathNode): number => {
+    let mask = 0;
+    let unknown = false;
+    n.traverse((c) => {
+      if (c.type !== 'SymbolNode') return;
+      const i = names.indexOf((c as unknown as { name: string }).name);
+      if (i >= 0) mask |= 1 << i;
+      else if (!['pi', 'e', ...UNARY].includes((c as unknown as { name: string }).name))
+        unknown = true;
+    });
+    return unknown ? -1 : mask;
+  };
+  const separable: SeparableContext = {
+    compile,
+    finish,
+    slot,
+    maskOf,
+    binary: (fn, a, b, k) => binary(fn, a, b, k),
+    negate: (a, k) => (v, r) => {
+      const i = a(v, r);
+      r[k] = -r[i]!;
+      r[k + 1] = -r[i + 1]!;
+      return k;
+    },
+    exp: (a, k) => unary('exp', a, k),
   };
   const root = compile(node);
   if (!root) return null;
@@ -147,20 +181,35 @@ const MEMO_LIMIT = 8192;
 /** c's value kept per value of the one caller's value it reads (slot `i`), copied to slot k. */
 function memo(c: Code, i: number, k: number): Code {
   const cache = new Map<number, Float64Array>();
+  // the last value asked for (a matrix row repeats its x), then the map
+  const last = new Float64Array([NaN, NaN, 0, 0]);
   return (v, r) => {
     const xh = v[2 * i]!;
     const xl = v[2 * i + 1]!;
-    const hit = cache.get(xh);
-    if (hit !== undefined && hit[0] === xl) {
-      r[k] = hit[1]!;
-      r[k + 1] = hit[2]!;
+    if (xh === last[0] && xl === last[1]) {
+      r[k] = last[2]!;
+      r[k + 1] = last[3]!;
       return k;
     }
-    const j = c(v, r);
-    if (cache.size >= MEMO_LIMIT) cache.clear();
-    cache.set(xh, Float64Array.of(xl, r[j]!, r[j + 1]!));
-    r[k] = r[j]!;
-    r[k + 1] = r[j + 1]!;
+    const hit = cache.get(xh);
+    let h: number;
+    let l: number;
+    if (hit !== undefined && hit[0] === xl) {
+      h = hit[1]!;
+      l = hit[2]!;
+    } else {
+      const j = c(v, r);
+      h = r[j]!;
+      l = r[j + 1]!;
+      if (cache.size >= MEMO_LIMIT) cache.clear();
+      cache.set(xh, Float64Array.of(xl, h, l));
+    }
+    last[0] = xh;
+    last[1] = xl;
+    last[2] = h;
+    last[3] = l;
+    r[k] = h;
+    r[k + 1] = l;
     return k;
   };
 }
@@ -172,8 +221,6 @@ function constant(hi: number, lo: number, k: number) {
     return k;
   };
 }
-
-type Code = (v: Float64Array, r: Float64Array) => number;
 
 function binary(fn: string, a: Code, b: Code, k: number): Code {
   return (v, r) => {
