@@ -1,6 +1,6 @@
 import Fraction from 'fraction.js';
-import { mulTrunc } from '../series/multiply.js';
-import { lcm } from '../integers.js';
+import { mulTruncStrided } from '../series/multiply.js';
+import { gcdInt, lcm } from '../integers.js';
 import { frac } from '../rational.js';
 import { add, mul } from '../series/arith.js';
 import { cutAt, gridIndex, Series, stepGcd } from '../series/series.js';
@@ -83,13 +83,13 @@ function productOnArrays(
     Y[0]![0] = 1n;
     val[0] = 0;
   }
-  // Y_j += C * Y_(j-1), only below M
-  const step1 = (C: bigint[], cStart: number, j: number): void => {
+  // Y_j += C * Y_(j-1), only below M; C's coefficient at cStart + i * stride is coarse[i]
+  const step1 = (coarse: bigint[], stride: number, cStart: number, j: number): void => {
     const v = val[j - 1]!;
     const lo = cStart + v;
     if (lo >= M) return;
     const src = Y[j - 1]!.slice(v, M - cStart);
-    const prod = mulTrunc(C, src, M - lo);
+    const prod = mulTruncStrided(coarse, stride, src, M - lo);
     const dst = Y[j]!;
     for (let i = 0; i < prod.length; i++) {
       const x = prod[i]!;
@@ -109,14 +109,27 @@ function productOnArrays(
   for (const c of byValuation) {
     seen++;
     if (c.num.length === 0 || c.start >= M) continue;
-    const f = D / c.den;
-    const C = c.num.slice(0, M - c.start).map((x) => x * f);
-    if (fermion) for (let j = Math.min(nMax, seen); j >= 1; j--) step1(C, c.start, j);
-    else for (let j = 1; j <= nMax; j++) step1(C, c.start, j);
+    const [coarse, stride] = onCoarseGrid(c.num.slice(0, M - c.start), D / c.den);
+    if (fermion) for (let j = Math.min(nMax, seen); j >= 1; j--) step1(coarse, stride, c.start, j);
+    else for (let j = 1; j <= nMax; j++) step1(coarse, stride, c.start, j);
     tick?.(seen, points.length);
   }
   const order = cs.some((c) => c.order !== null) || cs.length > 0 ? M : null;
   return Y.map((y, j) =>
     j === 0 ? Series.constant(frac(1)) : Series.of(step, 0, y, D ** BigInt(j), order),
   );
+}
+
+/**
+ * The coefficients f * num[i] on the coarsest grid of their offsets: [coarse, stride] with
+ * num[i * stride] = coarse[i] and num zero elsewhere (a c_p in q^(r |p|) has stride r).
+ */
+function onCoarseGrid(num: readonly bigint[], f: bigint): [bigint[], number] {
+  let stride = 0;
+  for (let i = 1; i < num.length && stride !== 1; i++)
+    if (num[i] !== 0n) stride = gcdInt(stride, i);
+  if (stride === 0) stride = 1;
+  const coarse: bigint[] = [];
+  for (let i = 0; i < num.length; i += stride) coarse.push(f === 1n ? num[i]! : num[i]! * f);
+  return [coarse, stride];
 }

@@ -4,7 +4,7 @@
  * transforms (modular/), truncated products (multiply/) and streaming cycle-type walks for class
  * sums (classes/). The rational and series bookkeeping stays in the engine's general layer.
  */
-export { mulTrunc } from './multiply/mul-trunc.js';
+export { mulTrunc, mulTruncStrided } from './multiply/mul-trunc.js';
 export { newtonTable } from './newton/table.js';
 export { chooseNewtonRoute, type NewtonRoute } from './newton/route.js';
 export type { NewtonTableInput, NewtonTableResult } from './newton/types.js';

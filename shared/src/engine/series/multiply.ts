@@ -3,4 +3,4 @@
  * series goes through `mulTrunc` (first n coefficients of the product of two integer arrays),
  * provided by the numeric kernels.
  */
-export { mulTrunc } from '../kernel/index.js';
+export { mulTrunc, mulTruncStrided } from '../kernel/index.js';

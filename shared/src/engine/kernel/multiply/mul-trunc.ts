@@ -135,3 +135,33 @@ export function mulTrunc(a: readonly bigint[], b: readonly bigint[], n: number):
   }
   return mulKronecker(a, b, n);
 }
+
+/**
+ * First n coefficients of A * b where A has non-zero coefficients only at multiples of `stride`:
+ * `coarse[i]` is A's coefficient at index i * stride (a series in q^r times a dense one). The
+ * product splits into `stride` products on the residue classes of b's indices modulo the stride
+ * (b_t[m] = b[m * stride + t]), each `stride` times shorter, so A's zeros cost nothing and every
+ * class still gets the fastest of mulTrunc's methods.
+ */
+export function mulTruncStrided(
+  coarse: readonly bigint[],
+  stride: number,
+  b: readonly bigint[],
+  n: number,
+): bigint[] {
+  if (!Number.isInteger(stride) || stride < 1) throw new RangeError(`stride ${stride} is not >= 1`);
+  if (stride === 1) return mulTrunc(coarse, b, n);
+  const lb = Math.min(b.length, n);
+  const lc = Math.min(coarse.length, Math.ceil(n / stride));
+  if (lb <= 0 || lc <= 0) return [];
+  const len = Math.min(n, (lc - 1) * stride + lb);
+  const out = new Array<bigint>(len).fill(0n);
+  const part: bigint[] = [];
+  for (let t = 0; t < stride && t < lb; t++) {
+    part.length = 0;
+    for (let k = t; k < lb; k += stride) part.push(b[k]!);
+    const prod = mulTrunc(coarse, part, Math.ceil((len - t) / stride));
+    for (let m = 0; m < prod.length; m++) out[t + m * stride] = prod[m]!;
+  }
+  return out;
+}
