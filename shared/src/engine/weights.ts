@@ -4,10 +4,8 @@ import { EngineError, withField } from './errors.js';
 import { evaluateAt, EvalContext, makeContext, Truncation } from './expr/evaluate.js';
 import { parseExpression } from './expr/sandbox.js';
 import { MAX_SPECTRUM_POINTS, STALL_TERMS } from './limits.js';
-import { frac } from './rational.js';
-import { mul, scale } from './series/arith.js';
-import { sumSeries } from './series/sum.js';
-import { coarsen, cutAt, Series } from './series/series.js';
+import { powerSums } from './series/power-sums.js';
+import { coarsen, Series } from './series/series.js';
 import type { GasSpec } from './spec/schema.js';
 
 /** The cycle weights Z_1..Z_nMax of a gas, and for a spectrum the lattice values c_p used. */
@@ -82,25 +80,7 @@ export function cycleWeights(spec: GasSpec, ring: GasRing): CycleWeights {
     return { weights, truncations };
   }
   const { points, truncated } = latticeValues(spec, node, ring, truncations);
-  // the terms m c^L of each Z_L, summed in one pass at the end
-  const terms: Series[][] = [];
-  for (let L = 1; L <= ring.nMax; L++) terms.push([]);
-  for (const [c, m] of withMultiplicity(points)) {
-    const v = c.valExponent();
-    const grows = v !== null && v.compare(0) > 0;
-    let pw = c;
-    for (let L = 1; L <= ring.nMax; L++) {
-      const pv = pw.valExponent();
-      if (grows && ring.cap !== null && (pv === null || pv.compare(ring.cap) >= 0)) break;
-      terms[L - 1]!.push(m === 1 ? pw : scale(pw, frac(m)));
-      if (L < ring.nMax) pw = mul(pw, c, ring.cap);
-    }
-    ring.tick?.();
-  }
-  for (const list of terms) weights.push(sumSeries(list));
-  if (truncated) {
-    for (let L = 0; L < weights.length; L++) weights[L] = cutAt(weights[L]!, ring.cap!);
-  }
+  weights.push(...powerSums(withMultiplicity(points), ring.nMax, ring.cap, truncated, ring.tick));
   return { weights, spectrum: { points, truncated }, truncations };
 }
 
