@@ -1,3 +1,4 @@
+import { PERMISSIONS } from '@traceloom/shared/api';
 import type { AuditEventDto } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { AuditEvent } from '../db/entities/index.js';
@@ -100,7 +101,7 @@ export function auditRoutes(ctx: AppContext): RouteSpec[] {
     {
       method: 'get',
       path: '/audit',
-      access: ['steward', 'admin'],
+      access: PERMISSIONS.readAudit,
       handler: ({ actor, req }) => listAudit(ctx, actor, req.query as Record<string, unknown>),
     },
   ];

@@ -1,4 +1,4 @@
-import { loginSchema, passwordResetSchema } from '@traceloom/shared/api';
+import { PERMISSIONS, loginSchema, passwordResetSchema } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { parseId, parseInput } from '../http/validate.js';
 import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
@@ -24,7 +24,7 @@ export function authRoutes(ctx: AppContext): RouteSpec[] {
     {
       method: 'post',
       path: '/users/:id/invitations',
-      access: ['admin'],
+      access: PERMISSIONS.administer,
       status: 201,
       handler: ({ actor, params }) => reinviteUser(ctx, actor, parseId(params.id, 'The user')),
     },

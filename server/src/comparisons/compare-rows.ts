@@ -1,3 +1,9 @@
+import type {
+  NumericRowVerdictDto,
+  ReferenceRow,
+  RowVerdictDto,
+  SeriesRowVerdictDto,
+} from '@traceloom/shared/api';
 import Fraction from 'fraction.js';
 import {
   compareReferenceRows,
@@ -5,33 +11,8 @@ import {
   EngineError,
   fromValueJson,
   type GasSpec,
-  type RowVerdict,
   type ValueJson,
 } from '@traceloom/shared/engine';
-import type { NumericVerdict } from '../compute/numeric-values.js';
-
-/**
- * A series row verdict as the API gives it ("not compared" when Z(N) is not determined). A row
- * that differs carries both sides whole, so every differing coefficient can be shown:
- * normalization(N) * Z(N) as computed, and the table's value as supplied.
- */
-export type SeriesRowVerdictDto = RowVerdict & {
-  series?: { computed: ValueJson; supplied: ValueJson };
-};
-
-/** A numeric row verdict: computed and supplied values compared within the combined tolerance. */
-export type NumericRowVerdictDto = NumericVerdict & { N: number };
-
-/** A row verdict as the API gives it (series, or numeric with its tolerance). */
-export type RowVerdictDto = SeriesRowVerdictDto | NumericRowVerdictDto;
-
-/** A reference row as stored: its file line, N, the value expression and a note. */
-export interface ReferenceRow {
-  line: number;
-  N: number;
-  value: string;
-  note: string;
-}
 
 /** What the worker needs to compare a finished run with a reference table. */
 export interface CompareTask {

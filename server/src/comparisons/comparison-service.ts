@@ -1,5 +1,7 @@
+import type { ReferenceRow } from '@traceloom/shared/api';
+import { comparisonBodySchema } from '@traceloom/shared/api';
+import type { ComparisonDto, RowVerdictDto } from '@traceloom/shared/api';
 import type { ValueJson } from '@traceloom/shared/engine';
-import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { isNumericResult, isNumericVerdict, readVerdict } from '@traceloom/shared/format';
@@ -12,30 +14,9 @@ import type { WorkerRefusal } from '../runs/worker.js';
 import { loadVisibleRun, loadResult } from '../runs/run-service.js';
 import { isNumericTable } from '../references/reference-parse.js';
 import { loadVisibleReference } from '../references/reference-service.js';
-import type { ReferenceRow, RowVerdictDto } from './compare-rows.js';
 
 /** Wall-clock limit of one comparison in the worker. */
 const COMPARE_LIMIT_MS = 10_000;
-
-/** A stored comparison. */
-export interface ComparisonDto {
-  id: string;
-  runId: string;
-  referenceId: string | null;
-  kind: 'reference' | 'grand';
-  normalization: string;
-  rows: RowVerdictDto[];
-  summary: { agreeing: number; total: number };
-  createdAt: string;
-}
-
-const comparisonBodySchema = z.union(
-  [
-    z.strictObject({ referenceId: z.uuid({ error: 'must be an identifier (UUID)' }) }),
-    z.strictObject({ grand: z.literal(true, { error: 'must be true' }) }),
-  ],
-  { error: 'send {referenceId} or {grand: true}' },
-);
 
 function toDto(c: Comparison, runId: string): ComparisonDto {
   const rows = (JSON.parse(c.verdicts) as RowVerdictDto[]).map(readVerdict);

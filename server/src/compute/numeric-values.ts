@@ -10,9 +10,6 @@ export type NumericValue = Exclude<AnyValue, ValueJson>;
 export type AnyRowVerdict = NonNullable<ComputeResult['grandCheck']>[number];
 export type AnyWeightVerdict = NonNullable<ComputeResult['impliedWeights']>[number];
 
-/** A numeric verdict: compared within `tolerance`, the combined error of both sides. */
-export type NumericVerdict = Extract<AnyRowVerdict | AnyWeightVerdict, { tolerance: string }>;
-
 export { isNumericResult, isNumericValue, isNumericVerdict } from '@traceloom/shared/format';
 
 const DECIMAL = /^\s*([+-]?)(\d*)(?:\.(\d*))?(?:[eE]([+-]?\d+))?\s*$/;

@@ -1,3 +1,4 @@
+import type { RunEstimateDto } from '@traceloom/shared/api';
 import { classTableCost, type GasSpec, type RunEstimate } from '@traceloom/shared/engine';
 import type { AppContext } from '../app-context.js';
 import type { RunLimits } from '../config.js';
@@ -8,15 +9,6 @@ import { computeServices } from './services.js';
 
 /** How long the estimate may take (a fresh worker loads the engine first); beyond it only the cost is given. */
 const ESTIMATE_MS = 8000;
-
-/** A run's estimate with what the server makes of it against the run limits. */
-export interface RunEstimateDto {
-  estimate: RunEstimate;
-  /** Sentences shown before the run: the order is too low for some rows, the run may be slow. */
-  warnings: string[];
-  /** Why a run of this gas would be refused (the class table would not fit), or null. */
-  refusal: { field: string; message: string } | null;
-}
 
 const mb = (n: number): string => `${Math.round(n).toLocaleString('en-US')} MB`;
 

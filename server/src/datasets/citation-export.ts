@@ -1,9 +1,9 @@
+import type { DatasetDocument } from '@traceloom/shared/api';
 import type { Response } from 'express';
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
 import { mailServices } from '../mail/mailer.js';
 import { citationAuthors } from './dataset-authors.js';
-import type { DatasetDocument } from './dataset-document.js';
 import { lockedByHash } from './export-service.js';
 
 /** BibTeX's special characters escaped (common practice: braces around a backslash command). */

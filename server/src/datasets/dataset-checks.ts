@@ -1,7 +1,6 @@
-import type { DatasetCheckDto } from '@traceloom/shared/api';
+import type { DatasetCheckDto, DatasetSnapshot } from '@traceloom/shared/api';
 import type { DatasetWaiver } from '../db/entities/index.js';
 import { routeName, verdictText } from '@traceloom/shared/format';
-import type { DatasetSnapshot } from './snapshot.js';
 
 /** The detail of a check on a row that is not determined at the order. */
 const NOT_COMPARED = 'not compared: Z(N) is not determined at the order';

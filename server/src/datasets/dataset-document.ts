@@ -1,36 +1,13 @@
+import { DATASET_FORMAT } from '@traceloom/shared/api';
 import { createHash } from 'node:crypto';
-import type { DatasetCheckDto, DatasetPersonDto } from '@traceloom/shared/api';
+import type { DatasetDocument, DatasetPersonDto, DatasetSnapshot } from '@traceloom/shared/api';
 import { csvRow, knownSentence, renderCsv, renderLatex } from '@traceloom/shared/format';
 import type { Dataset } from '../db/entities/index.js';
 import { datasetChecks } from './dataset-checks.js';
 import { person, type DatasetChildren } from './dataset-dto.js';
 import { canonicalText } from './canonical-json.js';
 import { datasetAuthors } from './dataset-authors.js';
-import { readSnapshot, type DatasetSnapshot } from './snapshot.js';
-
-/** Format name of a dataset document. */
-export const DATASET_FORMAT = 'traceloom.dataset/1';
-
-/** The document a lock hashes and the JSON export answers: snapshot plus metadata. */
-export interface DatasetDocument {
-  format: typeof DATASET_FORMAT;
-  id: string;
-  title: string;
-  description: string;
-  version: number;
-  supersedes: { id: string; version: number } | null;
-  study: { id: string; title: string };
-  createdBy: DatasetPersonDto;
-  createdAt: string;
-  /** The citation's authors, in order (documents locked before authors were chosen lack it). */
-  authors?: DatasetPersonDto[];
-  lockedBy: DatasetPersonDto;
-  lockedAt: string;
-  snapshot: DatasetSnapshot;
-  checks: DatasetCheckDto[];
-  reviews: Array<{ reviewer: DatasetPersonDto; verdict: string; comment: string; at: string }>;
-  comments: Array<{ author: DatasetPersonDto; N: number | null; body: string; at: string }>;
-}
+import { readSnapshot } from './snapshot.js';
 
 /** Builds the document of `d` as it is locked by `lockedBy` at `lockedAt`. */
 export function buildDocument(

@@ -1,7 +1,9 @@
+import { may } from '@traceloom/shared/api';
 import type {
   DatasetCreateRequest,
   DatasetDto,
   DatasetPatchRequest,
+  DatasetSnapshot,
   DatasetSummaryDto,
   ReviewInboxEntryDto,
 } from '@traceloom/shared/api';
@@ -22,7 +24,6 @@ import {
   loadWritableDataset,
 } from './dataset-access.js';
 import { latestVerdicts, person, toDatasetDto, toSummary } from './dataset-dto.js';
-import type { DatasetSnapshot } from './snapshot.js';
 import { canEditAuthors, writeAuthors } from './dataset-authors.js';
 
 /**
@@ -166,7 +167,7 @@ function assertCanEditDraft(actor: Actor, d: Dataset): void {
       'Only a draft can be edited or deleted; this one is in review.',
     );
   }
-  if (d.createdBy.id !== actor.id && actor.role !== 'steward' && actor.role !== 'admin') {
+  if (d.createdBy.id !== actor.id && !may(actor.role, 'editAnyDraft')) {
     throw forbidden("Only the dataset's author, a steward or an admin may edit or delete a draft.");
   }
 }

@@ -1,3 +1,4 @@
+import { DATASET_FORMAT } from '@traceloom/shared/api';
 import type { Response } from 'express';
 import { isNumericResult, renderMatrix } from '@traceloom/shared/format';
 import { z } from 'zod';
@@ -8,13 +9,7 @@ import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { DATASET_RELATIONS, loadVisibleDataset } from './dataset-access.js';
 import { citationAuthors } from './dataset-authors.js';
-import {
-  canonicalHash,
-  DATASET_FORMAT,
-  datasetCsv,
-  datasetLatex,
-  type DatasetDocument,
-} from './dataset-document.js';
+import { canonicalHash, datasetCsv, datasetLatex } from './dataset-document.js';
 import { citationOf, supersededBy, toSummary } from './dataset-dto.js';
 import { readSnapshot } from './snapshot.js';
 

@@ -1,7 +1,7 @@
-import type { LockPreviewDto } from '@traceloom/shared/api';
+import type { DatasetDocument, LockPreviewDto } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import type { Actor } from '../http/route-table.js';
-import { buildDocument, canonicalHash, type DatasetDocument } from './dataset-document.js';
+import { buildDocument, canonicalHash } from './dataset-document.js';
 import { person } from './dataset-dto.js';
 import { loadLockable } from './lock-service.js';
 import { snapshotOrder } from './snapshot.js';

@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import type { DatasetLockInput } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
 import type { AppContext } from '../app-context.js';
@@ -31,7 +32,7 @@ import { datasetLink } from './review-service.js';
  */
 export async function loadLockable(manager: EntityManager, actor: Actor, datasetId: string) {
   const d = await loadWritableDataset(manager, actor, datasetId);
-  if (actor.role !== 'steward') throw forbidden('Only a steward may lock a dataset.');
+  if (!may(actor.role, 'lock')) throw forbidden('Only a steward may lock a dataset.');
   if (d.createdBy.id === actor.id) {
     throw new AppError(
       403,
@@ -146,7 +147,7 @@ export async function withdrawDataset(
 ): Promise<{ state: 'withdrawn' }> {
   await ctx.dataSource.transaction(async (manager) => {
     const d = await loadWritableDataset(manager, actor, datasetId);
-    if (actor.role !== 'steward') throw forbidden('Only a steward may withdraw a dataset.');
+    if (!may(actor.role, 'lock')) throw forbidden('Only a steward may withdraw a dataset.');
     const now = new Date().toISOString();
     await manager
       .getRepository(Dataset)

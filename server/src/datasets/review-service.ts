@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import type { z } from 'zod';
 import type {
   datasetCommentSchema,
@@ -68,7 +69,7 @@ export async function requestReview(
       const user = users.find((u) => u.id === id);
       if (!user)
         throw new AppError(404, 'not_found', `${field}: no active user has this id.`, field);
-      if (user.role !== 'reviewer' && user.role !== 'steward') {
+      if (!may(user.role, 'review')) {
         throw new AppError(
           400,
           'invalid_input',
@@ -234,7 +235,7 @@ export async function addWaiver(
 ): Promise<DatasetDto> {
   await ctx.dataSource.transaction(async (manager) => {
     const d = await loadWritableDataset(manager, actor, datasetId);
-    if (actor.role !== 'steward') throw forbidden('Only a steward may waive a check.');
+    if (!may(actor.role, 'lock')) throw forbidden('Only a steward may waive a check.');
     assertOpen(d);
     const { check, N, reason } = input();
     const rows = datasetChecks(readSnapshot(d.snapshot), []).filter((c) => c.check === check);

@@ -1,17 +1,6 @@
-import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
+import type { DatasetSnapshot } from '@traceloom/shared/api';
 import { readResultVerdicts, readVerdict, seriesOrder } from '@traceloom/shared/format';
 import type { AnyValue } from '../compute/numeric-values.js';
-import type { ComparisonDto } from '../comparisons/comparison-service.js';
-
-/** What a dataset freezes of its run: stored as JSON text in `dataset.snapshot`. */
-export interface DatasetSnapshot {
-  gas: { id: string; title: string; version: number };
-  run: { id: string; finishedAt: string | null; durationMs: number | null };
-  spec: GasSpec;
-  /** The full result, class rows included. */
-  result: ComputeResult;
-  comparisons: Array<Pick<ComparisonDto, 'id' | 'referenceId' | 'kind' | 'normalization' | 'rows'>>;
-}
 
 /**
  * Parses the stored snapshot text; verdicts stored under the older side names (expected/found)

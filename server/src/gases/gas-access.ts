@@ -1,3 +1,4 @@
+import { PERMISSIONS, may } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
 import { Gas } from '../db/entities/index.js';
 import { forbidden, notFound } from '../http/app-error.js';
@@ -5,10 +6,10 @@ import type { Actor } from '../http/route-table.js';
 import { canSee, STUDY_RELATIONS } from '../studies/study-access.js';
 
 /** Roles that may define gases and start or cancel runs (with access to the study). */
-export const GAS_EDITORS = ['author', 'steward', 'admin'] as const;
+export const GAS_EDITORS = PERMISSIONS.editGases;
 
 /** Roles that may upload reference tables and compare (reviewers reproduce papers). */
-export const CHECKERS = ['author', 'reviewer', 'steward', 'admin'] as const;
+export const CHECKERS = PERMISSIONS.check;
 
 /**
  * Loads a gas whose study the actor may see (deleted gases too: they stay readable by id),
@@ -29,7 +30,7 @@ export async function loadVisibleGas(
 
 /** Changing a gas, or running it: an author, steward or admin with access to its study. */
 export function assertCanChangeGas(actor: Actor): void {
-  if (!(GAS_EDITORS as readonly string[]).includes(actor.role)) {
+  if (!may(actor.role, 'editGases')) {
     throw forbidden('Only an author, steward or admin may change or run a gas.');
   }
 }

@@ -1,44 +1,5 @@
-import type { GasSpec } from '@traceloom/shared/engine';
+import type { GasDto, GasSpec, GasVersionDto, PersonRef } from '@traceloom/shared/api';
 import type { Gas, GasVersion, Run, User } from '../db/entities/index.js';
-
-/** A person as gas, run and reference answers name them. */
-export interface PersonRef {
-  id: string;
-  displayName: string;
-}
-
-/** One line of a study's gas list. */
-export interface GasSummary {
-  id: string;
-  studyId: string;
-  title: string;
-  statistics: GasSpec['statistics'];
-  weightsKind: GasSpec['weights']['kind'];
-  version: number;
-  updatedAt: string;
-  updatedBy: PersonRef;
-  lastRun: { id: string; status: Run['status']; finishedAt: string | null } | null;
-}
-
-/** A gas with its current spec and the list of its versions. */
-export interface GasDto {
-  id: string;
-  studyId: string;
-  title: string;
-  version: number;
-  spec: GasSpec;
-  versions: Array<{ version: number; createdAt: string; createdBy: PersonRef }>;
-  createdAt: string;
-  updatedAt: string;
-}
-
-/** One stored version of a gas. */
-export interface GasVersionDto {
-  version: number;
-  spec: GasSpec;
-  createdAt: string;
-  createdBy: PersonRef;
-}
 
 /** `{id, displayName}` of a loaded user. */
 export function personRef(user: Pick<User, 'id' | 'displayName'>): PersonRef {

@@ -1,14 +1,11 @@
+import { gasBodySchema } from '@traceloom/shared/api';
 import { fieldLabel } from '@traceloom/shared/format';
 import { EngineError, parseGasSpec, type GasSpec } from '@traceloom/shared/engine';
-import { z } from 'zod';
 import { AppError } from '../http/app-error.js';
 import { parseInput } from '../http/validate.js';
 
 /** Most entries a `values` list (cycle weights or grand coefficients) may have. */
 export const MAX_LIST_ENTRIES = 1000;
-
-/** Body of `POST /studies/:id/gases`, `PUT /gases/:id` and `POST /compute`. */
-export const gasBodySchema = z.strictObject({ spec: z.unknown() });
 
 function refuse(message: string, field: string): never {
   throw new AppError(400, 'invalid_spec', `${fieldLabel(field)}: ${message}.`, field);

@@ -1,3 +1,4 @@
+import type { GasDto, GasSummary, GasVersionDto } from '@traceloom/shared/api';
 import type { GasSpec } from '@traceloom/shared/engine';
 import { In, type EntityManager } from 'typeorm';
 import type { AppContext } from '../app-context.js';
@@ -7,15 +8,7 @@ import { notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { loadVisibleStudy } from '../studies/study-access.js';
 import { assertCanChangeGas, loadVisibleGas } from './gas-access.js';
-import {
-  personRef,
-  specOf,
-  toGasDto,
-  toGasVersionDto,
-  type GasDto,
-  type GasSummary,
-  type GasVersionDto,
-} from './gas-dto.js';
+import { personRef, specOf, toGasDto, toGasVersionDto } from './gas-dto.js';
 
 /** The title a spec gives its gas. */
 function titleOf(spec: GasSpec): string {

@@ -1,3 +1,4 @@
+import { PERMISSIONS } from '@traceloom/shared/api';
 import { once } from 'node:events';
 import { Router, type Request, type RequestHandler, type Response } from 'express';
 import type { Role } from '@traceloom/shared/api';
@@ -55,7 +56,7 @@ export interface RouteSpec {
 }
 
 /** Every role, for routes any signed-in person may call (resource checks may still refuse). */
-export const ANY_ROLE: readonly Role[] = ['author', 'reviewer', 'steward', 'admin'];
+export const ANY_ROLE: readonly Role[] = PERMISSIONS.signedIn;
 
 /** `METHOD /path`, the key tests and logs use for a route. */
 export function routeKey(route: Pick<RouteSpec, 'method' | 'path'>): string {

@@ -1,7 +1,8 @@
+import type { MailboxMessageDto } from '@traceloom/shared/api';
 import { randomBytes, timingSafeEqual } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { SMTPServer } from 'smtp-server';
-import { parseMessage, type StoredMessage } from './mail-parse.js';
+import { parseMessage } from './mail-parse.js';
 
 /** The most messages the fake keeps; older ones are dropped first. */
 const KEEP = 500;
@@ -22,7 +23,7 @@ function same(a: string, b: string): boolean {
  * message ever leaves the machine, and another local process cannot plant one.
  */
 export class MailFake {
-  private readonly messages: StoredMessage[] = [];
+  private readonly messages: MailboxMessageDto[] = [];
   private nextId = 1;
   /** The user name and password a client must give (AUTH PLAIN or LOGIN). */
   readonly credentials = {
@@ -80,7 +81,7 @@ export class MailFake {
   }
 
   /** Stored messages, newest first. */
-  list(): StoredMessage[] {
+  list(): MailboxMessageDto[] {
     return [...this.messages].reverse();
   }
 

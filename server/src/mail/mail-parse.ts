@@ -1,19 +1,4 @@
-/** A message as the local mail fake stored it. */
-export interface StoredMessage {
-  id: number;
-  receivedAt: string;
-  /** SMTP envelope: who the message was handed to. */
-  envelope: { from: string; to: string[] };
-  /** Header names (lower case) in the order they arrived, decoded values. */
-  headers: Array<[name: string, value: string]>;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  /** The message exactly as it arrived over SMTP. */
-  raw: string;
-}
-
+import type { MailboxMessageDto } from '@traceloom/shared/api';
 /** Decodes RFC 2047 encoded words (`=?utf-8?Q?...?=`, `=?utf-8?B?...?=`) in a header value. */
 export function decodeWords(value: string): string {
   const decoded = value.replace(
@@ -51,7 +36,7 @@ function decodeBody(body: string, encoding: string): string {
  */
 export function parseMessage(
   raw: string,
-): Pick<StoredMessage, 'headers' | 'subject' | 'from' | 'to' | 'text'> {
+): Pick<MailboxMessageDto, 'headers' | 'subject' | 'from' | 'to' | 'text'> {
   const split = raw.search(/\r?\n\r?\n/);
   const head = split < 0 ? raw : raw.slice(0, split);
   const body = split < 0 ? '' : raw.slice(split).replace(/^\r?\n\r?\n/, '');

@@ -1,6 +1,6 @@
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
-import { invitationAcceptSchema } from '@traceloom/shared/api';
+import { PERMISSIONS, invitationAcceptSchema } from '@traceloom/shared/api';
 import type { RouteSpec } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { acceptInvitation } from './invitation-keys.js';
@@ -22,7 +22,7 @@ export function mailRoutes(ctx: AppContext): RouteSpec[] {
     {
       method: 'get',
       path: '/dev/mailbox',
-      access: ['admin'],
+      access: PERMISSIONS.administer,
       handler: async () => {
         await services.ready;
         if (!services.fake) {

@@ -1,5 +1,6 @@
+import { productQuerySchema } from '@traceloom/shared/api';
+import type { ProductFormDto } from '@traceloom/shared/api';
 import type { GrandProductJson, SeriesProductJson, ValueJson } from '@traceloom/shared/engine';
-import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { isNumericResult } from '../compute/numeric-values.js';
 import { runWithin } from '../compute/refusal.js';
@@ -13,30 +14,6 @@ import type { ProductTask } from './product-task.js';
 
 /** Wall-clock limit of one product form in the worker. */
 const PRODUCT_LIMIT_MS = 10_000;
-
-const whole = (what: string) =>
-  z
-    .string({ error: `must be a whole number ${what}` })
-    .regex(/^\d{1,4}$/, { error: `must be a whole number ${what}` })
-    .transform(Number);
-
-/** The query of `GET /runs/:id/product-form`: `of=row&N=3`, `of=weight&L=2` or `of=grand`. */
-export const productQuerySchema = z.discriminatedUnion(
-  'of',
-  [
-    z.object({ of: z.literal('row'), N: whole('N') }),
-    z.object({ of: z.literal('weight'), L: whole('L') }),
-    z.object({ of: z.literal('grand') }),
-  ],
-  { error: 'must be row, weight or grand' },
-);
-
-/** A product form for the client, with the run it was read from. */
-export type ProductFormDto = { runId: string } & (
-  | ({ target: 'row'; N: number } & SeriesProductJson)
-  | ({ target: 'weight'; L: number } & SeriesProductJson)
-  | ({ target: 'grand' } & GrandProductJson)
-);
 
 /**
  * The product form of one canonical row, one cycle weight or the grand function of a finished

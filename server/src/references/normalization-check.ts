@@ -1,7 +1,7 @@
+import type { ReferenceRow } from '@traceloom/shared/api';
 import Fraction from 'fraction.js';
 import { EngineError, evaluateSeries, parseExpression } from '@traceloom/shared/engine';
 import { AppError } from '../http/app-error.js';
-import type { ReferenceRow } from '../comparisons/compare-rows.js';
 
 /** Names a numeric normalization may read besides N (the numeric language's constants). */
 const NUMERIC_CONSTANTS = new Set(['pi', 'e']);

@@ -1,54 +1,21 @@
-import { MAX_EXPRESSION_LENGTH } from '@traceloom/shared/engine';
+import { may } from '@traceloom/shared/api';
+import type { ReferenceRow } from '@traceloom/shared/api';
+import { referencePatchSchema } from '@traceloom/shared/api';
+import type { ReferenceComparisonDto, ReferenceDto, RowVerdictDto } from '@traceloom/shared/api';
 import { readVerdict } from '@traceloom/shared/format';
-import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
-import type { ReferenceRow, RowVerdictDto } from '../comparisons/compare-rows.js';
 import { Comparison, Dataset, ReferenceTable } from '../db/entities/index.js';
-import { GAS_EDITORS } from '../gases/gas-access.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { checkNormalization } from './normalization-check.js';
 import { isNumericTable } from './reference-parse.js';
-import { getReference, loadVisibleReference, type ReferenceDto } from './reference-service.js';
-
-/** One comparison of a reference table with a run, as the table's page lists it. */
-export interface ReferenceComparisonDto {
-  id: string;
-  runId: string;
-  gasId: string;
-  gasTitle: string;
-  gasVersion: number;
-  normalization: string;
-  summary: { agreeing: number; total: number };
-  createdAt: string;
-}
-
-const referencePatchSchema = z
-  .strictObject({
-    title: z
-      .string({ error: 'must be text' })
-      .trim()
-      .min(1, 'must not be empty')
-      .max(200, 'must be at most 200 characters')
-      .optional(),
-    normalization: z
-      .string({ error: 'must be text' })
-      .trim()
-      .min(1, 'must not be empty')
-      .max(MAX_EXPRESSION_LENGTH, `must be at most ${MAX_EXPRESSION_LENGTH} characters`)
-      .optional(),
-    note: z
-      .string({ error: 'must be text' })
-      .max(5000, 'must be at most 5000 characters')
-      .optional(),
-  })
-  .refine((v) => Object.keys(v).length > 0, { error: 'send title, normalization or note' });
+import { getReference, loadVisibleReference } from './reference-service.js';
 
 /** The uploader, or a role that edits gases, may change or delete a table of a visible study. */
 function assertCanChange(actor: Actor, table: ReferenceTable): void {
-  const editor = (GAS_EDITORS as readonly string[]).includes(actor.role);
+  const editor = may(actor.role, 'editGases');
   if (!editor && table.createdBy.id !== actor.id) throw forbidden();
 }
 

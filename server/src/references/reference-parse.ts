@@ -1,3 +1,4 @@
+import type { ReferenceRow } from '@traceloom/shared/api';
 import {
   EngineError,
   MAX_EXPRESSION_LENGTH,
@@ -5,7 +6,6 @@ import {
   parseExpression,
 } from '@traceloom/shared/engine';
 import { AppError } from '../http/app-error.js';
-import type { ReferenceRow } from '../comparisons/compare-rows.js';
 import { parseCsv } from './csv.js';
 import { assertDense, mostRows } from './reference-density.js';
 import { claimedKind, textContent } from './sniff.js';

@@ -1,12 +1,12 @@
+import type { ReferenceRow } from '@traceloom/shared/api';
+import { referenceUploadFieldsSchema } from '@traceloom/shared/api';
+import type { ReferenceDto, ReferenceSummary } from '@traceloom/shared/api';
 import { createHash } from 'node:crypto';
-import { MAX_EXPRESSION_LENGTH } from '@traceloom/shared/engine';
 import type { Request, Response } from 'express';
-import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
-import type { ReferenceRow } from '../comparisons/compare-rows.js';
 import { ReferenceTable } from '../db/entities/index.js';
-import { personRef, type PersonRef } from '../gases/gas-dto.js';
+import { personRef } from '../gases/gas-dto.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
@@ -17,49 +17,6 @@ import { assertWithinQuota, DEFAULT_REFERENCE_QUOTA } from './reference-quota.js
 import { computeServices } from '../compute/services.js';
 import type { WorkerAppError } from '../runs/worker.js';
 import { receiveUpload, type Upload } from './receive-upload.js';
-
-/** A reference table in a list. */
-export interface ReferenceSummary {
-  id: string;
-  studyId: string;
-  title: string;
-  filename: string;
-  contentType: string;
-  sha256: string;
-  normalization: string;
-  variable: string;
-  note: string;
-  /** Every value is a decimal number: compared with a numeric run within tolerance. */
-  numeric: boolean;
-  rowCount: number;
-  createdAt: string;
-  createdBy: PersonRef;
-}
-
-/** A reference table with its rows. */
-export interface ReferenceDto extends Omit<ReferenceSummary, 'rowCount'> {
-  rows: ReferenceRow[];
-}
-
-const uploadFieldsSchema = z.object({
-  title: z
-    .string()
-    .trim()
-    .min(1, 'must not be empty')
-    .max(200, 'must be at most 200 characters')
-    .optional(),
-  normalization: z
-    .string()
-    .trim()
-    .min(1, 'must not be empty')
-    .max(MAX_EXPRESSION_LENGTH, `must be at most ${MAX_EXPRESSION_LENGTH} characters`)
-    .optional(),
-  variable: z
-    .string()
-    .regex(/^[a-df-hj-z]$/, 'must be one lower-case letter other than e and i')
-    .optional(),
-  note: z.string().max(5000, 'must be at most 5000 characters').optional(),
-});
 
 function toSummary(table: ReferenceTable): ReferenceSummary {
   return {
@@ -158,7 +115,7 @@ export async function uploadReference(
   const who = { userId: actor.id, studyId };
   const dryRun = req.query.dryRun === '1' || req.query.dryRun === 'true';
   const { file, fields } = await receiveUpload(req, res, ctx.config.uploadLimitBytes);
-  const input = parseInput(uploadFieldsSchema, fields);
+  const input = parseInput(referenceUploadFieldsSchema, fields);
   // Before the worker reads it; checked again in the transaction that stores it.
   if (!dryRun) await assertWithinQuota(ctx.dataSource.manager, quota, who, file.bytes.length);
   const parsed = await parseInWorker(ctx, file, input.normalization, input.variable ?? 'q');

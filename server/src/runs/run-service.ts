@@ -1,9 +1,10 @@
+import type { RunDto, RunEstimateDto, RunSummary } from '@traceloom/shared/api';
 import type { ComputeResult, RunEstimate } from '@traceloom/shared/engine';
 import { readResultVerdicts } from '@traceloom/shared/format';
 import { In } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
-import { assertRunFits, estimateSpec, type RunEstimateDto } from '../compute/run-estimate.js';
+import { assertRunFits, estimateSpec } from '../compute/run-estimate.js';
 import { computeServices } from '../compute/services.js';
 import { Run, RunClassPage } from '../db/entities/index.js';
 import { assertCanChangeGas, loadVisibleGas } from '../gases/gas-access.js';
@@ -12,7 +13,7 @@ import { AppError, notFound } from '../http/app-error.js';
 import { JsonPieces, type Actor } from '../http/route-table.js';
 import { canSee, STUDY_RELATIONS } from '../studies/study-access.js';
 import { classRowsJson, resultJson } from './class-pages.js';
-import { toRunSummary, type RunDto, type RunSummary } from './run-dto.js';
+import { toRunSummary } from './run-dto.js';
 
 /** Statuses a run can still leave. */
 export const ACTIVE_STATUSES = ['queued', 'running'] as const;

@@ -1,3 +1,4 @@
+import type { DatasetSnapshot } from '@traceloom/shared/api';
 import { gunzipSync, gzipSync } from 'node:zlib';
 import type { MessagePort } from 'node:worker_threads';
 import { compute, EngineError, estimateRun, type Progress } from '@traceloom/shared/engine';
@@ -8,7 +9,6 @@ import {
   type NumericCompareTask,
 } from '../comparisons/compare-rows.js';
 import { resultMismatches } from '../datasets/result-compare.js';
-import type { DatasetSnapshot } from '../datasets/snapshot.js';
 import { AppError } from '../http/app-error.js';
 import { productTask, type ProductTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';

@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
 import { Study } from '../db/entities/index.js';
 import { forbidden, notFound } from '../http/app-error.js';
@@ -33,7 +34,7 @@ export async function loadVisibleStudy(
 
 /** Title and description: the owner, an admin, or a member whose role is author or steward. */
 export function assertCanEdit(actor: Actor, study: Study): void {
-  const editorRole = actor.role === 'author' || actor.role === 'steward';
+  const editorRole = may(actor.role, 'editStudies');
   if (actor.role === 'admin' || study.owner.id === actor.id || editorRole) return;
   throw forbidden('Only the owner, an admin, or an author or steward member may edit this study.');
 }

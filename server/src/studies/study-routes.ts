@@ -1,4 +1,9 @@
-import { memberAddSchema, studyCreateSchema, studyPatchSchema } from '@traceloom/shared/api';
+import {
+  PERMISSIONS,
+  memberAddSchema,
+  studyCreateSchema,
+  studyPatchSchema,
+} from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
 import { parseId, parseInput } from '../http/validate.js';
@@ -13,7 +18,7 @@ import {
 } from './study-service.js';
 
 /** Roles that can own a study, and so create, edit, delete and manage members of one. */
-const STUDY_EDITORS = ['author', 'steward', 'admin'] as const;
+const STUDY_EDITORS = PERMISSIONS.editStudies;
 
 /** Study routes. Route-level roles first; owner/member checks happen in the domain functions. */
 export function studyRoutes(ctx: AppContext): RouteSpec[] {

@@ -1,4 +1,4 @@
-import { inviteSchema, userPatchSchema } from '@traceloom/shared/api';
+import { PERMISSIONS, inviteSchema, userPatchSchema } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { ANY_ROLE, type RouteSpec } from '../http/route-table.js';
 import { parseId, parseInput } from '../http/validate.js';
@@ -7,11 +7,16 @@ import { inviteUser, listUsers, patchUser, userDirectory } from './user-service.
 /** User administration (admin) and the member directory (everyone signed in). */
 export function userRoutes(ctx: AppContext): RouteSpec[] {
   return [
-    { method: 'get', path: '/users', access: ['admin'], handler: () => listUsers(ctx) },
+    {
+      method: 'get',
+      path: '/users',
+      access: PERMISSIONS.administer,
+      handler: () => listUsers(ctx),
+    },
     {
       method: 'post',
       path: '/users',
-      access: ['admin'],
+      access: PERMISSIONS.administer,
       status: 201,
       handler: ({ actor, body }) => inviteUser(ctx, actor, parseInput(inviteSchema, body)),
     },
@@ -24,7 +29,7 @@ export function userRoutes(ctx: AppContext): RouteSpec[] {
     {
       method: 'patch',
       path: '/users/:id',
-      access: ['admin'],
+      access: PERMISSIONS.administer,
       handler: ({ actor, params, body }) =>
         patchUser(ctx, actor, parseId(params.id, 'The user'), parseInput(userPatchSchema, body)),
     },

@@ -10,3 +10,39 @@ export type Role = (typeof ROLES)[number];
 export const roleSchema = z.enum(ROLES, {
   error: 'must be one of author, reviewer, steward, admin',
 });
+
+/**
+ * Who may do what, by role: the one table the server's route guards and domain checks and the
+ * client's menus and buttons read. A person's membership of a study (and being a draft's
+ * creator or a study's owner) is checked beside it, per resource.
+ */
+export const PERMISSIONS = {
+  /** Sign in and read what their studies hold. */
+  signedIn: ROLES,
+  /** Create studies and edit those they own or belong to. */
+  editStudies: ['author', 'steward', 'admin'],
+  /** Create and edit gases, start and cancel runs, edit any reference table of the study. */
+  editGases: ['author', 'steward', 'admin'],
+  /** Upload reference tables and compare runs with them. */
+  check: ROLES,
+  /** Make a dataset from a run (and edit or delete the drafts one made). */
+  makeDatasets: ['author', 'steward', 'admin'],
+  /** Edit or delete anyone's draft dataset, request reviews of it. */
+  editAnyDraft: ['steward', 'admin'],
+  /** Be asked for a review and give a verdict. */
+  review: ['reviewer', 'steward'],
+  /** Waive a failing check, lock and withdraw a dataset. */
+  lock: ['steward'],
+  /** Read the audit log (stewards: their studies' events, without addresses). */
+  readAudit: ['steward', 'admin'],
+  /** Manage users and invitations; read the local mail fake. */
+  administer: ['admin'],
+} as const satisfies Record<string, readonly Role[]>;
+
+/** A name of a row of `PERMISSIONS`. */
+export type Permission = keyof typeof PERMISSIONS;
+
+/** True when `role` may do `permission` (false when signed out). */
+export function may(role: Role | null | undefined, permission: Permission): boolean {
+  return !!role && (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}

@@ -1,3 +1,4 @@
+import { PERMISSIONS } from '@traceloom/shared/api';
 import { Routes } from '@angular/router';
 import { roleGuard, signedInGuard, signedOutGuard } from './core/guards';
 
@@ -72,13 +73,13 @@ export const routes: Routes = [
       {
         path: 'audit',
         title: 'Audit log · Traceloom',
-        canActivate: [roleGuard('steward', 'admin')],
+        canActivate: [roleGuard(...PERMISSIONS.readAudit)],
         loadComponent: () => import('./audit/audit-log').then((m) => m.AuditLog),
       },
       {
         path: 'admin/mailbox',
         title: 'Mailbox · Traceloom',
-        canActivate: [roleGuard('admin')],
+        canActivate: [roleGuard(...PERMISSIONS.administer)],
         loadComponent: () => import('./mailbox/mailbox').then((m) => m.Mailbox),
       },
       {
@@ -94,7 +95,7 @@ export const routes: Routes = [
       {
         path: 'admin/users',
         title: 'Users · Traceloom',
-        canActivate: [roleGuard('admin')],
+        canActivate: [roleGuard(...PERMISSIONS.administer)],
         loadComponent: () => import('./admin/user-list').then((m) => m.UserList),
       },
     ],

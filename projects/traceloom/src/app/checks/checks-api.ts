@@ -1,50 +1,27 @@
-import type { MismatchJson } from '@traceloom/shared/format';
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { SeriesJson } from './series-diff';
-import type { PersonRef } from '../gases/gases-api';
+import type {
+  ComparisonDto,
+  ComparisonRequest,
+  ReferenceComparisonDto,
+  ReferenceDto,
+  ReferencePatch,
+  ReferencePreview,
+  ReferenceSummary,
+} from '@traceloom/shared/api';
 
-/** One parsed row of a reference table (with the file line it came from). */
-export interface ReferenceRow {
-  line: number;
-  N: number;
-  value: string;
-  note: string | null;
-}
-
-/** A row-level problem of an uploaded table. */
-export interface ReferenceRowError {
-  line: number;
-  message: string;
-  field?: string;
-}
-
-/** A reference table in a study's list. */
-export interface ReferenceSummary {
-  id: string;
-  studyId: string;
-  title: string;
-  filename: string;
-  normalization: string;
-  variable: string;
-  createdAt: string;
-  createdBy: PersonRef;
-  rowCount?: number;
-}
-
-/** A stored reference table with its rows. */
-export interface ReferenceDto extends ReferenceSummary {
-  contentType: string;
-  note: string | null;
-  rows: ReferenceRow[];
-}
-
-/** The dry-run answer of an upload: what would be stored, and what is wrong. */
-export interface ReferencePreview {
-  rows: ReferenceRow[];
-  errors: ReferenceRowError[];
-}
+export type {
+  ComparisonDto,
+  ReferenceComparisonDto,
+  ReferenceDto,
+  ReferencePatch,
+  ReferencePreview,
+  ReferenceRow,
+  ReferenceRowError,
+  ReferenceSummary,
+  RowVerdictDto,
+} from '@traceloom/shared/api';
 
 /** The descriptive fields sent along with an uploaded file. */
 export interface ReferenceFields {
@@ -52,48 +29,6 @@ export interface ReferenceFields {
   normalization: string;
   variable: string;
   note: string;
-}
-
-/** The verdict for one N of a comparison. */
-export interface ComparisonRow {
-  N: number;
-  /** null: not compared (the computed row is not determined at the order). */
-  agrees: boolean | null;
-  agreesBelow: string | null;
-  firstMismatch: MismatchJson | null;
-  /** A differing series row: normalization × Z(N) as computed and the table's value, whole. */
-  series?: { computed: SeriesJson; supplied: SeriesJson };
-}
-
-/** A stored comparison of a run with a reference table or with its grand function. */
-export interface ComparisonDto {
-  id: string;
-  runId: string;
-  referenceId: string | null;
-  kind: 'reference' | 'grand';
-  normalization: string | null;
-  rows: ComparisonRow[];
-  summary: { agreeing: number; total: number };
-  createdAt: string;
-}
-
-/** One comparison of a reference table with a run, as the table's page lists it. */
-export interface ReferenceComparison {
-  id: string;
-  runId: string;
-  gasId: string;
-  gasTitle: string;
-  gasVersion: number;
-  normalization: string;
-  summary: { agreeing: number; total: number };
-  createdAt: string;
-}
-
-/** The editable fields of a stored reference table. */
-export interface ReferencePatch {
-  title?: string;
-  normalization?: string;
-  note?: string;
 }
 
 /** Reference tables and comparisons. */
@@ -119,8 +54,8 @@ export class ChecksApi {
     return this.http.delete<void>(`/api/references/${encodeURIComponent(id)}`);
   }
 
-  referenceComparisons(id: string): Observable<ReferenceComparison[]> {
-    return this.http.get<ReferenceComparison[]>(
+  referenceComparisons(id: string): Observable<ReferenceComparisonDto[]> {
+    return this.http.get<ReferenceComparisonDto[]>(
       `/api/references/${encodeURIComponent(id)}/comparisons`,
     );
   }
@@ -145,10 +80,7 @@ export class ChecksApi {
     return this.http.get<ComparisonDto[]>(`/api/runs/${encodeURIComponent(runId)}/comparisons`);
   }
 
-  compare(
-    runId: string,
-    body: { referenceId: string } | { grand: true },
-  ): Observable<ComparisonDto> {
+  compare(runId: string, body: ComparisonRequest): Observable<ComparisonDto> {
     return this.http.post<ComparisonDto>(
       `/api/runs/${encodeURIComponent(runId)}/comparisons`,
       body,

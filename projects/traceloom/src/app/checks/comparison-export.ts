@@ -1,4 +1,11 @@
-import { readMismatch, tableLatex, toCsv, type ExportTable } from '@traceloom/shared/format';
+import {
+  isNumericVerdict,
+  numericVerdictText,
+  readMismatch,
+  tableLatex,
+  toCsv,
+  type ExportTable,
+} from '@traceloom/shared/format';
 import type { ComparisonDto } from './checks-api';
 
 /** A comparison's rows for the CSV/LaTeX exports: both sides of the first mismatch. */
@@ -6,6 +13,7 @@ export function comparisonExport(comparison: ComparisonDto): ExportTable {
   return {
     columns: ['N', 'verdict', 'agrees below', 'first mismatch at', 'computed', 'supplied'],
     rows: comparison.rows.map((r) => {
+      if (isNumericVerdict(r)) return [String(r.N), numericVerdictText(r), '', '', '', ''];
       const m = readMismatch(r.firstMismatch);
       return [
         String(r.N),

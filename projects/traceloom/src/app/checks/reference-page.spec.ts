@@ -1,7 +1,7 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { signInAs, testProviders, testUser } from '../core/session-testing';
-import type { ReferenceComparison, ReferenceDto } from './checks-api';
+import type { ReferenceComparisonDto, ReferenceDto } from './checks-api';
 import { ReferencePage } from './reference-page';
 
 const ID = '7c000000-0000-4000-8000-000000000001';
@@ -14,6 +14,8 @@ function table(rowCount: number, createdBy = { id: 'someone', displayName: 'Ines
     title: 'Table 2 of the note',
     filename: 'note.csv',
     contentType: 'text/csv',
+    sha256: '0'.repeat(64),
+    numeric: false,
     normalization: 'q^(-N^2/2)',
     variable: 'q',
     note: '',
@@ -23,12 +25,12 @@ function table(rowCount: number, createdBy = { id: 'someone', displayName: 'Ines
       line: N + 2,
       N,
       value: `${N + 1}`,
-      note: null,
+      note: '',
     })),
   } satisfies ReferenceDto;
 }
 
-const COMPARISON: ReferenceComparison = {
+const COMPARISON: ReferenceComparisonDto = {
   id: 'c1',
   runId: '9d000000-0000-4000-8000-000000000001',
   gasId: 'g1',

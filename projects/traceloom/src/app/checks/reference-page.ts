@@ -29,7 +29,7 @@ import { GasesApi } from '../gases/gases-api';
 import { canWriteGases } from '../gases/gas-roles';
 import { RunsApi } from '../runs/runs-api';
 import { StudyCrumb } from '../studies/study-crumb';
-import { ChecksApi, ReferenceComparison, ReferenceDto } from './checks-api';
+import { ChecksApi, ReferenceComparisonDto, ReferenceDto } from './checks-api';
 
 /** A finished run of the study that the table may be compared with. */
 interface RunChoice {
@@ -77,7 +77,7 @@ export class ReferencePage {
 
   protected readonly table = signal<ReferenceDto | null>(null);
   protected readonly loadError = signal<string | null>(null);
-  protected readonly comparisons = signal<ReferenceComparison[] | null>(null);
+  protected readonly comparisons = signal<ReferenceComparisonDto[] | null>(null);
   protected readonly runChoices = signal<RunChoice[] | null>(null);
   protected readonly chosenRun = signal<string | null>(null);
   protected readonly comparing = signal(false);

@@ -1,3 +1,4 @@
+import type { RowVerdictDto, SeriesRowVerdictDto } from '@traceloom/shared/api';
 import { RouterLink } from '@angular/router';
 import type { SeriesJson } from './series-diff';
 import { DatePipe } from '@angular/common';
@@ -113,6 +114,11 @@ export class RunChecks {
     return rows.filter((row) => !isNumericVerdict(row)) as VerdictLike[];
   }
 
+  /** The series verdicts of a comparison (a numeric comparison has none). */
+  protected seriesRows(rows: readonly RowVerdictDto[]): SeriesRowVerdictDto[] {
+    return rows.filter((row): row is SeriesRowVerdictDto => !isNumericVerdict(row));
+  }
+
   protected power(exponent: string): string {
     return plainPower(this.variable(), exponent) || '1';
   }
@@ -138,7 +144,7 @@ export class RunChecks {
   }
 
   protected onUploaded(reference: ReferenceDto): void {
-    this.references.set([reference, ...this.references()]);
+    this.references.set([{ ...reference, rowCount: reference.rows.length }, ...this.references()]);
     this.chosenReference.set(reference.id);
     this.showUpload.set(false);
     this.compare({ referenceId: reference.id });

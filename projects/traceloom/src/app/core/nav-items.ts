@@ -1,4 +1,4 @@
-import { Role } from '@traceloom/shared/api';
+import { PERMISSIONS, type Role } from '@traceloom/shared/api';
 
 /** One entry of the side navigation. */
 export interface NavItem {
@@ -10,7 +10,7 @@ export interface NavItem {
   roles: readonly Role[];
 }
 
-const EVERYONE: readonly Role[] = ['author', 'reviewer', 'steward', 'admin'];
+const EVERYONE: readonly Role[] = PERMISSIONS.signedIn;
 
 /**
  * Every destination of the side navigation, in display order. Later features (gases, runs,
@@ -24,17 +24,29 @@ export const NAV_ITEMS: readonly NavItem[] = [
     label: 'Review requests',
     icon: 'rate_review',
     route: '/reviews',
-    roles: ['reviewer', 'steward'],
+    roles: PERMISSIONS.review,
   },
   {
     id: 'audit',
     label: 'Audit log',
     icon: 'history',
     route: '/audit',
-    roles: ['steward', 'admin'],
+    roles: PERMISSIONS.readAudit,
   },
-  { id: 'users', label: 'Users', icon: 'group', route: '/admin/users', roles: ['admin'] },
-  { id: 'mailbox', label: 'Mailbox', icon: 'mail', route: '/admin/mailbox', roles: ['admin'] },
+  {
+    id: 'users',
+    label: 'Users',
+    icon: 'group',
+    route: '/admin/users',
+    roles: PERMISSIONS.administer,
+  },
+  {
+    id: 'mailbox',
+    label: 'Mailbox',
+    icon: 'mail',
+    route: '/admin/mailbox',
+    roles: PERMISSIONS.administer,
+  },
   { id: 'help', label: 'Guide', icon: 'menu_book', route: '/help', roles: EVERYONE },
 ];
 

@@ -1,4 +1,4 @@
-import { Role } from '@traceloom/shared/api';
+import { may, type Role } from '@traceloom/shared/api';
 
 /** How each role is named on screen. */
 export const ROLE_LABELS: Record<Role, string> = {
@@ -10,5 +10,5 @@ export const ROLE_LABELS: Record<Role, string> = {
 
 /** Roles that may create a study (API contract: POST /api/studies). */
 export function canCreateStudy(role: Role | null): boolean {
-  return role === 'author' || role === 'steward' || role === 'admin';
+  return may(role, 'editStudies');
 }

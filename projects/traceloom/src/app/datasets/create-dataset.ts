@@ -4,7 +4,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { Router } from '@angular/router';
-import { datasetCreateSchema } from '@traceloom/shared/api';
+import { datasetCreateSchema, may } from '@traceloom/shared/api';
 import { messageOf } from '../core/api-error';
 import { Session } from '../core/session';
 import { DatasetsApi } from './datasets-api';
@@ -87,8 +87,7 @@ export class CreateDataset {
   protected readonly title = signal('');
 
   protected allowed(): boolean {
-    const role = this.session.role();
-    return role === 'author' || role === 'steward' || role === 'admin';
+    return may(this.session.role(), 'makeDatasets');
   }
 
   protected create(): void {

@@ -25,7 +25,7 @@ import { rowValueText } from '@traceloom/shared/format';
 import { DatasetAuthors } from './dataset-authors';
 import { DatasetReviewPanel } from './dataset-review-panel';
 import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
-import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswer } from './datasets-api';
+import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswerDto } from './datasets-api';
 
 const EXPORT_TYPES: Record<ExportFormat, [ext: string, type: string]> = {
   json: ['json', 'application/json'],
@@ -69,7 +69,7 @@ export class DatasetPage {
   protected readonly loading = signal(true);
   protected readonly error = signal<string | null>(null);
   protected readonly busy = signal(false);
-  protected readonly verifyAnswer = signal<VerifyAnswer | null>(null);
+  protected readonly verifyAnswer = signal<VerifyAnswerDto | null>(null);
   protected readonly waiverReasons = signal<Partial<Record<string, string>>>({});
   protected readonly stateLabel = stateLabel;
   protected readonly stateIcon = stateIcon;

@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -62,10 +63,7 @@ export class DatasetReviewPanel {
     const asked = new Set(d.reviewRequests.map((r) => r.reviewer.id));
     const people = [...s.members, { ...s.owner, role: 'author' as const }];
     return people.filter(
-      (p) =>
-        (p.role === 'reviewer' || p.role === 'steward') &&
-        p.id !== d.createdBy.id &&
-        !asked.has(p.id),
+      (p) => may(p.role, 'review') && p.id !== d.createdBy.id && !asked.has(p.id),
     );
   });
   protected readonly rows = computed(() => this.dataset().snapshot.canonical.map((r) => r.N));

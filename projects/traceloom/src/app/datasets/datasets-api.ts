@@ -2,66 +2,26 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import type {
-  LockPreviewDto,
   AuditEventDto,
-  StudyDto,
+  DatasetCreateRequest,
   DatasetDto,
+  DatasetPatchRequest,
   DatasetSummaryDto,
+  ExportFormat,
+  LockPreviewDto,
+  MailboxMessageDto,
+  PublicDatasetDto,
   ReviewInboxEntryDto,
+  StudyDto,
+  VerifyAnswerDto,
 } from '@traceloom/shared/api';
 
-/** Export formats of a dataset. */
-export type ExportFormat = 'json' | 'csv' | 'latex';
-
-/** What verify answers. */
-export interface VerifyAnswer {
-  ok: boolean;
-  mismatches: string[];
-  hashOk: boolean | null;
-  durationMs: number;
-}
-
-/** A message the local mail fake received. */
-export interface MailboxMessage {
-  id: number;
-  receivedAt: string;
-  envelope: { from: string; to: string[] };
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-}
-
-/** The public answer for a locked dataset. */
-export interface PublicDataset {
-  hash: string;
-  citation: string;
-  /** The citation's authors, frozen by the lock. */
-  authors: string[];
-  supersededBy: { id: string; version: number } | null;
-  document: {
-    title: string;
-    description: string;
-    version: number;
-    lockedAt: string;
-    lockedBy: { displayName: string };
-    createdBy: { displayName: string };
-    study: { title: string };
-    snapshot: {
-      spec: { variable: string; statistics: string; order?: string | null };
-      result: {
-        canonical: Array<{ N: number; value: { order: string | null; terms: [string, string][] } }>;
-      };
-    };
-    checks: DatasetDto['checks'];
-    reviews: Array<{
-      reviewer: { displayName: string };
-      verdict: string;
-      comment: string;
-      at: string;
-    }>;
-  };
-}
+export type {
+  ExportFormat,
+  MailboxMessageDto,
+  PublicDatasetDto,
+  VerifyAnswerDto,
+} from '@traceloom/shared/api';
 
 const enc = encodeURIComponent;
 
@@ -71,10 +31,7 @@ export class DatasetsApi {
   private readonly http = inject(HttpClient);
 
   /** A draft dataset from a finished run. */
-  create(
-    runId: string,
-    body: { title: string; description?: string; supersedesId?: string },
-  ): Observable<DatasetDto> {
+  create(runId: string, body: DatasetCreateRequest): Observable<DatasetDto> {
     return this.http.post<DatasetDto>(`/api/runs/${enc(runId)}/datasets`, body);
   }
 
@@ -90,11 +47,8 @@ export class DatasetsApi {
     return this.http.get<DatasetDto>(`/api/datasets/${enc(id)}`);
   }
 
-  /** Title and description of a draft; the citation's authors until the lock. */
-  update(
-    id: string,
-    body: { title?: string; description?: string; authors?: string[] },
-  ): Observable<DatasetDto> {
+  /** Title and description of a draft. */
+  update(id: string, body: DatasetPatchRequest): Observable<DatasetDto> {
     return this.http.patch<DatasetDto>(`/api/datasets/${enc(id)}`, body);
   }
 
@@ -143,8 +97,8 @@ export class DatasetsApi {
   }
 
   /** Recomputes the stored spec and compares. */
-  verify(id: string): Observable<VerifyAnswer> {
-    return this.http.post<VerifyAnswer>(`/api/datasets/${enc(id)}/verify`, {});
+  verify(id: string): Observable<VerifyAnswerDto> {
+    return this.http.post<VerifyAnswerDto>(`/api/datasets/${enc(id)}/verify`, {});
   }
 
   /** The export file's text. */
@@ -174,8 +128,8 @@ export class DatasetsApi {
   }
 
   /** The local mail fake's messages (admin). */
-  mailbox(): Observable<MailboxMessage[]> {
-    return this.http.get<MailboxMessage[]>('/api/dev/mailbox');
+  mailbox(): Observable<MailboxMessageDto[]> {
+    return this.http.get<MailboxMessageDto[]>('/api/dev/mailbox');
   }
 
   /** The study a dataset belongs to (for choosing reviewers among its members). */
@@ -184,8 +138,8 @@ export class DatasetsApi {
   }
 
   /** A locked dataset by its hash, without sign-in. */
-  publicDataset(hash: string): Observable<PublicDataset> {
-    return this.http.get<PublicDataset>(`/api/public/datasets/${enc(hash)}`);
+  publicDataset(hash: string): Observable<PublicDatasetDto> {
+    return this.http.get<PublicDatasetDto>(`/api/public/datasets/${enc(hash)}`);
   }
 }
 

@@ -1,4 +1,4 @@
-import { gasSpecSchema, type GasSpecInput } from '@traceloom/shared/engine';
+import { gasSpecSchema, type GasSpecInput } from '@traceloom/shared/api';
 import { WeightsKind, controlPathFor } from './gas-form';
 import { numericPreviewSpec } from './gas-numeric';
 

@@ -1,50 +1,16 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
-import type { ComputeResult, GasSpecInput } from '@traceloom/shared/engine';
+import type { ComputeResult } from '@traceloom/shared/engine';
+import type { GasDto, GasSpecInput, GasSummary, GasVersionDto } from '@traceloom/shared/api';
 
-/** A person as the API names them beside a change. */
-export interface PersonRef {
-  id: string;
-  displayName: string;
-}
-
-/** One gas in a study's list (API contract, GET /api/studies/:id/gases). */
-export interface GasSummary {
-  id: string;
-  studyId: string;
-  title: string;
-  statistics: 'fermion' | 'boson';
-  weightsKind: 'values' | 'formula' | 'spectrum';
-  version: number;
-  updatedAt: string;
-  updatedBy: PersonRef;
-  lastRun: { id: string; status: string; finishedAt: string | null } | null;
-}
-
-/** One saved version of a gas. */
-export interface GasVersionRef {
-  version: number;
-  createdAt: string;
-  createdBy: PersonRef;
-}
-
-/** A gas with its latest spec and the list of its versions. */
-export interface GasDto {
-  id: string;
-  studyId: string;
-  title: string;
-  version: number;
-  spec: GasSpecInput;
-  versions: GasVersionRef[];
-  createdAt: string;
-  updatedAt: string;
-}
-
-/** An old version of a gas, read-only. */
-export interface GasVersionDto extends GasVersionRef {
-  spec: GasSpecInput;
-}
+export type {
+  GasDto,
+  GasSummary,
+  GasVersionDto,
+  GasVersionRef,
+  PersonRef,
+} from '@traceloom/shared/api';
 
 /** The gas endpoints and the synchronous preview (`/api/compute`). */
 @Injectable({ providedIn: 'root' })

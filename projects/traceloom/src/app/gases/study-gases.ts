@@ -24,6 +24,7 @@ const KIND_LABELS: Record<GasSummary['weightsKind'], string> = {
   values: 'list of values',
   formula: 'formula in L',
   spectrum: 'spectrum',
+  kernel: 'numeric kernel',
 };
 
 /** A study's gases (with their last run) and reference tables, on the study page. */

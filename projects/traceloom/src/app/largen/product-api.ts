@@ -1,18 +1,9 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type { Observable } from 'rxjs';
-import type { GrandProductJson, SeriesProductJson } from '@traceloom/shared/engine';
+import type { ProductFormDto, ProductTarget } from '@traceloom/shared/api';
 
-/** What to write as a product: a canonical row, a cycle weight or the grand function. */
-export type ProductTarget =
-  { of: 'row'; N: number } | { of: 'weight'; L: number } | { of: 'grand' };
-
-/** The answer of GET /api/runs/:id/product-form. */
-export type ProductFormDto = { runId: string } & (
-  | ({ target: 'row'; N: number } & SeriesProductJson)
-  | ({ target: 'weight'; L: number } & SeriesProductJson)
-  | ({ target: 'grand' } & GrandProductJson)
-);
+export type { ProductFormDto, ProductTarget } from '@traceloom/shared/api';
 
 /** Product forms on request for a finished run. */
 @Injectable({ providedIn: 'root' })

@@ -5,7 +5,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
-import type { MailboxMessage } from '../datasets/datasets-api';
+import type { MailboxMessageDto } from '../datasets/datasets-api';
 import { mailParts } from './mail-links';
 
 /** The local mail fake's messages (admin; demo and test mode), newest first. */
@@ -17,7 +17,7 @@ import { mailParts } from './mail-links';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class Mailbox {
-  protected readonly messages = httpResource<MailboxMessage[]>(() => '/api/dev/mailbox');
+  protected readonly messages = httpResource<MailboxMessageDto[]>(() => '/api/dev/mailbox');
   protected readonly openId = signal<number | null>(null);
   protected readonly loadError = computed(() => {
     const e = this.messages.error();

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { ApiError, messageOf } from '../core/api-error';
-import { DatasetsApi, PublicDataset } from '../datasets/datasets-api';
+import { DatasetsApi, PublicDatasetDto } from '../datasets/datasets-api';
 import {
   checkStatusText,
   gasDefinition,
@@ -30,7 +30,7 @@ export class PublicDatasetPage {
   /** Route `public/:hash`. */
   readonly hash = input.required<string>();
 
-  protected readonly data = signal<PublicDataset | null>(null);
+  protected readonly data = signal<PublicDatasetDto | null>(null);
   protected readonly error = signal<string | null>(null);
   protected readonly copied = signal(false);
   /** A row's value, or "not determined (O(q^k))" (honest rows). */
@@ -56,12 +56,12 @@ export class PublicDatasetPage {
   }
 
   /** The stored spec as labelled lines. */
-  protected definition(doc: PublicDataset['document']) {
+  protected definition(doc: PublicDatasetDto['document']) {
     return gasDefinition(doc.snapshot.spec as unknown as Parameters<typeof gasDefinition>[0]);
   }
 
   /** One sentence of what is known: orders, determined rows, checks passed. */
-  protected knownText(doc: PublicDataset['document']): string {
+  protected knownText(doc: PublicDatasetDto['document']): string {
     const r = { ...doc.snapshot.result, spec: doc.snapshot.spec } as unknown as Parameters<
       typeof knownSentence
     >[0];

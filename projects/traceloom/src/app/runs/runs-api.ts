@@ -2,101 +2,36 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { createParser } from 'eventsource-parser';
 import { Observable } from 'rxjs';
-import type { ComputeResult, GasSpecInput } from '@traceloom/shared/engine';
+import type {
+  GasSpecInput,
+  RunDto,
+  RunEstimateDto,
+  RunEvent,
+  RunStarted,
+  RunSummary,
+} from '@traceloom/shared/api';
 import { Session } from '../core/session';
-import type { PersonRef } from '../gases/gases-api';
 
-/** Where a run is in its life. */
-export type RunStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled';
-
-/** How far a run has come. */
-export interface RunProgress {
-  done: number;
-  total: number;
-  phase: string | null;
-  /** What done and total count (cycle types of the class table, products of the recursion). */
-  unit?: string;
-}
-
-/** One run of a gas (API contract, GET /api/gases/:id/runs). */
-export interface RunSummary {
-  id: string;
-  gasId: string;
-  gasVersion: number;
-  status: RunStatus;
-  progress: RunProgress;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-  durationMs: number | null;
-  createdBy: PersonRef;
-  error: string | { code?: string; message: string; field?: string } | null;
-}
-
-/** The result as the run endpoint returns it: classes only when asked for one N. */
-export type RunResult = Omit<ComputeResult, 'classes'> & {
-  classes?: ComputeResult['classes'];
-  classCounts?: Record<string, number>;
-};
-
-/** A run with its spec and (once done) its result. */
-export interface RunDto extends RunSummary {
-  studyId: string;
-  spec: GasSpecInput;
-  result: RunResult | null;
-  /** Cycle types per N of the class table (given when `?classes` is not asked for). */
-  classCounts?: Record<string, number>;
-}
-
-/** What `POST /api/gases/:id/runs` answers: the queued run and the warnings of its estimate. */
-export interface RunStarted {
-  id: string;
-  status: RunStatus;
-  warnings?: string[];
-}
+export type {
+  RunDto,
+  RunEstimateDto,
+  RunEvent,
+  RunProgress,
+  RunResult,
+  RunStarted,
+  RunStatus,
+  RunSummary,
+} from '@traceloom/shared/api';
+export { isActive } from '@traceloom/shared/api';
 
 /** The navigation state a started run's page receives: the warnings the start answered. */
 export interface RunStartState {
   startWarnings: string[];
 }
 
-/** `POST /api/compute/estimate`: the class table's cost, the order advice, warnings, refusal. */
-export interface RunEstimateDto {
-  estimate: {
-    cycleTypes: number;
-    seriesLength: number;
-    classCoefficients: number;
-    classMemoryMb: number;
-    classSeconds: number;
-    orderAdvice: { undetermined: number[]; orderNeeded: string | null; message: string } | null;
-    summary: string;
-  };
-  warnings: string[];
-  refusal: { field: string; message: string } | null;
-}
-
-/** One server-sent event of a run: progress while it works, then the end. */
-export type RunEvent =
-  | {
-      type: 'progress';
-      status: RunStatus;
-      done: number;
-      total: number;
-      phase: string | null;
-      unit?: string;
-    }
-  | { type: 'end'; status: RunStatus; error: RunSummary['error'] };
-
-/** True while a run may still change. */
-export function isActive(status: RunStatus): boolean {
-  return status === 'queued' || status === 'running';
-}
-
-/** A run's error as one sentence. */
+/** A run's error as one sentence (the server words it so), or null. */
 export function runErrorText(error: RunSummary['error']): string | null {
-  if (!error) return null;
-  if (typeof error === 'string') return error;
-  return error.field ? `${error.field}: ${error.message}` : error.message;
+  return error || null;
 }
 
 /** The run endpoints, including the progress stream. */

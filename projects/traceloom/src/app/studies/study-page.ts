@@ -19,7 +19,7 @@ import { filter, switchMap } from 'rxjs';
 import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { ApiError, messageOf } from '../core/api-error';
 import { parseForRequest, showOnField } from '../core/form-errors';
-import { StudyDto, studyPatchSchema } from '@traceloom/shared/api';
+import { StudyDto, may, studyPatchSchema } from '@traceloom/shared/api';
 import { Session } from '../core/session';
 import { StudiesApi } from './studies-api';
 import { StudyFields, studyFieldsGroup } from './study-fields';
@@ -74,7 +74,7 @@ export class StudyPage {
     if (!study || !user) return false;
     if (user.role === 'admin' || study.owner.id === user.id) return true;
     const member = study.members.some((m) => m.id === user.id);
-    return member && (user.role === 'author' || user.role === 'steward');
+    return member && may(user.role, 'editStudies');
   });
   /** Owner or admin (API contract: members add/remove, DELETE). */
   protected readonly canManageMembers = computed(() => {

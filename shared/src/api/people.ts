@@ -1,0 +1,5 @@
+/** A person as gas, run, reference and comparison answers name them beside a change. */
+export interface PersonRef {
+  id: string;
+  displayName: string;
+}
