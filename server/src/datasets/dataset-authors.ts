@@ -1,6 +1,5 @@
-import type { DatasetPersonDto } from '@traceloom/shared/api';
+import type { DatasetDocument, DatasetPersonDto } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
-import type { DatasetDocument } from './dataset-document.js';
 import { Dataset } from '../db/entities/index.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { AppError, forbidden } from '../http/app-error.js';

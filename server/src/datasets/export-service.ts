@@ -1,3 +1,4 @@
+import type { DatasetDocument } from '@traceloom/shared/api';
 import { DATASET_FORMAT } from '@traceloom/shared/api';
 import type { Response } from 'express';
 import { isNumericResult, renderMatrix } from '@traceloom/shared/format';
