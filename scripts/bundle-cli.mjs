@@ -1,13 +1,16 @@
 // Bundles the compiled command line (dist/server/cli/main.js and the shared library it imports)
-// into one file, dist/cli/traceloom.mjs: one module to load instead of some 130, which is most of
-// the command's start-up (see bench/README.md). `npm run build:server` runs it after tsc.
-import { build } from 'esbuild';
-import { existsSync } from 'node:fs';
+// into one file, dist/cli/traceloom.cjs, and writes its entry dist/cli/traceloom.mjs (a copy of
+// scripts/cli-loader.mjs) and V8's code cache for it, dist/cli/traceloom.cache, from training runs
+// on the specs in scripts/cli-training/ (see bench/README.md, "Start-up of the command line").
+// `npm run build:server` runs it after tsc.
+import { spawnSync } from 'node:child_process';
+import { copyFileSync, existsSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
+import { build } from 'esbuild';
 import { root } from './lib.mjs';
 
 const entry = path.join(root, 'dist/server/cli/main.js');
-const bundle = path.join(root, 'dist/cli/traceloom.mjs');
+const out = path.join(root, 'dist/cli');
 const parserOnly = path.join(root, 'shared/dist/engine/expr/parser-only.js');
 
 if (!existsSync(entry) || !existsSync(parserOnly)) {
@@ -16,17 +19,16 @@ if (!existsSync(entry) || !existsSync(parserOnly)) {
   );
   process.exit(2);
 }
+const noLocales = path.join(out, 'no-locales.mjs');
 await build({
   entryPoints: [entry],
-  outfile: bundle,
+  outfile: path.join(out, 'traceloom.cjs'),
   bundle: true,
   platform: 'node',
-  format: 'esm',
+  format: 'cjs',
   target: 'node20',
-  // the expression parser ships as a CommonJS file: give it a require in the ES module
-  banner: {
-    js: "import { createRequire } from 'node:module'; const require = createRequire(import.meta.url);",
-  },
+  minify: true,
+  charset: 'ascii',
   logLevel: 'warning',
   plugins: [
     {
@@ -36,5 +38,39 @@ await build({
         b.onResolve({ filter: /^mathjs\/lib\/browser\/math\.js$/ }, () => ({ path: parserOnly }));
       },
     },
+    {
+      // zod's translations of its messages (some 40 languages, a third of the bundle): the engine
+      // words its own messages, and zod's English default is built in (classic/schemas.js)
+      name: 'no-zod-locales',
+      setup(b) {
+        b.onStart(() => writeFileSync(noLocales, 'export {};\n'));
+        b.onResolve({ filter: /\/locales\/index\.js$/ }, (a) =>
+          a.importer.includes(`${path.sep}zod${path.sep}`) ? { path: noLocales } : undefined,
+        );
+      },
+    },
   ],
 });
+rmSync(noLocales, { force: true });
+rmSync(path.join(out, 'traceloom.mjs'), { force: true });
+copyFileSync(path.join(root, 'scripts/cli-loader.mjs'), path.join(out, 'traceloom.mjs'));
+
+// training runs: each loads the cache the previous one wrote and adds what it compiled
+const cache = path.join(out, 'traceloom.cache');
+rmSync(cache, { force: true });
+for (const spec of ['kernel.json', 'series.json']) {
+  const r = spawnSync(
+    process.execPath,
+    [path.join(out, 'traceloom.mjs'), 'compute', `scripts/cli-training/${spec}`],
+    {
+      cwd: root,
+      stdio: ['ignore', 'ignore', 'pipe'],
+      encoding: 'utf8',
+      env: { ...process.env, TRACELOOM_CODE_CACHE_WRITE: '1' },
+    },
+  );
+  if (r.status !== 0) {
+    console.error(`bundle-cli: the training run on ${spec} failed: ${r.stderr}`);
+    process.exit(1);
+  }
+}

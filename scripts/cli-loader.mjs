@@ -1,0 +1,32 @@
+// The command line's entry, copied to dist/cli/traceloom.mjs by scripts/bundle-cli.mjs: it runs
+// the bundle dist/cli/traceloom.cjs through vm.Script with V8's code cache for it
+// (dist/cli/traceloom.cache, written at build time by a training run), so that a command neither
+// parses the bundle nor compiles the functions it calls (bytecode comes from the cache; Node 20
+// has no module.enableCompileCache). The cache holds compiled code only, never a result. A cache
+// V8 rejects (another Node version, other flags) or a missing one only costs the compile time.
+// TRACELOOM_CODE_CACHE_WRITE=1 writes the cache when the process exits (the training run).
+import { readFileSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import vm from 'node:vm';
+
+const dir = path.dirname(fileURLToPath(import.meta.url));
+const file = path.join(dir, 'traceloom.cjs');
+const cacheFile = path.join(dir, 'traceloom.cache');
+// esbuild writes ASCII (non-ASCII characters escaped), so latin1 reads it exactly and quickest
+const source = readFileSync(file, 'latin1').replace(/^#!.*/, '');
+let cachedData;
+try {
+  cachedData = readFileSync(cacheFile);
+} catch {
+  cachedData = undefined;
+}
+const script = new vm.Script(
+  `(function (require, module, exports, __filename, __dirname) {${source}\n})`,
+  { filename: file, cachedData },
+);
+if (process.env.TRACELOOM_CODE_CACHE_WRITE === '1')
+  process.on('exit', () => writeFileSync(cacheFile, script.createCachedData()));
+const module = { exports: {} };
+script.runInThisContext()(createRequire(file), module, module.exports, file, dir);
