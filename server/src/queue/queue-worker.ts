@@ -1,16 +1,22 @@
+import { serialize } from 'node:v8';
 import { UnrecoverableError, Worker, type Job } from 'bullmq';
 import { createRunPool } from '../compute/pools.js';
 import type { ClassPageData } from '../runs/class-pager.js';
 import { runOnPool, type RunMessage } from '../runs/run-on-pool.js';
 import { redisConnection } from './remote-runs.js';
+import { runTaskJob } from './task-jobs.js';
 import {
+  BLOB_TTL_S,
   CANCEL_CHANNEL,
   cancelKey,
   encodeMessage,
-  encodeResult,
+  resultKey,
   RUN_QUEUE,
+  TASK_JOB,
+  type JobResult,
   type RunJobData,
-  type WireResult,
+  type RunJobOutcome,
+  type TaskJobData,
 } from './wire.js';
 
 /** Progress reports go to the queue at most this often (starts and partial results always). */
@@ -50,7 +56,24 @@ export async function startQueueWorker(
   subscriber.on('message', (_channel: string, jobId: string) => held.get(jobId)?.abort());
   await subscriber.subscribe(CANCEL_CHANNEL);
 
-  const work = async (job: Job<RunJobData>): Promise<WireResult> => {
+  /** A whole run on this worker's pool: its output and class pages. */
+  const runJob = async (job: Job<RunJobData>, signal: AbortSignal): Promise<RunJobOutcome> => {
+    const pages: ClassPageData[] = [];
+    let reportedAt = 0;
+    const report = (m: RunMessage) => {
+      if ('page' in m) return void pages.push(m.page);
+      if (!('started' in m) && !('partial' in m)) {
+        const t = Date.now();
+        if (t - reportedAt < REPORT_EVERY_MS) return;
+        reportedAt = t;
+      }
+      job.updateProgress(encodeMessage(m)).catch(log);
+    };
+    const output = await runOnPool(pool, settings.threads, job.data.spec, signal, report);
+    return { output, pages };
+  };
+
+  const work = async (job: Job<RunJobData | TaskJobData>): Promise<JobResult> => {
     const jobId = job.id!;
     const controller = new AbortController();
     held.set(jobId, controller);
@@ -58,33 +81,29 @@ export async function startQueueWorker(
     try {
       if (await plain.get(cancelKey(jobId)))
         throw new UnrecoverableError('aborted before it began');
-      const pages: ClassPageData[] = [];
-      let reportedAt = 0;
-      const report = (m: RunMessage) => {
-        if ('page' in m) return void pages.push(m.page);
-        if (!('started' in m) && !('partial' in m)) {
-          const t = Date.now();
-          if (t - reportedAt < REPORT_EVERY_MS) return;
-          reportedAt = t;
-        }
-        job.updateProgress(encodeMessage(m)).catch(log);
-      };
-      const output = await runOnPool(
-        pool,
-        settings.threads,
-        job.data.spec,
-        controller.signal,
-        report,
+      const outcome = await (
+        job.name === TASK_JOB
+          ? runTaskJob(pool, plain, job as Job<TaskJobData>, controller.signal, log)
+          : runJob(job as Job<RunJobData>, controller.signal)
       ).catch((err: unknown) => {
         if (controller.signal.aborted) throw new UnrecoverableError('aborted by a cancel');
+        if ((err as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
+          // not retried: another worker with the same limit would run out as well
+          throw new UnrecoverableError(
+            `ran out of memory (the limit is ${settings.maxOldGenerationSizeMb} MB per run on this worker, TRACELOOM_RUN_HEAP_MB)`,
+          );
+        }
         throw err;
       });
-      return encodeResult(output, pages);
+      // the outcome as bytes beside the job; the job's return value only names them
+      const key = resultKey(jobId);
+      await plain.set(key, serialize(outcome), 'EX', BLOB_TTL_S);
+      return { result: key };
     } finally {
       held.delete(jobId);
     }
   };
-  const worker = new Worker<RunJobData, WireResult>(RUN_QUEUE, work, {
+  const worker = new Worker<RunJobData | TaskJobData, JobResult>(RUN_QUEUE, work, {
     connection: redisConnection(settings.url),
     concurrency: settings.threads,
     lockDuration: settings.lockMs,

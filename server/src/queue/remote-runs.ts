@@ -1,19 +1,25 @@
 import { setTimeout as sleep } from 'node:timers/promises';
+import { deserialize, serialize } from 'node:v8';
 import { Queue, QueueEvents } from 'bullmq';
 import { Redis } from 'ioredis';
-import type { ClassPageData } from '../runs/class-pager.js';
-import type { RunMessage } from '../runs/run-on-pool.js';
+import { runOnPool, type RunMessage } from '../runs/run-on-pool.js';
+import { isSectorSpec } from '../runs/sector-runs.js';
 import type { RunOutput, WorkerRefusal } from '../runs/worker.js';
+import { onlyForward, RemoteTaskPool, SECTOR_JOBS_PER_SHELL } from './remote-tasks.js';
 import {
+  BLOB_TTL_S,
   CANCEL_CHANNEL,
   CANCEL_TTL_S,
   cancelKey,
   decodeMessage,
-  decodeResult,
+  inputKey,
   RUN_QUEUE,
+  TASK_JOB,
+  type JobResult,
   type RunJobData,
+  type RunJobOutcome,
+  type TaskJobData,
   type WireMessage,
-  type WireResult,
 } from './wire.js';
 
 /** How often the server looks at the state of a job it waits for. */
@@ -21,6 +27,21 @@ const POLL_MS = 250;
 
 /** A finished job is kept this long in Redis, so a server that was down can still read it. */
 const KEEP_S = 24 * 3600;
+
+/**
+ * The error a failed job gives the executor: a worker that ran out of memory says so with its
+ * limit (`ERR_WORKER_OUT_OF_MEMORY`, as the embedded pool's error), anything else its reason.
+ */
+function workerFailure(reason: string | undefined): Error {
+  const memory = /ran out of memory \(the limit is (\d+) MB/.exec(reason ?? '');
+  if (memory) {
+    return Object.assign(new Error(reason), {
+      code: 'ERR_WORKER_OUT_OF_MEMORY',
+      limitMb: Number(memory[1]),
+    });
+  }
+  return new Error(`the worker failed: ${reason ?? 'the job left no result'}`);
+}
 
 /** A Redis connection as BullMQ needs it: commands wait while Redis is away instead of failing. */
 export function redisConnection(url: string): Redis {
@@ -68,7 +89,9 @@ export class RemoteRuns {
   /**
    * Runs `spec` as job `jobId` (the run id and its attempt: adding the same id twice is one job)
    * and answers its output once a worker finished it; every class-row page reaches `onMessage`
-   * first. Rejects when `signal` aborts or the job failed on its worker.
+   * first. A sector sum is split instead: the walk stays here and each shell's sectors, the sum
+   * and the paging go out as task jobs any worker may take (`RemoteTaskPool`), exactly as the
+   * embedded pool spreads them over its threads. Rejects when `signal` aborts or a job failed.
    */
   async run(
     jobId: string,
@@ -76,11 +99,21 @@ export class RemoteRuns {
     signal: AbortSignal,
     onMessage: (m: RunMessage) => void,
   ): Promise<RunOutput | WorkerRefusal> {
+    if (isSectorSpec(spec)) {
+      const pool = new RemoteTaskPool(this, jobId);
+      return runOnPool(pool, SECTOR_JOBS_PER_SHELL, spec, signal, onMessage);
+    }
     const data: RunJobData = { runId: jobId, spec };
-    this.listeners.set(jobId, (m) => onMessage(decodeMessage(m)));
+    // a retried job starts again from nothing: its progress must not go back
+    const forward = onlyForward(onMessage);
+    this.listeners.set(jobId, (m) => forward(decodeMessage(m)));
     try {
-      await this.add(jobId, data);
-      const { output, pages } = await this.finished(jobId, data, signal);
+      await this.add('run', jobId, data);
+      const { output, pages } = await this.outcome<RunJobOutcome>(
+        jobId,
+        () => this.add('run', jobId, data),
+        signal,
+      );
       for (const page of pages) onMessage({ page });
       return output.ok ? { ...output, pages: pages.length } : output;
     } finally {
@@ -88,8 +121,33 @@ export class RemoteRuns {
     }
   }
 
-  private add(jobId: string, data: RunJobData) {
-    return this.queue.add('run', data, {
+  /**
+   * Runs one task of a split run as task job `jobId` and answers what the worker's pool
+   * answered; its progress reports reach `onProgress`. The task travels as bytes in Redis.
+   */
+  async runTask(
+    jobId: string,
+    task: unknown,
+    signal: AbortSignal,
+    onProgress?: (m: WireMessage) => void,
+  ): Promise<unknown> {
+    const data: TaskJobData = { input: inputKey(jobId) };
+    const put = async () => {
+      await this.connection.set(data.input, serialize(task), 'EX', BLOB_TTL_S);
+      await this.add(TASK_JOB, jobId, data);
+    };
+    if (onProgress) this.listeners.set(jobId, onProgress);
+    try {
+      await put();
+      return await this.outcome<unknown>(jobId, put, signal);
+    } finally {
+      this.listeners.delete(jobId);
+      this.connection.del(data.input).catch(() => {});
+    }
+  }
+
+  private add(name: string, jobId: string, data: RunJobData | TaskJobData) {
+    return this.queue.add(name, data, {
       jobId,
       // a job thrown off its worker (lock lost while Redis was away) runs again; a cancel does not
       attempts: 3,
@@ -98,11 +156,12 @@ export class RemoteRuns {
     });
   }
 
-  private async finished(
+  /** Waits for job `jobId` and reads its outcome (the bytes its return value names) once. */
+  private async outcome<T>(
     jobId: string,
-    data: RunJobData,
+    readd: () => Promise<unknown>,
     signal: AbortSignal,
-  ): Promise<{ output: RunOutput | WorkerRefusal; pages: ClassPageData[] }> {
+  ): Promise<T> {
     for (;;) {
       if (this.closed) return new Promise(() => {}); // the server is stopping: SQLite keeps it
       if (signal.aborted) {
@@ -112,15 +171,16 @@ export class RemoteRuns {
       // the state first, then the job: a job read before it finished has no result yet
       const state = await this.queue.getJobState(jobId);
       if (state === 'unknown') {
-        await this.add(jobId, data); // lost with Redis's data: queue it again
+        await readd(); // lost with Redis's data: queue it again
       } else if (state === 'completed' || state === 'failed') {
         const job = await this.queue.getJob(jobId);
-        if (state === 'failed' || !job?.returnvalue) {
-          throw new Error(`the worker failed: ${job?.failedReason ?? 'the job left no result'}`);
-        }
-        const result = decodeResult(job.returnvalue as WireResult);
-        await job.remove().catch((err: unknown) => this.log(err));
-        return result;
+        const key = (job?.returnvalue as JobResult | undefined)?.result;
+        if (state === 'failed' || !key) throw workerFailure(job?.failedReason);
+        const bytes = await this.connection.getBuffer(key);
+        if (!bytes) throw workerFailure('its result was lost from Redis');
+        await job!.remove().catch((err: unknown) => this.log(err));
+        this.connection.del(key).catch(() => {});
+        return deserialize(bytes) as T;
       }
       await sleep(POLL_MS, undefined, { signal }).catch(() => {});
     }

@@ -24,36 +24,38 @@ export interface RunJobData {
 export type WireMessage =
   Exclude<RunMessage, { partial: Uint8Array } | { page: ClassPageData }> | { partial: string };
 
-/** A finished job's return value: the output and every class-row page, bytes as base64. */
-export interface WireResult {
-  output: (Omit<RunOutput, 'gzip'> & { gzip: string }) | WorkerRefusal;
-  pages: Array<Omit<ClassPageData, 'gzip'> & { gzip: string }>;
+/** A run job's outcome, as the blob its return value names: the output and its class pages. */
+export interface RunJobOutcome {
+  output: RunOutput | WorkerRefusal;
+  pages: ClassPageData[];
 }
+
+/**
+ * Every job's return value: the Redis key of its outcome, written as bytes (v8 serialization,
+ * which keeps BigInts and byte arrays) beside the job, so no result travels as base64 or JSON.
+ */
+export interface JobResult {
+  result: string;
+}
+
+/** Name of the jobs that carry one task of a split run (a shell's sectors, the sum, the paging). */
+export const TASK_JOB = 'task';
+
+/** Tasks a worker takes as task jobs: the parts of a sector run. */
+export const TASK_KINDS = ['sectorParts', 'sectorAssemble', 'pageResult'] as const;
+
+/** A task job's data: the Redis key of its task (bytes, as the outcome). */
+export interface TaskJobData {
+  input: string;
+}
+
+/** Where a job's outcome and a task job's input are kept, and for how long (seconds). */
+export const resultKey = (jobId: string) => `traceloom:result:${jobId}`;
+export const inputKey = (jobId: string) => `traceloom:input:${jobId}`;
+export const BLOB_TTL_S = 24 * 3600;
 
 const b64 = (bytes: Uint8Array) => Buffer.from(bytes).toString('base64');
 const bytes = (text: string) => new Uint8Array(Buffer.from(text, 'base64'));
-
-/** A run's output and pages as the job's return value (JSON-safe). */
-export function encodeResult(
-  output: RunOutput | WorkerRefusal,
-  pages: ClassPageData[],
-): WireResult {
-  return {
-    output: output.ok ? { ...output, gzip: b64(output.gzip) } : output,
-    pages: pages.map((p) => ({ ...p, gzip: b64(p.gzip) })),
-  };
-}
-
-/** The output and pages back from a job's return value. */
-export function decodeResult(wire: WireResult): {
-  output: RunOutput | WorkerRefusal;
-  pages: ClassPageData[];
-} {
-  return {
-    output: wire.output.ok ? { ...wire.output, gzip: bytes(wire.output.gzip) } : wire.output,
-    pages: wire.pages.map((p) => ({ ...p, gzip: bytes(p.gzip) })),
-  };
-}
 
 /** A run message as a job progress report, or back. */
 export function encodeMessage(m: Exclude<RunMessage, { page: ClassPageData }>): WireMessage {

@@ -365,10 +365,9 @@ export class RunExecutor {
     }
     const code = (err as { code?: unknown }).code;
     if (code === 'ERR_WORKER_OUT_OF_MEMORY') {
-      return {
-        status: 'failed',
-        error: `ran out of memory (the limit is ${this.limits.maxOldGenerationSizeMb} MB per run)`,
-      };
+      // a queue worker names its own limit
+      const mb = (err as { limitMb?: number }).limitMb ?? this.limits.maxOldGenerationSizeMb;
+      return { status: 'failed', error: `ran out of memory (the limit is ${mb} MB per run)` };
     }
     this.log(err);
     return { status: 'failed', error: 'the computation stopped unexpectedly' };

@@ -1,8 +1,7 @@
 import { MessageChannel } from 'node:worker_threads';
 import type { Progress } from '@traceloom/shared/engine';
-import type { Piscina } from 'piscina';
 import type { ClassPageData } from './class-pager.js';
-import { isSectorSpec, runSectorsOnPool } from './sector-runs.js';
+import { isSectorSpec, runSectorsOnPool, type TaskPool } from './sector-runs.js';
 import type { RunOutput, WorkerRefusal } from './worker.js';
 
 /** What a run reports while it computes: progress, its start, the cheap routes' result, pages. */
@@ -16,7 +15,7 @@ export type RunMessage =
  * task's worker and rejects. The embedded executor and the queue worker process both run this.
  */
 export async function runOnPool(
-  pool: Piscina,
+  pool: TaskPool,
   threads: number,
   spec: unknown,
   signal: AbortSignal,

@@ -17,6 +17,12 @@ import type { RunOutput, WorkerRefusal } from './worker.js';
 /** Sectors one pool task computes at most (several tasks per shell keep every thread busy). */
 const CHUNK = 16;
 
+/**
+ * What runs a sector run's tasks: the embedded worker pool (piscina), or in queue mode the
+ * queue's task jobs, which any worker process may take (`queue/remote-tasks.ts`).
+ */
+export type TaskPool = Pick<Piscina, 'run'>;
+
 /** True when a stored spec asks for a sector sum (series or numeric: spread over the pool). */
 export function isSectorSpec(spec: unknown): boolean {
   return (
@@ -71,7 +77,7 @@ function chunks(list: number[][], threads: number): number[][][] {
  * pool tasks (their workers are terminated) and rejects.
  */
 export async function runSectorsOnPool(
-  pool: Piscina,
+  pool: TaskPool,
   threads: number,
   spec: unknown,
   signal: AbortSignal,
