@@ -150,6 +150,14 @@ describe('workbench in the browser', () => {
     expect(mismatches).toHaveLength(1);
     expect(mismatches[0]).toMatch(/^2\s/);
     expect(mismatches[0]).toMatch(/q\^5/);
+    // The Z_L the table implies beside the entered ones, each only as far as its rows reach:
+    // Z_2 = Z_1^2 - 2 Z(2) is known below q^(7/2) only, so the planted q^5 cannot show there.
+    const implied = page.getByTestId('comparison-implied-weights').first();
+    await implied.waitFor();
+    const impliedRows = await implied.locator('tbody tr').allInnerTexts();
+    expect(impliedRows).toHaveLength(3);
+    expect(impliedRows[0]).toMatch(/the same: agrees below q\^3/);
+    expect(impliedRows[1]).toMatch(/the same: agrees below q\^\(7\/2\)/);
     await browser.screenshot(page, 'workbench-checks-reference');
 
     await openTab(page, 'Plots');

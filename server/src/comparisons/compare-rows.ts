@@ -10,8 +10,10 @@ import {
   compute,
   EngineError,
   fromValueJson,
+  impliedReferenceWeights,
   type GasSpec,
   type ValueJson,
+  type WeightVerdict,
 } from '@traceloom/shared/engine';
 
 /** What the worker needs to compare a finished run with a reference table. */
@@ -23,6 +25,40 @@ export interface CompareTask {
   order: string | null;
   normalization: string;
   rows: ReferenceRow[];
+  /** The run's cycle weights Z_1, Z_2, ... and statistics, for the Z_L the table implies. */
+  weights?: ValueJson[];
+  fermion?: boolean;
+}
+
+/**
+ * The Z_L a table's rows imply (Newton identities, after dividing out the normalization) beside
+ * the run's entered Z_L; null when the task carries no weights.
+ */
+export function impliedWeightsOfRows(task: CompareTask): WeightVerdict[] | null {
+  if (!task.weights || task.fermion === undefined) return null;
+  try {
+    return impliedWeights(task, task.weights, task.fermion);
+  } catch (e) {
+    // e.g. a normalization that vanishes at some N: the rows then determine no Z(N) there; the
+    // row verdicts stand on their own.
+    if (e instanceof EngineError) return null;
+    throw e;
+  }
+}
+
+function impliedWeights(task: CompareTask, weights: ValueJson[], fermion: boolean) {
+  return impliedReferenceWeights(
+    weights.map(fromValueJson),
+    task.normalization,
+    task.rows.map((row) => ({ N: row.N, value: row.value, field: `line ${row.line}` })),
+    {
+      variable: task.variable,
+      cap: task.order === null ? null : new Fraction(task.order),
+      nMax: task.canonical.length - 1,
+    },
+    fermion,
+    'normalization',
+  );
 }
 
 /**

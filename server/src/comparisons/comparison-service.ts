@@ -1,7 +1,7 @@
 import type { ReferenceRow } from '@traceloom/shared/api';
 import { comparisonBodySchema } from '@traceloom/shared/api';
 import type { ComparisonDto, RowVerdictDto } from '@traceloom/shared/api';
-import type { ValueJson } from '@traceloom/shared/engine';
+import type { ValueJson, WeightVerdict } from '@traceloom/shared/engine';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { isNumericResult, isNumericVerdict, readVerdict } from '@traceloom/shared/format';
@@ -28,6 +28,7 @@ function toDto(c: Comparison, runId: string): ComparisonDto {
     normalization: c.normalization,
     rows,
     summary: { agreeing: rows.filter((r) => r.agrees).length, total: rows.length },
+    impliedWeights: c.impliedWeights ? (JSON.parse(c.impliedWeights) as WeightVerdict[]) : null,
     createdAt: c.createdAt,
   };
 }
@@ -49,6 +50,7 @@ export async function createComparison(
     throw new AppError(409, 'run_not_done', `The run is ${run.status}; compare a finished run.`);
   }
   let rows: RowVerdictDto[];
+  let impliedWeights: WeightVerdict[] | null = null;
   let normalization = '1';
   let referenceId: string | null = null;
   if ('grand' in input) {
@@ -125,9 +127,12 @@ export async function createComparison(
             order: result.spec.order ?? null,
             normalization,
             rows: refRows,
+            weights: result.weights.map((w) => w.value as ValueJson),
+            fermion: result.spec.statistics === 'fermion',
           },
       { signal: AbortSignal.timeout(numeric ? ctx.config.runs.wallClockMs : COMPARE_LIMIT_MS) },
-    )) as { ok: true; rows: RowVerdictDto[] } | WorkerRefusal;
+    )) as
+      { ok: true; rows: RowVerdictDto[]; impliedWeights?: WeightVerdict[] | null } | WorkerRefusal;
     if (!output.ok) {
       const field = output.field === 'normalization' ? 'normalization' : 'referenceId';
       throw new AppError(
@@ -138,6 +143,7 @@ export async function createComparison(
       );
     }
     rows = output.rows;
+    impliedWeights = output.impliedWeights ?? null;
   }
   return ctx.dataSource.transaction(async (manager) => {
     const repo = manager.getRepository(Comparison);
@@ -148,6 +154,7 @@ export async function createComparison(
         kind: referenceId ? 'reference' : 'grand',
         normalization,
         verdicts: JSON.stringify(rows),
+        impliedWeights: impliedWeights ? JSON.stringify(impliedWeights) : null,
         createdBy: { id: actor.id },
         createdAt: new Date().toISOString(),
       }),

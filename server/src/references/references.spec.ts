@@ -283,6 +283,30 @@ describe('reference tables', () => {
     );
     expect(computed.terms.length).toBeGreaterThanOrEqual(4);
     expect(res.body.summary).toEqual({ agreeing: 2, total: 3 });
+    // The Z_L the rows imply (Newton identities, Z(N) = row / q^(-N^2/2)) beside the entered
+    // q^(L/2)/(1-q^L), each to the order the rows give it: Z(1) = q^(1/2)(1 + q + q^2 + q^3 +
+    // O(q^4)) gives Z_1 to O(q^(9/2)); Z_2 = Z_1^2 - 2 Z(2) to O(q^5); Z_3 = 3 Z(3) - Z_1 Z(2)
+    // + Z_2 Z(1) to O(q^(11/2)), below the wrong q^(15/2) of row 3 (hand derivation).
+    expect(
+      res.body.impliedWeights.map((w: { L: number; agrees: boolean; agreesBelow: string }) => [
+        w.L,
+        w.agrees,
+        w.agreesBelow,
+      ]),
+    ).toEqual([
+      [1, true, '9/2'],
+      [2, true, '5'],
+      [3, true, '11/2'],
+    ]);
+    expect(res.body.impliedWeights[0].implied).toEqual({
+      order: '9/2',
+      terms: [
+        ['1/2', '1'],
+        ['3/2', '1'],
+        ['5/2', '1'],
+        ['7/2', '1'],
+      ],
+    });
     const grand = await request(t.app)
       .post(`/api/runs/${runId}/comparisons`)
       .set('Authorization', bearer(token))
@@ -293,6 +317,8 @@ describe('reference tables', () => {
       .get(`/api/runs/${runId}/comparisons`)
       .set('Authorization', bearer(token));
     expect(list.body.map((c: { kind: string }) => c.kind)).toEqual(['reference', 'grand']);
+    expect(list.body[0].impliedWeights).toHaveLength(3);
+    expect(list.body[1].impliedWeights).toBeNull();
   });
 
   it('reads comparisons stored under the older side names (expected/found) as computed/supplied', async () => {

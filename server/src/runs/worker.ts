@@ -4,6 +4,7 @@ import type { MessagePort } from 'node:worker_threads';
 import { compute, EngineError, estimateRun, type Progress } from '@traceloom/shared/engine';
 import {
   compareSeriesRows,
+  impliedWeightsOfRows,
   compareReferenceRowsNumeric,
   type CompareTask,
   type NumericCompareTask,
@@ -177,7 +178,11 @@ export default function work(task: WorkerTask): unknown {
       }
     case 'compare':
       try {
-        return { ok: true, rows: compareSeriesRows(task) };
+        return {
+          ok: true,
+          rows: compareSeriesRows(task),
+          impliedWeights: impliedWeightsOfRows(task),
+        };
       } catch (e) {
         return refusal(e);
       }

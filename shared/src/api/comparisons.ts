@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { RowVerdict } from '../engine/checks/grand.js';
+import type { RowVerdict, WeightVerdict } from '../engine/checks/grand.js';
 import type { ComputeResult } from '../engine/result.js';
 import type { ValueJson } from '../engine/series/format.js';
 
@@ -46,5 +46,11 @@ export interface ComparisonDto {
   normalization: string;
   rows: RowVerdictDto[];
   summary: { agreeing: number; total: number };
+  /**
+   * A series reference comparison: the Z_L the table's rows imply (Newton identities) beside the
+   * run's entered ones, "not compared" where the rows do not determine them; null for grand and
+   * numeric comparisons and for those stored before.
+   */
+  impliedWeights: WeightVerdict[] | null;
   createdAt: string;
 }

@@ -59,6 +59,7 @@ export { classRowJsonText } from './canonical/class-text.js';
 export { spectrumProduct } from './canonical/product.js';
 export type { RowVerdict, WeightVerdict } from './checks/grand.js';
 export { compareReferenceRows } from './checks/reference.js';
+export { impliedReferenceWeights, weightsFromCanonical } from './checks/reference-weights.js';
 export type {
   CompareRowsOptions,
   ReferenceRing,

@@ -37,6 +37,10 @@ export class Comparison {
   @Column('text')
   verdicts!: string;
 
+  /** JSON: the Z_L a reference table's rows imply beside the run's (null: not computed). */
+  @Column('text', { name: 'implied_weights', nullable: true })
+  impliedWeights!: string | null;
+
   @ManyToOne(() => User, { nullable: false, onDelete: 'RESTRICT' })
   @JoinColumn({ name: 'created_by_id' })
   createdBy!: Relation<User>;

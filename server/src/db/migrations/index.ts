@@ -7,6 +7,7 @@ import { SignInLimits1796300060000 } from './1796300060000-sign-in-limits.js';
 import { RunClassPages1796310000000 } from './1796310000000-run-class-pages.js';
 import { DatasetAuthors1796320000000 } from './1796320000000-dataset-authors.js';
 import { ReferenceFacts1796330000000 } from './1796330000000-reference-facts.js';
+import { ComparisonImpliedWeights1796340000000 } from './1796340000000-comparison-implied-weights.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -19,4 +20,5 @@ export const MIGRATIONS = [
   RunClassPages1796310000000,
   DatasetAuthors1796320000000,
   ReferenceFacts1796330000000,
+  ComparisonImpliedWeights1796340000000,
 ];

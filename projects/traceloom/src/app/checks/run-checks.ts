@@ -1,6 +1,5 @@
 import type { RowVerdictDto, SeriesRowVerdictDto } from '@traceloom/shared/api';
 import { RouterLink } from '@angular/router';
-import type { SeriesJson } from './series-diff';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -21,12 +20,12 @@ import { messageOf } from '../core/api-error';
 import { Session } from '../core/session';
 import { ExportButtons } from '../exports/export-buttons';
 import type { RunDto } from '../runs/runs-api';
-import { Tex } from '../runs/tex';
-import { plainPower, valueTex } from '@traceloom/shared/format';
+import { plainPower } from '@traceloom/shared/format';
 import { ChecksApi, ComparisonDto, ReferenceDto, ReferenceSummary } from './checks-api';
 import { comparisonCsv, comparisonTex } from './comparison-export';
 import { ReferenceUpload } from './reference-upload';
 import { SeriesSideBySide } from './series-side-by-side';
+import { ImpliedWeights } from './implied-weights';
 import { NumericVerdictRow, NumericVerdicts } from './numeric-verdicts';
 import { VerdictMatrix } from './verdict-matrix';
 import { isNumericVerdict, verdictText } from '@traceloom/shared/format';
@@ -49,7 +48,7 @@ import type { VerdictLike } from './verdict-cells';
     ExportButtons,
     ReferenceUpload,
     SeriesSideBySide,
-    Tex,
+    ImpliedWeights,
     NumericVerdicts,
     VerdictMatrix,
     RouterLink,
@@ -87,23 +86,11 @@ export class RunChecks {
     const rows: unknown[] = [...(r?.grandCheck ?? []), ...(r?.referenceCheck ?? [])];
     return this.run().spec.precision !== undefined || rows.some(isNumericVerdict);
   });
-  protected readonly valueTex = valueTex;
   protected readonly comparisonCsv = comparisonCsv;
   protected readonly comparisonTex = comparisonTex;
 
   constructor() {
     effect(() => this.load(this.run()));
-  }
-
-  /** The implied Z_L itself of a series verdict (results stored before it was kept have none). */
-  protected impliedOf(w: unknown): SeriesJson | null {
-    const implied = (w as { implied?: SeriesJson }).implied;
-    return implied && Array.isArray(implied.terms) ? implied : null;
-  }
-
-  /** An implied-weight verdict in words (numeric ones state their tolerance). */
-  protected weightText(w: unknown): string {
-    return verdictText(w as Parameters<typeof verdictText>[0], this.variable());
   }
 
   protected asNumeric(rows: readonly unknown[]): NumericVerdictRow[] {
