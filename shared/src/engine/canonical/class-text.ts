@@ -18,20 +18,15 @@ export function classRowJsonText(r: ClassRowJson): string {
 
 /**
  * The same text for an exact rational contribution num/den (reduced, den > 0) straight from a
- * walk's visit, without building the row object.
+ * walk's visit and its cycle type's JSON pairs ("[1,2],[3,1]"), without building the row object.
  */
 export function exactClassRowText(
   visit: CycleTypeVisit,
   sign: 1 | -1,
   num: bigint,
   den: bigint,
+  pairs: string,
 ): string {
-  let ct = '';
-  const m = visit.m;
-  for (let L = 1; L <= visit.n; L++) {
-    const k = m[L]!;
-    if (k > 0) ct += ct === '' ? `[${L},${k}]` : `,[${L},${k}]`;
-  }
   const terms = num === 0n ? '' : den === 1n ? `["0","${num}"]` : `["0","${num}/${den}"]`;
-  return `{"N":${visit.n},"cycleType":[${ct}],"size":"${visit.size}","sign":${sign},"contribution":{"order":null,"terms":[${terms}]}}`;
+  return `{"N":${visit.n},"cycleType":[${pairs}],"size":"${visit.size}","sign":${sign},"contribution":{"order":null,"terms":[${terms}]}}`;
 }

@@ -59,8 +59,8 @@ export function classSum(
         },
       }),
       ...(onExactText && {
-        onRow: (visit, c) => {
-          onExactText(exactClassRowText(visit, fermion ? visit.sign : 1, c.num, c.den));
+        onRow: (visit, c, pairs) => {
+          onExactText(exactClassRowText(visit, fermion ? visit.sign : 1, c.num, c.den, pairs));
           counted();
         },
       }),

@@ -7,7 +7,7 @@
  * running numerator over the common denominator C * n!, so the total is one reduction at the end.
  */
 import { factorial, gcd } from '../../integers.js';
-import { foldCycleTypes, type CycleTypeVisit } from './cycle-types.js';
+import type { CycleTypeVisit } from './cycle-types.js';
 
 /** A rational number as numerator and positive denominator (need not be reduced). */
 export interface RationalParts {
@@ -22,10 +22,11 @@ export interface ClassSumInput {
   /** -1 fermions (class sign (-1)^(n - cycles)), +1 bosons */
   readonly sign: 1 | -1;
   /**
-   * called with every cycle type and its contribution eps * prod Z_L^(m_L) / z, reduced (rows
-   * are reduced only when this is given); the visit is reused: copy what you keep
+   * called with every cycle type, its contribution eps * prod Z_L^(m_L) / z reduced (rows are
+   * reduced only when this is given) and its exponent notation as JSON pairs ("[1,2],[3,1]");
+   * the visit and the contribution are reused: copy what you keep
    */
-  readonly onRow?: (visit: CycleTypeVisit, contribution: RationalParts) => void;
+  readonly onRow?: (visit: CycleTypeVisit, contribution: RationalParts, pairs: string) => void;
 }
 
 /** Reduced form of num/den with den > 0. */
@@ -39,52 +40,163 @@ export function reduceRational(num: bigint, den: bigint): RationalParts {
   return g === 1n ? { num, den } : { num: num / g, den: den / g };
 }
 
-interface WalkState {
-  readonly a: bigint;
-  readonly q: bigint;
-  /** prod (b_L L)^(m_L) m_L!, the row's denominator: only tracked when rows are wanted */
-  readonly d: bigint;
+/** Per cycle length L and multiplicity k: the row factor (eps Z_L)^k / (L^k k!), reduced. */
+interface LevelTables {
+  /** reduced numerators, the class sign included for fermions */
+  readonly num: readonly bigint[][];
+  readonly den: readonly bigint[][];
+  /** `[L,k]` and `[L,k],`: the exponent-notation pairs of a row's JSON text */
+  readonly pair: readonly string[][];
+  readonly pairComma: readonly string[][];
 }
 
-/** The class sum Z(n) (reduced) for rational weights, streaming the rows to onRow if given. */
+function levelTables(w: readonly RationalParts[], n: number, sign: 1 | -1): LevelTables {
+  const num: bigint[][] = [[]];
+  const den: bigint[][] = [[]];
+  const pair: string[][] = [[]];
+  const pairComma: string[][] = [[]];
+  for (let L = 1; L <= n; L++) {
+    const x = w[L - 1]!;
+    const flip = sign === -1 && L % 2 === 0;
+    const nums = [1n];
+    const dens = [1n];
+    const texts = [''];
+    const commas = [''];
+    let a = 1n;
+    let b = 1n;
+    for (let k = 1; k * L <= n; k++) {
+      a *= flip ? -x.num : x.num;
+      b *= x.den * BigInt(L * k);
+      const r = reduceRational(a, b);
+      nums.push(r.num);
+      dens.push(r.den);
+      texts.push(`[${L},${k}]`);
+      commas.push(`[${L},${k}],`);
+    }
+    num.push(nums);
+    den.push(dens);
+    pair.push(texts);
+    pairComma.push(commas);
+  }
+  return { num, den, pair, pairComma };
+}
+
+/**
+ * The class sum Z(n) (reduced) for rational weights, streaming the rows to onRow if given.
+ *
+ * One depth-first walk in the order of foldCycleTypes. The total carries a, q and the class size
+ * as described above; a row's reduced contribution is the product of its levels' reduced factors
+ * (levelTables), with one gcd only when that product's numerator is not +-1, and its cycle type
+ * in exponent notation is built as text along the walk (one concatenation per level).
+ */
 export function classSumRational(input: ClassSumInput): RationalParts {
   const { n, sign, onRow } = input;
+  if (!Number.isInteger(n) || n < 0)
+    throw new RangeError(`n must be a non-negative integer, got ${n}`);
   const w = input.weights.slice(0, n).map((x) => reduceRational(x.num, x.den));
   if (w.length < n) throw new RangeError(`classSumRational needs ${n} weights, got ${w.length}`);
+  const nFact = factorial(n);
+  if (n === 0) {
+    onRow?.({ n, m: new Int32Array(1), parts: 0, size: 1n, sign: 1 }, { num: 1n, den: 1n }, '');
+    return { num: 1n, den: 1n };
+  }
   let common = 1n;
   for (let L = 1; L <= n; L++) common *= w[L - 1]!.den ** BigInt(Math.floor(n / L));
-  const rowFactor = w.map((x, t) => x.den * BigInt(t + 1));
-  // powers for the last level (k cycles of length 1 at once)
+  const tables = onRow ? levelTables(w, n, sign) : null;
+  const factorials = [1n];
+  for (let k = 1; k <= n; k++) factorials.push(factorials[k - 1]! * BigInt(k));
+  // the last level: k cycles of length 1 at once
   const w1 = w[0]!;
   const a1 = [1n];
   const b1 = [1n];
-  const d1 = [1n];
   for (let k = 1; k <= n; k++) {
     a1.push(a1[k - 1]! * w1.num);
     b1.push(b1[k - 1]! * w1.den);
-    d1.push(d1[k - 1]! * w1.den * BigInt(k));
   }
+  const m = new Int32Array(n + 1);
+  const visit = { n, m, parts: 0, size: 0n, sign: 1 as 1 | -1 };
+  const row = { num: 0n, den: 1n };
   let total = 0n;
-  const track = onRow !== undefined;
-  foldCycleTypes<WalkState>(
-    n,
-    { a: 1n, q: common, d: 1n },
-    (s, L, k) => {
-      const x = w[L - 1]!;
-      const d = track ? s.d * rowFactor[L - 1]! * BigInt(k) : 1n;
-      return { a: s.a * x.num, q: x.den === 1n ? s.q : s.q / x.den, d };
-    },
-    (s, visit) => {
-      const eps = sign === -1 ? visit.sign : 1;
-      const term = s.a * visit.size * s.q;
-      total += eps === 1 ? term : -term;
-      if (onRow) onRow(visit, reduceRational(eps === 1 ? s.a : -s.a, s.d));
-    },
-    (s, k) => ({
-      a: s.a * a1[k]!,
-      q: w1.den === 1n ? s.q : s.q / b1[k]!,
-      d: track ? s.d * d1[k]! : 1n,
-    }),
-  );
-  return reduceRational(total, common * factorial(n));
+  const leaf = (
+    rest: number,
+    parts: number,
+    a: bigint,
+    q: bigint,
+    size: bigint,
+    A: bigint,
+    D: bigint,
+    pairs: string,
+  ): void => {
+    const classSign: 1 | -1 = (n - parts - rest) % 2 === 0 ? 1 : -1;
+    const z = rest > 1 ? size / factorials[rest]! : size;
+    const term = a * a1[rest]! * z * (w1.den === 1n ? q : q / b1[rest]!);
+    total += sign === -1 && classSign === -1 ? -term : term;
+    if (!tables) return;
+    m[1] = rest;
+    visit.parts = parts + rest;
+    visit.size = z;
+    visit.sign = classSign;
+    let num = rest > 0 ? A * tables.num[1]![rest]! : A;
+    let den = rest > 0 ? D * tables.den[1]![rest]! : D;
+    if (num === 0n) den = 1n;
+    else if (num !== 1n && num !== -1n) {
+      const g = gcd(num, den);
+      if (g !== 1n) {
+        num /= g;
+        den /= g;
+      }
+    }
+    row.num = num;
+    row.den = den;
+    const text =
+      rest === 0
+        ? pairs
+        : pairs === ''
+          ? tables.pair[1]![rest]!
+          : tables.pairComma[1]![rest]! + pairs;
+    onRow!(visit, row, text);
+    m[1] = 0;
+  };
+  // walk(L, ...): decide m_L..m_1 for the remaining `rest`
+  const walk = (
+    L: number,
+    rest: number,
+    parts: number,
+    a: bigint,
+    q: bigint,
+    size: bigint,
+    A: bigint,
+    D: bigint,
+    pairs: string,
+  ): void => {
+    // lengths above what is left have multiplicity 0: go straight to the longest possible one
+    if (L > rest) L = Math.max(rest, 1);
+    if (L === 1) return leaf(rest, parts, a, q, size, A, D, pairs);
+    const x = w[L - 1]!;
+    const bL = BigInt(L);
+    walk(L - 1, rest, parts, a, q, size, A, D, pairs);
+    for (let k = 1; k * L <= rest; k++) {
+      a *= x.num;
+      if (x.den !== 1n) q /= x.den;
+      size /= bL * BigInt(k);
+      m[L] = k;
+      if (tables) {
+        const p = pairs === '' ? tables.pair[L]![k]! : tables.pairComma[L]![k]! + pairs;
+        walk(
+          L - 1,
+          rest - k * L,
+          parts + k,
+          a,
+          q,
+          size,
+          A * tables.num[L]![k]!,
+          D * tables.den[L]![k]!,
+          p,
+        );
+      } else walk(L - 1, rest - k * L, parts + k, a, q, size, A, D, pairs);
+    }
+    m[L] = 0;
+  };
+  walk(n, n, 0, 1n, common, nFact, 1n, 1n, '');
+  return reduceRational(total, common * nFact);
 }
