@@ -3,11 +3,13 @@
  * weights Z_L = a_L / b_L, streamed: one walk over the cycle types, never holding the rows.
  *
  * Along the walk three integers are carried: A = prod a_L^(m_L), Q = C / prod b_L^(m_L) with
- * C = prod_L b_L^(floor(n/L)), and the class size n!/z. Every leaf adds eps * A * size * Q to a
- * running numerator over the common denominator C * n!, so the total is one reduction at the end.
+ * C = prod_L b_L^(floor(n/L)), and the class size n!/z; the total is a running numerator over the
+ * common denominator C * n!, so it is one reduction at the end. The cycles of length <= 4 are
+ * summed by a table (short-cycles.ts) where the walk has decided the longer ones.
  */
 import { factorial, gcd } from '../../integers.js';
 import type { CycleTypeVisit } from './cycle-types.js';
+import { shortCycleTable } from './short-cycles.js';
 
 /** A rational number as numerator and positive denominator (need not be reduced). */
 export interface RationalParts {
@@ -81,13 +83,18 @@ function levelTables(w: readonly RationalParts[], n: number, sign: 1 | -1): Leve
   return { num, den, pair, pairComma };
 }
 
+/** Cycle lengths summed by the short-cycle table instead of walked (for the total). */
+const SHORT_CYCLES = 4;
+
 /**
  * The class sum Z(n) (reduced) for rational weights, streaming the rows to onRow if given.
  *
- * One depth-first walk in the order of foldCycleTypes. The total carries a, q and the class size
- * as described above; a row's reduced contribution is the product of its levels' reduced factors
- * (levelTables), with one gcd only when that product's numerator is not +-1, and its cycle type
- * in exponent notation is built as text along the walk (one concatenation per level).
+ * One depth-first walk in the order of foldCycleTypes. For the total it decides the cycles longer
+ * than SHORT_CYCLES, carrying a, q and the class size as described above, and multiplies by the
+ * short-cycle table (short-cycles.ts) where only short cycles are left. Rows go on to the leaves:
+ * a row's reduced contribution is the product of its levels' reduced factors (levelTables), with
+ * one gcd only when that product's numerator is not +-1, and its cycle type in exponent notation
+ * is built as text along the walk (one concatenation per level).
  */
 export function classSumRational(input: ClassSumInput): RationalParts {
   const { n, sign, onRow } = input;
@@ -102,42 +109,37 @@ export function classSumRational(input: ClassSumInput): RationalParts {
   }
   let common = 1n;
   for (let L = 1; L <= n; L++) common *= w[L - 1]!.den ** BigInt(Math.floor(n / L));
+  const short = shortCycleTable(w, n, Math.min(n, SHORT_CYCLES), sign);
   const tables = onRow ? levelTables(w, n, sign) : null;
   const factorials = [1n];
   for (let k = 1; k <= n; k++) factorials.push(factorials[k - 1]! * BigInt(k));
-  // the last level: k cycles of length 1 at once
-  const w1 = w[0]!;
-  const a1 = [1n];
-  const b1 = [1n];
-  for (let k = 1; k <= n; k++) {
-    a1.push(a1[k - 1]! * w1.num);
-    b1.push(b1[k - 1]! * w1.den);
-  }
   const m = new Int32Array(n + 1);
   const visit = { n, m, parts: 0, size: 0n, sign: 1 as 1 | -1 };
   const row = { num: 0n, den: 1n };
   let total = 0n;
+  // the long cycles decided (a, q, size as above, `parts` cycles on n - rest points): add the
+  // sum over every way to fill `rest` with short cycles
+  const addShort = (rest: number, parts: number, a: bigint, q: bigint, size: bigint): void => {
+    const u = short.U[rest]!;
+    if (u === 0n || a === 0n) return;
+    const term = a * (q / short.beta[rest]!) * (size / factorials[rest]!) * u;
+    total += sign === -1 && (n - rest - parts) % 2 !== 0 ? -term : term;
+  };
   const leaf = (
     rest: number,
     parts: number,
-    a: bigint,
-    q: bigint,
     size: bigint,
     A: bigint,
     D: bigint,
     pairs: string,
   ): void => {
-    const classSign: 1 | -1 = (n - parts - rest) % 2 === 0 ? 1 : -1;
-    const z = rest > 1 ? size / factorials[rest]! : size;
-    const term = a * a1[rest]! * z * (w1.den === 1n ? q : q / b1[rest]!);
-    total += sign === -1 && classSign === -1 ? -term : term;
-    if (!tables) return;
+    const t = tables!;
     m[1] = rest;
     visit.parts = parts + rest;
-    visit.size = z;
-    visit.sign = classSign;
-    let num = rest > 0 ? A * tables.num[1]![rest]! : A;
-    let den = rest > 0 ? D * tables.den[1]![rest]! : D;
+    visit.size = rest > 1 ? size / factorials[rest]! : size;
+    visit.sign = (n - parts - rest) % 2 === 0 ? 1 : -1;
+    let num = rest > 0 ? A * t.num[1]![rest]! : A;
+    let den = rest > 0 ? D * t.den[1]![rest]! : D;
     if (num === 0n) den = 1n;
     else if (num !== 1n && num !== -1n) {
       const g = gcd(num, den);
@@ -149,15 +151,34 @@ export function classSumRational(input: ClassSumInput): RationalParts {
     row.num = num;
     row.den = den;
     const text =
-      rest === 0
-        ? pairs
-        : pairs === ''
-          ? tables.pair[1]![rest]!
-          : tables.pairComma[1]![rest]! + pairs;
+      rest === 0 ? pairs : pairs === '' ? t.pair[1]![rest]! : t.pairComma[1]![rest]! + pairs;
     onRow!(visit, row, text);
     m[1] = 0;
   };
-  // walk(L, ...): decide m_L..m_1 for the remaining `rest`
+  // rows(L, ...): decide m_L..m_1 for the remaining `rest` (the total is already counted)
+  const rows = (
+    L: number,
+    rest: number,
+    parts: number,
+    size: bigint,
+    A: bigint,
+    D: bigint,
+    pairs: string,
+  ): void => {
+    if (L > rest) L = Math.max(rest, 1);
+    if (L === 1) return leaf(rest, parts, size, A, D, pairs);
+    const t = tables!;
+    const bL = BigInt(L);
+    rows(L - 1, rest, parts, size, A, D, pairs);
+    for (let k = 1; k * L <= rest; k++) {
+      size /= bL * BigInt(k);
+      m[L] = k;
+      const p = pairs === '' ? t.pair[L]![k]! : t.pairComma[L]![k]! + pairs;
+      rows(L - 1, rest - k * L, parts + k, size, A * t.num[L]![k]!, D * t.den[L]![k]!, p);
+    }
+    m[L] = 0;
+  };
+  // walk(L, ...): the long cycles, m_L for L > SHORT_CYCLES, then the table and the rows
   const walk = (
     L: number,
     rest: number,
@@ -169,9 +190,12 @@ export function classSumRational(input: ClassSumInput): RationalParts {
     D: bigint,
     pairs: string,
   ): void => {
-    // lengths above what is left have multiplicity 0: go straight to the longest possible one
     if (L > rest) L = Math.max(rest, 1);
-    if (L === 1) return leaf(rest, parts, a, q, size, A, D, pairs);
+    if (L <= short.G) {
+      addShort(rest, parts, a, q, size);
+      if (tables) rows(L, rest, parts, size, A, D, pairs);
+      return;
+    }
     const x = w[L - 1]!;
     const bL = BigInt(L);
     walk(L - 1, rest, parts, a, q, size, A, D, pairs);
@@ -181,18 +205,9 @@ export function classSumRational(input: ClassSumInput): RationalParts {
       size /= bL * BigInt(k);
       m[L] = k;
       if (tables) {
-        const p = pairs === '' ? tables.pair[L]![k]! : tables.pairComma[L]![k]! + pairs;
-        walk(
-          L - 1,
-          rest - k * L,
-          parts + k,
-          a,
-          q,
-          size,
-          A * tables.num[L]![k]!,
-          D * tables.den[L]![k]!,
-          p,
-        );
+        const t = tables;
+        const p = pairs === '' ? t.pair[L]![k]! : t.pairComma[L]![k]! + pairs;
+        walk(L - 1, rest - k * L, parts + k, a, q, size, A * t.num[L]![k]!, D * t.den[L]![k]!, p);
       } else walk(L - 1, rest - k * L, parts + k, a, q, size, A, D, pairs);
     }
     m[L] = 0;
