@@ -16,9 +16,17 @@ export function classRowJsonText(r: ClassRowJson): string {
   return `{"N":${r.N},"cycleType":[${ct}],"size":"${r.size}","sign":${r.sign},"contribution":{"order":${order},"terms":[${terms}]}}`;
 }
 
+/** The constant pieces of an exact row's text, by sign. */
+const AFTER_SIZE = {
+  [1]: '","sign":1,"contribution":{"order":null,"terms":[',
+  [-1]: '","sign":-1,"contribution":{"order":null,"terms":[',
+} as const;
+const rowStarts: string[] = [];
+
 /**
  * The same text for an exact rational contribution num/den (reduced, den > 0) straight from a
- * walk's visit and its cycle type's JSON pairs ("[1,2],[3,1]"), without building the row object.
+ * walk's visit and its cycle type's JSON pairs ("[1,2],[3,1]"), without building the row object;
+ * the constant pieces are joined once, so a row is nine strings put together.
  */
 export function exactClassRowText(
   visit: CycleTypeVisit,
@@ -27,6 +35,10 @@ export function exactClassRowText(
   den: bigint,
   pairs: string,
 ): string {
-  const terms = num === 0n ? '' : den === 1n ? `["0","${num}"]` : `["0","${num}/${den}"]`;
-  return `{"N":${visit.n},"cycleType":[${pairs}],"size":"${visit.size}","sign":${sign},"contribution":{"order":null,"terms":[${terms}]}}`;
+  const n = visit.n;
+  const start = (rowStarts[n] ??= `{"N":${n},"cycleType":[`);
+  const head = start + pairs + '],"size":"' + visit.size + AFTER_SIZE[sign];
+  if (num === 0n) return head + ']}}';
+  if (den === 1n) return head + '["0","' + num + '"]]}}';
+  return head + '["0","' + num + '/' + den + '"]]}}';
 }

@@ -113,6 +113,12 @@ export function classSumRational(input: ClassSumInput): RationalParts {
   const tables = onRow ? levelTables(w, n, sign) : null;
   const factorials = [1n];
   for (let k = 1; k <= n; k++) factorials.push(factorials[k - 1]! * BigInt(k));
+  // lk[L][k] = L k: the class size divides by it at the k-th cycle of length L
+  const lk: bigint[][] = [];
+  for (let L = 0; L <= n; L++)
+    lk.push(Array.from({ length: L === 0 ? 0 : Math.floor(n / L) + 1 }, (_, k) => BigInt(L * k)));
+  /** x * f without a new BigInt when f is +-1 */
+  const times = (x: bigint, f: bigint): bigint => (f === 1n ? x : f === -1n ? -x : x * f);
   const m = new Int32Array(n + 1);
   const visit = { n, m, parts: 0, size: 0n, sign: 1 as 1 | -1 };
   const row = { num: 0n, den: 1n };
@@ -138,7 +144,7 @@ export function classSumRational(input: ClassSumInput): RationalParts {
     visit.parts = parts + rest;
     visit.size = rest > 1 ? size / factorials[rest]! : size;
     visit.sign = (n - parts - rest) % 2 === 0 ? 1 : -1;
-    let num = rest > 0 ? A * t.num[1]![rest]! : A;
+    let num = rest > 0 ? times(A, t.num[1]![rest]!) : A;
     let den = rest > 0 ? D * t.den[1]![rest]! : D;
     if (num === 0n) den = 1n;
     else if (num !== 1n && num !== -1n) {
@@ -168,13 +174,13 @@ export function classSumRational(input: ClassSumInput): RationalParts {
     if (L > rest) L = Math.max(rest, 1);
     if (L === 1) return leaf(rest, parts, size, A, D, pairs);
     const t = tables!;
-    const bL = BigInt(L);
+    const divisors = lk[L]!;
     rows(L - 1, rest, parts, size, A, D, pairs);
     for (let k = 1; k * L <= rest; k++) {
-      size /= bL * BigInt(k);
+      size /= divisors[k]!;
       m[L] = k;
       const p = pairs === '' ? t.pair[L]![k]! : t.pairComma[L]![k]! + pairs;
-      rows(L - 1, rest - k * L, parts + k, size, A * t.num[L]![k]!, D * t.den[L]![k]!, p);
+      rows(L - 1, rest - k * L, parts + k, size, times(A, t.num[L]![k]!), D * t.den[L]![k]!, p);
     }
     m[L] = 0;
   };
@@ -197,17 +203,27 @@ export function classSumRational(input: ClassSumInput): RationalParts {
       return;
     }
     const x = w[L - 1]!;
-    const bL = BigInt(L);
+    const divisors = lk[L]!;
     walk(L - 1, rest, parts, a, q, size, A, D, pairs);
     for (let k = 1; k * L <= rest; k++) {
       a *= x.num;
       if (x.den !== 1n) q /= x.den;
-      size /= bL * BigInt(k);
+      size /= divisors[k]!;
       m[L] = k;
       if (tables) {
         const t = tables;
         const p = pairs === '' ? t.pair[L]![k]! : t.pairComma[L]![k]! + pairs;
-        walk(L - 1, rest - k * L, parts + k, a, q, size, A * t.num[L]![k]!, D * t.den[L]![k]!, p);
+        walk(
+          L - 1,
+          rest - k * L,
+          parts + k,
+          a,
+          q,
+          size,
+          times(A, t.num[L]![k]!),
+          D * t.den[L]![k]!,
+          p,
+        );
       } else walk(L - 1, rest - k * L, parts + k, a, q, size, A, D, pairs);
     }
     m[L] = 0;
