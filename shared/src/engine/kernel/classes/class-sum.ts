@@ -161,30 +161,8 @@ export function classSumRational(input: ClassSumInput): RationalParts {
     onRow!(visit, row, text);
     m[1] = 0;
   };
-  // rows(L, ...): decide m_L..m_1 for the remaining `rest` (the total is already counted)
-  const rows = (
-    L: number,
-    rest: number,
-    parts: number,
-    size: bigint,
-    A: bigint,
-    D: bigint,
-    pairs: string,
-  ): void => {
-    if (L > rest) L = Math.max(rest, 1);
-    if (L === 1) return leaf(rest, parts, size, A, D, pairs);
-    const t = tables!;
-    const divisors = lk[L]!;
-    rows(L - 1, rest, parts, size, A, D, pairs);
-    for (let k = 1; k * L <= rest; k++) {
-      size /= divisors[k]!;
-      m[L] = k;
-      const p = pairs === '' ? t.pair[L]![k]! : t.pairComma[L]![k]! + pairs;
-      rows(L - 1, rest - k * L, parts + k, size, times(A, t.num[L]![k]!), D * t.den[L]![k]!, p);
-    }
-    m[L] = 0;
-  };
-  // walk(L, ...): the long cycles, m_L for L > SHORT_CYCLES, then the table and the rows
+  // walk(L, ...): decide m_L..m_1 for the remaining `rest`; q = 0 once the short-cycle table has
+  // counted the total below this point (the walk goes on for the rows only)
   const walk = (
     L: number,
     rest: number,
@@ -196,22 +174,26 @@ export function classSumRational(input: ClassSumInput): RationalParts {
     D: bigint,
     pairs: string,
   ): void => {
+    // lengths above what is left have multiplicity 0: go straight to the longest possible one
     if (L > rest) L = Math.max(rest, 1);
-    if (L <= short.G) {
+    if (q !== 0n && L <= short.G) {
       addShort(rest, parts, a, q, size);
-      if (tables) rows(L, rest, parts, size, A, D, pairs);
-      return;
+      if (!tables) return;
+      q = 0n;
     }
+    if (L === 1) return leaf(rest, parts, size, A, D, pairs);
+    const t = tables;
     const x = w[L - 1]!;
     const divisors = lk[L]!;
     walk(L - 1, rest, parts, a, q, size, A, D, pairs);
     for (let k = 1; k * L <= rest; k++) {
-      a *= x.num;
-      if (x.den !== 1n) q /= x.den;
+      if (q !== 0n) {
+        a *= x.num;
+        if (x.den !== 1n) q /= x.den;
+      }
       size /= divisors[k]!;
       m[L] = k;
-      if (tables) {
-        const t = tables;
+      if (t) {
         const p = pairs === '' ? t.pair[L]![k]! : t.pairComma[L]![k]! + pairs;
         walk(
           L - 1,
