@@ -4,7 +4,7 @@
 // on the specs in scripts/cli-training/ (see bench/README.md, "Start-up of the command line").
 // `npm run build:server` runs it after tsc.
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, existsSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { build } from 'esbuild';
 import { root } from './lib.mjs';
@@ -20,6 +20,7 @@ if (!existsSync(entry) || !existsSync(parserOnly)) {
   process.exit(2);
 }
 const noLocales = path.join(out, 'no-locales.mjs');
+mkdirSync(out, { recursive: true }); // a fresh clone has no dist/cli yet
 await build({
   entryPoints: [entry],
   outfile: path.join(out, 'traceloom.cjs'),
