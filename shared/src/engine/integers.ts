@@ -72,3 +72,40 @@ export function reduceRow(num: bigint[], den: bigint): { num: bigint[]; den: big
   if (g === 1n) return { num, den };
   return { num: num.map((c) => (c === 0n ? 0n : c / g)), den: den / g };
 }
+
+/**
+ * reduceRow for a denominator extra * base^count (base, extra > 0) without a gcd of two huge
+ * numbers: the common factor with base^count comes out one gcd with `base` at a time (at most
+ * `count` rounds, each dividing by gcd(base, every numerator)), then the one with `extra`. For a
+ * prime l, round i removes min(v_l(base), what is left of the row's v_l), so the rounds together
+ * remove min(v_l(row), count v_l(base)): the same reduced row as reduceRow.
+ */
+export function reduceRowScaled(
+  num: bigint[],
+  base: bigint,
+  count: number,
+  extra: bigint,
+): { num: bigint[]; den: bigint } {
+  let row = num;
+  let g = 1n;
+  const common = (m: bigint): bigint => {
+    let h = m;
+    for (let i = 0; i < row.length && h !== 1n; i++) {
+      const c = row[i]!;
+      if (c !== 0n) h = gcd(h, c % h);
+    }
+    return h;
+  };
+  const divide = (h: bigint): void => {
+    row = row.map((c) => (c === 0n ? 0n : c / h));
+    g *= h;
+  };
+  for (let i = 0; i < count; i++) {
+    const h = common(base);
+    if (h === 1n) break;
+    divide(h);
+  }
+  const h = common(extra);
+  if (h !== 1n) divide(h);
+  return { num: row, den: (extra * base ** BigInt(count)) / g };
+}

@@ -4,7 +4,7 @@
  * X_N = sum_L s^(L-1) w_L X_(N-L) D^(L-1) (N-1)!/(N-L)!.
  */
 import { EngineCancelled } from '../../errors.js';
-import { reduceRow } from '../../integers.js';
+import { factorial, reduceRowScaled } from '../../integers.js';
 import { mulTrunc } from '../multiply/mul-trunc.js';
 import type { NewtonTableInput, NewtonTableResult } from './types.js';
 
@@ -13,7 +13,6 @@ export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
   const { weights, den, nMax, sign, length } = input;
   if (den <= 0n) throw new RangeError('den must be positive');
   const x: bigint[][] = [[1n]];
-  const scale: bigint[] = [1n];
   for (let N = 1; N <= nMax; N++) {
     if (input.shouldStop?.()) throw new EngineCancelled();
     const acc = new Array<bigint>(length).fill(0n);
@@ -31,7 +30,6 @@ export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
       for (let i = 0; i < prod.length; i++) if (prod[i] !== 0n) acc[i]! += f * prod[i]!;
     }
     x.push(acc);
-    scale.push(scale[N - 1]! * BigInt(N) * den);
     input.onProgress?.(N, nMax);
   }
   const num: bigint[][] = [];
@@ -39,7 +37,8 @@ export function newtonTableBig(input: NewtonTableInput): NewtonTableResult {
   for (let N = 0; N <= nMax; N++) {
     const row = x[N]!.slice(0, length);
     while (row.length < length) row.push(0n);
-    const r = reduceRow(row, scale[N]!);
+    // over N! D^N: the common factor with D^N one gcd with D at a time (no gcd of huge numbers)
+    const r = reduceRowScaled(row, den, N, factorial(N));
     num.push(r.num);
     dens.push(r.den);
   }
