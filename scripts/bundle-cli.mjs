@@ -1,10 +1,11 @@
 // Bundles the compiled command line (dist/server/cli/main.js and the shared library it imports)
 // into one file, dist/cli/traceloom.cjs, and writes its entry dist/cli/traceloom.mjs (a copy of
-// scripts/cli-loader.mjs) and V8's code cache for it, dist/cli/traceloom.cache, from training runs
-// on the specs in scripts/cli-training/ (see bench/README.md, "Start-up of the command line").
+// scripts/cli-loader.mjs) and V8's code cache for it, dist/cli/traceloom.<hash>.cache, from
+// training runs on the specs in scripts/cli-training/ (see bench/README.md: the classes-40
+// start-up paragraph and "Numeric tasks").
 // `npm run build:server` runs it after tsc.
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { build } from 'esbuild';
 import { root } from './lib.mjs';
@@ -57,8 +58,7 @@ rmSync(path.join(out, 'traceloom.mjs'), { force: true });
 copyFileSync(path.join(root, 'scripts/cli-loader.mjs'), path.join(out, 'traceloom.mjs'));
 
 // training runs: each loads the cache the previous one wrote and adds what it compiled
-const cache = path.join(out, 'traceloom.cache');
-rmSync(cache, { force: true });
+for (const f of readdirSync(out)) if (f.endsWith('.cache')) rmSync(path.join(out, f));
 for (const spec of ['kernel.json', 'series.json']) {
   const r = spawnSync(
     process.execPath,

@@ -1,10 +1,12 @@
 // The command line's entry, copied to dist/cli/traceloom.mjs by scripts/bundle-cli.mjs: it runs
 // the bundle dist/cli/traceloom.cjs through vm.Script with V8's code cache for it
-// (dist/cli/traceloom.cache, written at build time by a training run), so that a command neither
-// parses the bundle nor compiles the functions it calls (bytecode comes from the cache; Node 20
-// has no module.enableCompileCache). The cache holds compiled code only, never a result. A cache
-// V8 rejects (another Node version, other flags) or a missing one only costs the compile time.
-// TRACELOOM_CODE_CACHE_WRITE=1 writes the cache when the process exits (the training run).
+// (dist/cli/traceloom.<hash of the bundle>.cache, written at build time by training runs), so
+// that a command neither parses the bundle nor compiles the functions it calls (bytecode comes
+// from the cache; Node 20 has no module.enableCompileCache). The cache holds compiled code only,
+// never a result. A cache V8 rejects (another Node version, other flags) or a missing one only
+// costs the compile time. TRACELOOM_CODE_CACHE_WRITE=1 writes the cache when the process exits
+// (the training runs).
+import { createHash } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
@@ -13,9 +15,12 @@ import vm from 'node:vm';
 
 const dir = path.dirname(fileURLToPath(import.meta.url));
 const file = path.join(dir, 'traceloom.cjs');
-const cacheFile = path.join(dir, 'traceloom.cache');
 // esbuild writes ASCII (non-ASCII characters escaped), so latin1 reads it exactly and quickest
 const source = readFileSync(file, 'latin1').replace(/^#!.*/, '');
+// V8 checks a cache against the source's length only: the name carries a hash of the bundle, so
+// a cache is never applied to another bundle
+const hash = createHash('sha1').update(source).digest('hex').slice(0, 16);
+const cacheFile = path.join(dir, `traceloom.${hash}.cache`);
 let cachedData;
 try {
   cachedData = readFileSync(cacheFile);
