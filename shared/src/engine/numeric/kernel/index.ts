@@ -222,12 +222,13 @@ export function kernelTraces(
 
 /**
  * The next finest resolution after (mA, mB, mC): mC + r (mC - mB) for the smallest r in
- * {1, 3/2, 2} whose predicted errors (the estimate rule of `assemble` applied once more with
+ * [1, 2] (m in steps of 2) whose predicted errors (the estimate rule of `assemble` applied once more with
  * the measured convergence) meet the digits; 3/2 when none does.
  */
 function nextResolution(trip: [number, number, number], out: Assembled, D: number): number {
   const [, mB, mC] = trip;
-  for (const r of [1, 1.5, 2]) {
+  for (let j = Math.ceil((mC - mB) / 2); j <= mC - mB; j++) {
+    const r = (2 * j) / (mC - mB);
     const ok = (e: Estimate, p: Parts, floor: number): boolean => {
       const shrink = p.gap > 0 && p.disc > 0 ? Math.min(1, (p.disc / p.gap) ** (r / 2)) : 0;
       const predicted = p.disc * shrink + p.rest;
@@ -236,7 +237,7 @@ function nextResolution(trip: [number, number, number], out: Assembled, D: numbe
     const all =
       out.traces.every((e, i) => ok(e, out.parts.traces[i]!, out.floors.traces[i]!)) &&
       out.fredholm.every((e, i) => ok(e, out.parts.fredholm[i]!, out.floors.fredholm[i]!));
-    if (all) return mC + Math.ceil((r * (mC - mB)) / 2) * 2;
+    if (all) return mC + 2 * j;
   }
   // no step is predicted to suffice (the prediction rests on the coarser, slower levels): the
   // middle step, whose n^3 cost is less than half a doubling's
