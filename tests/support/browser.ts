@@ -53,7 +53,21 @@ export async function launchBrowser(baseUrl: string): Promise<TestBrowser> {
     },
     foreignRequests: () => [...foreign],
     screenshot: async (page, name) => {
+      // The app scrolls inside its content pane, not the document: grow the window to the
+      // pane's whole height for the picture, so nothing below the fold is left out.
+      const size = page.viewportSize();
+      const extra = await page.evaluate(() => {
+        const pane = document.querySelector('mat-sidenav-content');
+        return pane ? Math.max(0, pane.scrollHeight - pane.clientHeight) : 0;
+      });
+      if (size && extra > 0) {
+        await page.setViewportSize({
+          width: size.width,
+          height: Math.min(size.height + extra, 8000),
+        });
+      }
       await page.screenshot({ path: path.join(artifactsDir, `${name}.png`), fullPage: true });
+      if (size && extra > 0) await page.setViewportSize(size);
     },
     close: async () => {
       await browser.close();
