@@ -53,7 +53,7 @@ export const routes: Routes = [
       {
         path: 'references/:referenceId',
         title: 'Reference table · Traceloom',
-        loadComponent: () => import('./checks/reference-page').then((m) => m.ReferencePage),
+        loadComponent: () => import('./references/reference-page').then((m) => m.ReferencePage),
       },
       {
         path: 'datasets',

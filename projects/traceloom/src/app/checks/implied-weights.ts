@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
 import { valueTex, verdictText } from '@traceloom/shared/format';
-import { Tex } from '../runs/tex';
+import { Tex } from '../shared/tex';
 import type { SeriesJson } from './series-diff';
 import { SeriesSideBySide } from './series-side-by-side';
 

@@ -19,7 +19,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { messageOf } from '../core/api-error';
 import { Session } from '../core/session';
 import { ExportButtons } from '../exports/export-buttons';
-import type { RunDto } from '../runs/runs-api';
+import type { RunDto } from '@traceloom/shared/api';
 import { plainPower } from '@traceloom/shared/format';
 import { ChecksApi, ComparisonDto, ReferenceDto, ReferenceSummary } from './checks-api';
 import { comparisonCsv, comparisonTex } from './comparison-export';

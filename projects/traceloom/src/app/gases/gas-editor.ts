@@ -1,4 +1,4 @@
-import { StudyCrumb } from '../studies/study-crumb';
+import { StudyCrumb } from '../shared/study-crumb';
 import { RunEstimate } from '../runs/run-estimate';
 import {
   afterNextRender,
@@ -26,7 +26,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { GasSpecInput } from '@traceloom/shared/engine';
 import { ApiError, messageOf } from '../core/api-error';
 import { Session } from '../core/session';
-import { canWriteGases } from './gas-roles';
+import { canWriteGases } from '../core/gas-roles';
 import { GasRuns } from '../runs/gas-runs';
 import { errorText } from './field-error';
 import { clearDraft, draftKey, GasDraft, readDraft, writeDraft } from './gas-draft';

@@ -14,7 +14,7 @@ import {
   switchMap,
 } from 'rxjs';
 import { ApiError, messageOf } from '../core/api-error';
-import { Tex } from '../runs/tex';
+import { Tex } from '../shared/tex';
 import { valueTex } from '@traceloom/shared/format';
 import { GasesApi } from './gases-api';
 import { previewSpec } from './gas-validation';

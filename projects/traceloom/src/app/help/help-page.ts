@@ -15,7 +15,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent, provideMarkdown } from 'ngx-markdown';
 import { catchError, forkJoin, map, of } from 'rxjs';
-import { ensureKatexStyles } from './katex-setup';
+import { ensureKatexStyles } from '../shared/katex-setup';
 import { HELP_PAGES, HelpPage, TocEntry, buildToc, isHtmlFallback } from './help-pages';
 
 const KATEX_OPTIONS = {

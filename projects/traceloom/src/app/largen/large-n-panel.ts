@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, input } from '@angular/co
 import type { LargeNClassJson, LargeNJson } from '@traceloom/shared/engine';
 import { tableLatex, toCsv } from '@traceloom/shared/format';
 import { ExportButtons } from '../exports/export-buttons';
-import { Tex } from '../runs/tex';
+import { Tex } from '../shared/tex';
 import { valueTex } from '@traceloom/shared/format';
 import { classRows, formulaTex, largeNExportTable, productTex } from './large-n-format';
 import { LargeNPlots } from './large-n-plots';

@@ -9,7 +9,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { messageOf } from '../core/api-error';
 import { ExportButtons } from '../exports/export-buttons';
-import { Tex } from '../runs/tex';
+import { Tex } from '../shared/tex';
 import { tableLatex, toCsv, valueTex, valueText, type ExportTable } from '@traceloom/shared/format';
 import { productTex } from './large-n-format';
 import { ProductApi, type ProductFormDto, type ProductTarget } from './product-api';

@@ -5,7 +5,7 @@ import { MatSelectModule } from '@angular/material/select';
 import type { CanonicalRowJson } from '@traceloom/shared/engine';
 import type { ChartConfiguration } from 'chart.js';
 import { BaseChartDirective, provideCharts, withDefaultRegisterables } from 'ng2-charts';
-import { isNumericTable } from '../runs/canonical-rows';
+import { isNumericTable } from '../shared/canonical-rows';
 import { airyFitOf } from './airy-data';
 import { AiryPlots } from './airy-plots';
 import { coefficientPoints, valuationPoints } from './plot-data';

@@ -18,9 +18,9 @@ import {
   canonicalTex,
   hasSectorCounts,
   isNumericTable,
-} from './canonical-rows';
+} from '../shared/canonical-rows';
 import { NumericRowDetail } from './numeric-row-detail';
-import { Tex } from './tex';
+import { Tex } from '../shared/tex';
 import { valueTex } from '@traceloom/shared/format';
 
 /** Height of one collapsed row, the virtual scroll step. */

@@ -20,7 +20,7 @@ import type { ClassRowJson } from '@traceloom/shared/engine';
 import { messageOf } from '../core/api-error';
 import { ExportButtons } from '../exports/export-buttons';
 import { RunsApi } from './runs-api';
-import { Tex } from './tex';
+import { Tex } from '../shared/tex';
 import {
   LATEX_PACKAGES,
   classLatex,

@@ -15,7 +15,7 @@ import { Router, RouterLink } from '@angular/router';
 import { ApiError, messageOf } from '../core/api-error';
 import { RunProgressPanel } from './run-progress';
 import { RunStartState, RunStatus, RunSummary, RunsApi, isActive, runErrorText } from './runs-api';
-import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
+import { STATUS_ICONS, STATUS_LABELS, durationText } from '../shared/run-status';
 
 /** Starting a run of a gas, following it live, and the gas's run history. */
 @Component({

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import { CanonicalLine } from './canonical-rows';
-import { Tex } from './tex';
+import { CanonicalLine } from '../shared/canonical-rows';
+import { Tex } from '../shared/tex';
 
 /**
  * The expanded detail of a numeric canonical row: each route's own value and error, whether they

@@ -1,4 +1,4 @@
-import { StudyCrumb } from '../studies/study-crumb';
+import { StudyCrumb } from '../shared/study-crumb';
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -18,7 +18,7 @@ import { RunChecks } from '../checks/run-checks';
 import { ApiError, messageOf } from '../core/api-error';
 import { Session } from '../core/session';
 import { CreateDataset } from '../datasets/create-dataset';
-import { canWriteGases } from '../gases/gas-roles';
+import { canWriteGases } from '../core/gas-roles';
 import { CanonicalTable } from './canonical-table';
 import { ClassTable } from './class-table';
 import { SectorTable } from '../sectors/sector-table';
@@ -28,7 +28,7 @@ import { NumericCaution } from './numeric-caution';
 import { RunProgressPanel } from './run-progress';
 import { RunEstimate } from './run-estimate';
 import { routeName } from '@traceloom/shared/format';
-import { STATUS_ICONS, STATUS_LABELS, durationText } from './run-status';
+import { STATUS_ICONS, STATUS_LABELS, durationText } from '../shared/run-status';
 import { RunDto, RunStartState, RunsApi, isActive, runErrorText } from './runs-api';
 import { groupTruncations, truncationText } from './truncations';
 

@@ -24,7 +24,7 @@ import { Session } from '../core/session';
 import { StudiesApi } from './studies-api';
 import { StudyFields, studyFieldsGroup } from './study-fields';
 import { StudyMembers } from './study-members';
-import { StudyGases } from '../gases/study-gases';
+import { StudyGases } from './study-gases';
 
 /** One study: its title and description (editable for those who may) and its members. */
 @Component({

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { DomSanitizer } from '@angular/platform-browser';
-import { renderTex } from '../help/katex-setup';
+import { renderTex } from './katex-setup';
 
 /**
  * A formula typeset with KaTeX. KaTeX's MathML copy keeps it readable to screen readers; `label`

@@ -15,10 +15,10 @@ import { RouterLink } from '@angular/router';
 import { ChecksApi, ReferenceSummary } from '../checks/checks-api';
 import { messageOf } from '../core/api-error';
 import { Session } from '../core/session';
-import { canWriteGases } from './gas-roles';
-import { STATUS_ICONS, STATUS_LABELS } from '../runs/run-status';
+import { canWriteGases } from '../core/gas-roles';
+import { STATUS_ICONS, STATUS_LABELS } from '../shared/run-status';
 import type { RunStatus } from '../runs/runs-api';
-import { GasSummary, GasesApi } from './gases-api';
+import { GasSummary, GasesApi } from '../gases/gases-api';
 
 const KIND_LABELS: Record<GasSummary['weightsKind'], string> = {
   values: 'list of values',

@@ -1,4 +1,4 @@
-import type { RunStatus } from './runs-api';
+import type { RunStatus } from '@traceloom/shared/api';
 
 /** Status words (never colour alone). */
 export const STATUS_LABELS: Record<RunStatus, string> = {

@@ -1,7 +1,7 @@
 import { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { signInAs, testProviders, testUser } from '../core/session-testing';
-import type { ReferenceComparisonDto, ReferenceDto } from './checks-api';
+import type { ReferenceComparisonDto, ReferenceDto } from '../checks/checks-api';
 import { ReferencePage } from './reference-page';
 
 const ID = '7c000000-0000-4000-8000-000000000001';

@@ -26,10 +26,10 @@ import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { showOnField } from '../core/form-errors';
 import { Session } from '../core/session';
 import { GasesApi } from '../gases/gases-api';
-import { canWriteGases } from '../gases/gas-roles';
+import { canWriteGases } from '../core/gas-roles';
 import { RunsApi } from '../runs/runs-api';
-import { StudyCrumb } from '../studies/study-crumb';
-import { ChecksApi, ReferenceComparisonDto, ReferenceDto } from './checks-api';
+import { StudyCrumb } from '../shared/study-crumb';
+import { ChecksApi, ReferenceComparisonDto, ReferenceDto } from '../checks/checks-api';
 
 /** A finished run of the study that the table may be compared with. */
 interface RunChoice {
