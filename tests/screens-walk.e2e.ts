@@ -136,7 +136,7 @@ async function findings(page: Page): Promise<string[]> {
       '.mat-mdc-tab .mdc-tab__text-label',
       'th',
     ];
-    for (const el of document.querySelectorAll(cut.join(','))) {
+    for (const el of Array.from(document.querySelectorAll(cut.join(',')))) {
       if (!visible(el)) continue;
       // An inline element has no box width of its own: judge the box that clips it.
       let box: Element | null = el;
@@ -146,8 +146,10 @@ async function findings(page: Page): Promise<string[]> {
       if (clips && box.scrollWidth > box.clientWidth + 1) out.push(`cut short: "${text(el)}"`);
     }
     // The hint's own box: a long hint overflows the fixed-height line under its field.
-    const hints = [...document.querySelectorAll('mat-hint, mat-error')].filter(visible);
-    const boxes = [...document.querySelectorAll('.mat-mdc-text-field-wrapper')].filter(visible);
+    const hints = Array.from(document.querySelectorAll('mat-hint, mat-error')).filter(visible);
+    const boxes = Array.from(document.querySelectorAll('.mat-mdc-text-field-wrapper')).filter(
+      visible,
+    );
     for (const hint of hints) {
       const field = hint.closest('mat-form-field');
       const h = hint.getBoundingClientRect();

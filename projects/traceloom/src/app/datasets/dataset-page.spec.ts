@@ -123,6 +123,10 @@ describe('DatasetPage', () => {
     await render('steward', dataset());
     (testId('waiver-submit') as HTMLButtonElement).click();
     http.expectNone(`/api/datasets/${ID}/waivers`);
+    await fixture.whenStable();
+    expect(
+      el.querySelector('[data-testid="dataset-checks"] [role="alert"]')?.textContent,
+    ).toContain('Write the reason for the waiver first.');
     const input = testId('waiver-reason') as HTMLInputElement;
     input.value = 'Misprint in the preprint.';
     input.dispatchEvent(new Event('input'));

@@ -17,12 +17,13 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import type { DatasetCheckDto, DatasetDto, StudyDto } from '@traceloom/shared/api';
+import type { DatasetDto, StudyDto } from '@traceloom/shared/api';
 import type { Observable } from 'rxjs';
 import { ApiError, messageOf } from '../core/api-error';
 import { downloadText, fileStem } from '../exports/export-files';
 import { rowValueText } from '@traceloom/shared/format';
 import { DatasetAuthors } from './dataset-authors';
+import { DatasetChecks, WaiverRequest } from './dataset-checks';
 import { DatasetReviewPanel } from './dataset-review-panel';
 import { ConfirmData, ConfirmDialog } from '../core/confirm-dialog';
 import { DatasetsApi, ExportFormat, stateIcon, stateLabel, VerifyAnswerDto } from './datasets-api';
@@ -50,6 +51,7 @@ const EXPORT_TYPES: Record<ExportFormat, [ext: string, type: string]> = {
     RouterLink,
     DatasetReviewPanel,
     DatasetAuthors,
+    DatasetChecks,
   ],
   templateUrl: './dataset-page.html',
   styleUrl: './dataset-page.scss',
@@ -70,7 +72,6 @@ export class DatasetPage {
   protected readonly error = signal<string | null>(null);
   protected readonly busy = signal(false);
   protected readonly verifyAnswer = signal<VerifyAnswerDto | null>(null);
-  protected readonly waiverReasons = signal<Partial<Record<string, string>>>({});
   protected readonly stateLabel = stateLabel;
   protected readonly stateIcon = stateIcon;
   /** A row's value, or "not determined (O(q^k))" (honest rows). */
@@ -210,20 +211,8 @@ export class DatasetPage {
     );
   }
 
-  protected checkKey(c: DatasetCheckDto): string {
-    return `${c.check}|${c.N ?? ''}`;
-  }
-
-  protected setReason(c: DatasetCheckDto, reason: string): void {
-    this.waiverReasons.update((all) => ({ ...all, [this.checkKey(c)]: reason }));
-  }
-
-  protected waive(d: DatasetDto, c: DatasetCheckDto): void {
-    const reason = (this.waiverReasons()[this.checkKey(c)] ?? '').trim();
-    if (!reason) {
-      this.snack.open('Write the reason for the waiver first.', 'Close', { duration: 5000 });
-      return;
-    }
+  protected waive(d: DatasetDto, w: WaiverRequest): void {
+    const { check: c, reason } = w;
     this.act(this.api.waive(d.id, c.check, c.N, reason), 'Check waived with your reason.');
   }
 }

@@ -1,4 +1,5 @@
 import { DatePipe } from '@angular/common';
+import { DatasetChecks } from '../datasets/dataset-checks';
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -19,7 +20,14 @@ import { LogoMark } from '../shell/logo-mark';
  */
 @Component({
   selector: 'tl-public-dataset',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, LogoMark],
+  imports: [
+    DatePipe,
+    MatButtonModule,
+    MatIconModule,
+    MatProgressBarModule,
+    LogoMark,
+    DatasetChecks,
+  ],
   templateUrl: './public-dataset.html',
   styleUrl: './public-dataset.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -36,7 +44,6 @@ export class PublicDatasetPage {
   /** A row's value, or "not determined (O(q^k))" (honest rows). */
   protected readonly valueText = rowValueText;
   /** passes / fails / waived / not compared (older documents' green / red read as such). */
-  protected readonly statusText = checkStatusText;
 
   constructor() {
     effect(() => {
