@@ -13,6 +13,7 @@ const TIMING_SPECS = [
   'server/src/runs/runs.spec.ts',
   'server/src/runs/large-result.spec.ts',
   'server/src/runs/run-streams.spec.ts',
+  'server/src/datasets/large-dataset.spec.ts',
 ];
 
 /** Specs that start redis-server and worker processes (queue mode). */

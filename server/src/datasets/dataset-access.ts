@@ -26,6 +26,23 @@ export async function loadVisibleDataset(
   return dataset;
 }
 
+/**
+ * Reads a dataset's snapshot and canonical text into `d` (the row is loaded without them): only
+ * what exports, locks and verify need, never a page or a list.
+ */
+export async function withBytes<D extends Pick<Dataset, 'id' | 'snapshot' | 'canonical'>>(
+  manager: EntityManager,
+  d: D,
+): Promise<D> {
+  const bytes = await manager.getRepository(Dataset).findOneOrFail({
+    where: { id: d.id },
+    select: { id: true, snapshot: true, canonical: true },
+  });
+  d.snapshot = bytes.snapshot;
+  d.canonical = bytes.canonical;
+  return d;
+}
+
 /** 409 `dataset_locked`, the one answer to every write on a locked dataset, whoever asks. */
 export function datasetLocked(): AppError {
   return new AppError(

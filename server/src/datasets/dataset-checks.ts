@@ -5,14 +5,15 @@ import { routeName, verdictText } from '@traceloom/shared/format';
 /** The detail of a check on a row that is not determined at the order. */
 const NOT_COMPARED = 'not compared: Z(N) is not determined at the order';
 
-type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean | null };
+/** A check row before waivers: its agreement as computed. */
+export type CheckRow = Omit<DatasetCheckDto, 'status' | 'waiver'> & { agrees: boolean | null };
 
 /**
  * Every check row a snapshot carries: agreement of the routes to Z(N), the grand check and the
  * weights it implies, the spec's own reference check, and each stored comparison with a
  * reference table.
  */
-function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
+export function checkRows(snapshot: DatasetSnapshot): CheckRow[] {
   const r = snapshot.result;
   const numeric = r.numeric !== undefined;
   const verdictDetail = (v: object): string =>
@@ -87,7 +88,15 @@ export function datasetChecks(
   snapshot: DatasetSnapshot,
   waivers: readonly DatasetWaiver[],
 ): DatasetCheckDto[] {
-  return checkRows(snapshot).map(({ agrees, ...row }) => {
+  return withWaivers(checkRows(snapshot), waivers);
+}
+
+/** Check rows (as `checkRows` gives them) with their status under the dataset's waivers. */
+export function withWaivers(
+  rows: readonly CheckRow[],
+  waivers: readonly DatasetWaiver[],
+): DatasetCheckDto[] {
+  return rows.map(({ agrees, ...row }) => {
     const waiver =
       agrees !== false
         ? undefined

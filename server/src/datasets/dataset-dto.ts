@@ -9,9 +9,8 @@ import {
   type User,
 } from '../db/entities/index.js';
 import type { Actor } from '../http/route-table.js';
-import { datasetChecks } from './dataset-checks.js';
-import { knownSentence } from '@traceloom/shared/format';
-import { canonicalRows, readSnapshot, snapshotOrder } from './snapshot.js';
+import { withWaivers, type CheckRow } from './dataset-checks.js';
+import { loadView } from './dataset-view.js';
 import { canEditAuthors, datasetAuthors } from './dataset-authors.js';
 
 function authorsOf(d: Dataset, children: DatasetChildren) {
@@ -49,13 +48,8 @@ export async function toSummary(
   const children = known ?? (await loadChildren(manager, d.id));
   const verdicts = [...latestVerdicts(children.reviews).values()];
   const approved = d.state === 'in_review' && verdicts.includes('approve');
-  // Lists load no snapshot: only an approved dataset needs its checks, so only it reads one.
-  const full =
-    approved && d.snapshot === undefined
-      ? await manager
-          .getRepository(Dataset)
-          .findOneOrFail({ where: { id: d.id }, select: { id: true, state: true, snapshot: true } })
-      : d;
+  // Lists read no snapshot: only an approved dataset needs its check rows (kept beside it).
+  const checks = approved ? (await loadView(manager, d.id)).checks : [];
   return {
     id: d.id,
     studyId: d.study.id,
@@ -72,7 +66,7 @@ export async function toSummary(
     updatedAt: d.updatedAt,
     approved,
     // Ready for a steward who has not approved it (the approving steward may not lock).
-    readyToLock: approved && lockBlockers(full, children, '').length === 0,
+    readyToLock: approved && lockBlockers(d, children, '', checks).length === 0,
   };
 }
 
@@ -116,18 +110,22 @@ export const APPROVER_CANNOT_LOCK = 'you approved it, so another steward must lo
 
 /**
  * Why the dataset cannot be locked now by `lockerId` (state, approvals, checks that fail, and
- * separation of duties: the steward who approved may not lock); empty when it can.
+ * separation of duties: the steward who approved may not lock); empty when it can. `checks` are
+ * the dataset's check rows (`loadView`).
  */
-export function lockBlockers(d: Dataset, children: DatasetChildren, lockerId: string): string[] {
+export function lockBlockers(
+  d: Pick<Dataset, 'state'>,
+  children: DatasetChildren,
+  lockerId: string,
+  checks: readonly CheckRow[],
+): string[] {
   const out: string[] = [];
   if (d.state !== 'in_review') out.push('the dataset must be in review');
   const verdicts = latestVerdicts(children.reviews);
   if (verdicts.get(lockerId) === 'approve') out.push(APPROVER_CANNOT_LOCK);
   const approvals = [...verdicts].filter(([id, v]) => v === 'approve' && id !== lockerId);
   if (approvals.length === 0) out.push('no other reviewer has approved it yet');
-  const failing = datasetChecks(readSnapshot(d.snapshot), children.waivers).filter(
-    (c) => c.status === 'fails',
-  );
+  const failing = withWaivers(checks, children.waivers).filter((c) => c.status === 'fails');
   if (failing.length > 0) out.push(`${failing.length} check row(s) fail and are not waived`);
   return out;
 }
@@ -139,27 +137,17 @@ export async function toDatasetDto(
   actor: Actor,
 ): Promise<DatasetDto> {
   const children = await loadChildren(manager, d.id);
-  const snapshot = readSnapshot(d.snapshot);
+  const view = await loadView(manager, d.id);
   const open = d.state === 'draft' || d.state === 'in_review';
   const isCreator = d.createdBy.id === actor.id;
   const steward = actor.role === 'steward';
   const requested = children.requests.some((r) => r.reviewer.id === actor.id);
-  const blockers = lockBlockers(d, children, actor.id);
+  const blockers = lockBlockers(d, children, actor.id, view.checks);
   return {
     ...(await toSummary(manager, d, children)),
     description: d.description,
-    snapshot: {
-      gas: snapshot.gas,
-      run: snapshot.run,
-      statistics: snapshot.spec.statistics,
-      variable: snapshot.spec.variable,
-      order: snapshotOrder(snapshot),
-      nMax: snapshot.result.canonical.length - 1,
-      precision: snapshot.result.numeric?.precision ?? snapshot.spec.precision ?? null,
-      known: knownSentence(snapshot.result),
-      canonical: canonicalRows(snapshot),
-    },
-    checks: datasetChecks(snapshot, children.waivers),
+    snapshot: view.summary,
+    checks: withWaivers(view.checks, children.waivers),
     reviewRequests: children.requests.map((r) => ({
       reviewer: person(r.reviewer),
       requestedBy: person(r.requestedBy),

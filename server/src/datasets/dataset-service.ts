@@ -3,18 +3,25 @@ import type {
   DatasetCreateRequest,
   DatasetDto,
   DatasetPatchRequest,
-  DatasetSnapshot,
   DatasetSummaryDto,
   ReviewInboxEntryDto,
 } from '@traceloom/shared/api';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { listComparisons } from '../comparisons/comparison-service.js';
-import { Dataset, DatasetReview, DatasetReviewRequest } from '../db/entities/index.js';
+import {
+  Dataset,
+  DatasetReview,
+  DatasetReviewRequest,
+  DatasetView,
+  RunClassPage,
+} from '../db/entities/index.js';
+import { computeServices } from '../compute/services.js';
+import type { SnapshotOutput, SnapshotTask } from './dataset-view.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseId } from '../http/validate.js';
-import { loadVisibleRun, loadResult } from '../runs/run-service.js';
+import { loadVisibleRun } from '../runs/run-service.js';
 import { canSee, loadVisibleStudy } from '../studies/study-access.js';
 import {
   DATASET_RELATIONS,
@@ -38,8 +45,7 @@ export async function createDataset(
   input: DatasetCreateRequest,
 ): Promise<DatasetDto> {
   const run = await loadVisibleRun(ctx, actor, runId);
-  const result = run.status === 'done' ? await loadResult(ctx, run, { classes: true }) : null;
-  if (!result) {
+  if (run.status !== 'done' || !run.result) {
     throw new AppError(
       409,
       'run_not_done',
@@ -47,11 +53,16 @@ export async function createDataset(
     );
   }
   const comparisons = await listComparisons(ctx, actor, runId);
-  const snapshot: DatasetSnapshot = {
+  const pages = await ctx.dataSource
+    .getRepository(RunClassPage)
+    .find({ where: { runId }, select: { rows: true }, order: { n: 'ASC', page: 'ASC' } });
+  // Unpacked, joined with its class rows and written out on a run thread (the heap it needs).
+  const made = (await computeServices(ctx).pools.runs.run({
+    kind: 'datasetSnapshot',
+    result: run.result,
+    pages: pages.map((p) => p.rows),
     gas: { id: run.gas.id, title: run.gas.title, version: run.gasVersion.version },
     run: { id: run.id, finishedAt: run.finishedAt, durationMs: run.durationMs },
-    spec: result.spec,
-    result,
     comparisons: comparisons.map(({ id, referenceId, kind, normalization, rows }) => ({
       id,
       referenceId,
@@ -59,7 +70,7 @@ export async function createDataset(
       normalization,
       rows,
     })),
-  };
+  } satisfies SnapshotTask)) as SnapshotOutput;
   const id = await ctx.dataSource.transaction(async (manager) => {
     let version = 1;
     let supersedes: { id: string } | null = null;
@@ -111,7 +122,7 @@ export async function createDataset(
         title: input.title,
         description: input.description ?? '',
         state: 'draft',
-        snapshot: JSON.stringify(snapshot),
+        snapshot: made.snapshot,
         hash: null,
         canonical: null,
         lockedAt: null,
@@ -121,6 +132,9 @@ export async function createDataset(
         updatedAt: now,
       }),
     );
+    await manager
+      .getRepository(DatasetView)
+      .insert({ datasetId: saved.id, summary: made.summary, checks: made.checks });
     await recordAudit(manager, {
       actorId: actor.id,
       action: 'dataset.create',

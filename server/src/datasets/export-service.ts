@@ -8,7 +8,7 @@ import { Dataset } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
-import { DATASET_RELATIONS, loadVisibleDataset } from './dataset-access.js';
+import { DATASET_RELATIONS, loadVisibleDataset, withBytes } from './dataset-access.js';
 import { citationAuthors } from './dataset-authors.js';
 import { canonicalHash, datasetCsv, datasetLatex } from './dataset-document.js';
 import { citationOf, supersededBy, toSummary } from './dataset-dto.js';
@@ -95,7 +95,9 @@ export async function exportDataset(
   format: unknown,
   res: Response,
 ): Promise<void> {
-  writeExport(res, await loadVisibleDataset(ctx.dataSource.manager, actor, datasetId), format);
+  const manager = ctx.dataSource.manager;
+  const d = await loadVisibleDataset(manager, actor, datasetId);
+  writeExport(res, await withBytes(manager, d), format);
 }
 
 const HASH = /^[0-9a-f]{64}$/;
@@ -109,7 +111,7 @@ export async function lockedByHash(ctx: AppContext, hash: string | undefined): P
           .findOne({ where: { hash, state: 'locked' }, relations: DATASET_RELATIONS })
       : null;
   if (!d) throw notFound('No locked dataset has this hash; it');
-  return d;
+  return withBytes(ctx.dataSource.manager, d);
 }
 
 /** `GET /public/datasets/:hash` (no sign-in): a locked dataset's document and citation. */

@@ -14,8 +14,10 @@ import {
   isLockTrigger,
   loadVisibleDataset,
   loadWritableDataset,
+  withBytes,
 } from './dataset-access.js';
 import { buildDocument, canonicalHash, sha256Hex } from './dataset-document.js';
+import { loadView } from './dataset-view.js';
 import {
   APPROVER_CANNOT_LOCK,
   citationOf,
@@ -41,7 +43,7 @@ export async function loadLockable(manager: EntityManager, actor: Actor, dataset
     );
   }
   const children = await loadChildren(manager, d.id);
-  const blockers = lockBlockers(d, children, actor.id);
+  const blockers = lockBlockers(d, children, actor.id, (await loadView(manager, d.id)).checks);
   if (blockers.includes(APPROVER_CANNOT_LOCK)) {
     throw new AppError(
       403,
@@ -56,7 +58,7 @@ export async function loadLockable(manager: EntityManager, actor: Actor, dataset
       `The dataset cannot be locked yet: ${blockers.join('; ')}.`,
     );
   }
-  return { d, children };
+  return { d: await withBytes(manager, d), children };
 }
 
 /** How long a confirmed lock preview stays good. */
@@ -170,7 +172,8 @@ export async function withdrawDataset(
  * dataset also checks that the stored canonical text still hashes to the lock hash.
  */
 export async function verifyDataset(ctx: AppContext, actor: Actor, datasetId: string) {
-  const d = await loadVisibleDataset(ctx.dataSource.manager, actor, datasetId);
+  const manager = ctx.dataSource.manager;
+  const d = await withBytes(manager, await loadVisibleDataset(manager, actor, datasetId));
   const started = Date.now();
   // Parsing the snapshot, the computation and the comparison all happen in the worker.
   const output = (await computeServices(ctx).pools.runs.run(

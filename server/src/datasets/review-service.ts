@@ -24,11 +24,11 @@ import { mailUsers } from '../mail/mailer.js';
 import { mailServices } from '../mail/mailer.js';
 import { canSee } from '../studies/study-access.js';
 import { loadWritableDataset } from './dataset-access.js';
-import { datasetChecks } from './dataset-checks.js';
+import { withWaivers } from './dataset-checks.js';
+import { loadView } from './dataset-view.js';
 import { loadChildren } from './dataset-dto.js';
 import { reviewRequestMail, verdictMail } from './dataset-mails.js';
 import { getDataset } from './dataset-service.js';
-import { readSnapshot } from './snapshot.js';
 
 type Input<S extends z.ZodType> = () => z.output<S>;
 
@@ -159,7 +159,7 @@ export async function addComment(
   await ctx.dataSource.transaction(async (manager) => {
     const d = await loadWritableDataset(manager, actor, datasetId);
     const { body, N } = input();
-    const nMax = readSnapshot(d.snapshot).result.canonical.length - 1;
+    const { nMax } = (await loadView(manager, d.id)).summary;
     if (N !== undefined && N > nMax) {
       throw new AppError(400, 'invalid_input', `N: this dataset has rows N = 0..${nMax}.`, 'N');
     }
@@ -238,7 +238,9 @@ export async function addWaiver(
     if (!may(actor.role, 'lock')) throw forbidden('Only a steward may waive a check.');
     assertOpen(d);
     const { check, N, reason } = input();
-    const rows = datasetChecks(readSnapshot(d.snapshot), []).filter((c) => c.check === check);
+    const rows = withWaivers((await loadView(manager, d.id)).checks, []).filter(
+      (c) => c.check === check,
+    );
     if (rows.length === 0)
       throw new AppError(
         400,

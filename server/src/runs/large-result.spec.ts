@@ -3,7 +3,6 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Run } from '../db/entities/index.js';
 import { bearer, createGas, startRun, waitForRun } from '../testing/gas-fixtures.js';
 import { p99 } from '../testing/load-helpers.js';
 import {
@@ -13,8 +12,7 @@ import {
   tokenFor,
   type TestApp,
 } from '../testing/test-app.js';
-import { ClassPager } from './class-pager.js';
-import { storeClassPage } from './class-pages.js';
+import { LARGE_TABLE, storeLargeClassTable } from '../testing/large-data.js';
 
 /**
  * Replays the large-data finding: a run whose class table is as big as a spec within the
@@ -23,9 +21,7 @@ import { storeClassPage } from './class-pages.js';
  * fast. (Verify parses and compares in a worker; datasets.spec.ts covers its answers.)
  */
 
-// p(30) = 5604 cycle types of N = 30 (OEIS A000041).
-const ROWS = Number(process.env.LARGE_ROWS ?? 5604);
-const TERMS = 400;
+const { rows: ROWS, terms: TERMS } = LARGE_TABLE;
 
 let t: TestApp;
 let server: http.Server;
@@ -91,25 +87,7 @@ beforeAll(async () => {
   runId = await startRun(t, token, await createGas(t, token, studyId));
   expect((await waitForRun(t, runId)).status).toBe('done');
   const t0 = performance.now();
-  // The class table of N = 30 at this size, stored the way a run stores it (page by page).
-  const terms = Array.from(
-    { length: TERMS },
-    (_, i) => `["${i + 30}","-12345678901234567890/${i + 7}"]`,
-  ).join(',');
-  const pager = new ClassPager((page) => {
-    pending.push(t.dataSource.transaction((m) => storeClassPage(m, runId, page)));
-  });
-  const pending: Promise<void>[] = [];
-  for (let i = 0; i < ROWS; i++) {
-    const text = `{"N":30,"cycleType":[[1,${i}]],"size":"${i + 1}","sign":1,"contribution":{"order":"430","terms":[${terms}]}}`;
-    storedBytes += text.length + 1;
-    pager.add(30, text);
-  }
-  pager.flush();
-  await Promise.all(pending);
-  await t.dataSource
-    .getRepository(Run)
-    .update({ id: runId }, { classCounts: JSON.stringify({ 30: ROWS }) });
+  storedBytes = await storeLargeClassTable(t, runId, ROWS, TERMS);
   console.log(`large data: class pages stored in ${(performance.now() - t0).toFixed(0)} ms`);
   const t1 = performance.now();
   const created = await request(t.app)

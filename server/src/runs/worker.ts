@@ -10,6 +10,7 @@ import {
   type NumericCompareTask,
 } from '../comparisons/compare-rows.js';
 import { resultMismatches } from '../datasets/result-compare.js';
+import { snapshotTask, type SnapshotTask } from '../datasets/dataset-view.js';
 import { AppError } from '../http/app-error.js';
 import { productTask, type ProductTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';
@@ -28,6 +29,7 @@ export type WorkerTask =
   | { kind: 'preview'; spec: unknown }
   | SectorPartsTask
   | SectorAssembleTask
+  | SnapshotTask
   | { kind: 'estimate'; spec: unknown }
   | { kind: 'probe'; spec: unknown; port: MessagePort }
   | { kind: 'verify'; snapshot: string }
@@ -168,6 +170,8 @@ export default function work(task: WorkerTask): unknown {
       }
     case 'pageResult':
       return pageResult(task.gzip);
+    case 'datasetSnapshot':
+      return snapshotTask(task);
     case 'verify':
       try {
         const snapshot = JSON.parse(task.snapshot) as DatasetSnapshot;

@@ -50,8 +50,11 @@ export class Dataset {
   @Column('varchar', { length: 16 })
   state!: DatasetState;
 
-  /** JSON text: `{spec, gas, run, result, comparisons}` as taken from the run. */
-  @Column('text')
+  /**
+   * JSON text: `{spec, gas, run, result, comparisons}` as taken from the run. Tens of megabytes
+   * for a large class table: never read with the row (`select: false`, see `withBytes`).
+   */
+  @Column('text', { select: false })
   snapshot!: string;
 
   /**
@@ -65,8 +68,11 @@ export class Dataset {
   @Column('varchar', { length: 64, nullable: true })
   hash!: string | null;
 
-  /** The RFC 8785 canonical JSON that was hashed; the JSON export answers exactly these bytes. */
-  @Column('text', { nullable: true })
+  /**
+   * The RFC 8785 canonical JSON that was hashed; the JSON export answers exactly these bytes.
+   * As large as the snapshot: never read with the row (`select: false`, see `withBytes`).
+   */
+  @Column('text', { nullable: true, select: false })
   canonical!: string | null;
 
   @Column('varchar', { name: 'locked_at', length: 30, nullable: true })

@@ -7,6 +7,7 @@ import {
   DatasetWaiver,
 } from './dataset-review.entity.js';
 import { Dataset, type DatasetState } from './dataset.entity.js';
+import { DatasetView } from './dataset-view.entity.js';
 import { GasVersion } from './gas-version.entity.js';
 import { Gas } from './gas.entity.js';
 import { Invitation } from './invitation.entity.js';
@@ -22,7 +23,7 @@ import { User } from './user.entity.js';
 export { AuditEvent, Invitation, Setting, Study, StudyMember, User };
 export { Comparison, Gas, GasVersion, ReferenceTable, Run, RunClassPage, type RunStatus };
 export { Dataset, DatasetComment, DatasetReview, DatasetReviewRequest, DatasetWaiver };
-export { RateLimit };
+export { RateLimit, DatasetView };
 export type { DatasetState };
 
 /** Every entity, for the data source. */
@@ -38,6 +39,7 @@ export const ENTITIES = [
   Run,
   RunClassPage,
   ReferenceTable,
+  DatasetView,
   Comparison,
   Dataset,
   DatasetReviewRequest,

@@ -8,6 +8,7 @@ import { RunClassPages1796310000000 } from './1796310000000-run-class-pages.js';
 import { DatasetAuthors1796320000000 } from './1796320000000-dataset-authors.js';
 import { ReferenceFacts1796330000000 } from './1796330000000-reference-facts.js';
 import { ComparisonImpliedWeights1796340000000 } from './1796340000000-comparison-implied-weights.js';
+import { DatasetViews1796350000000 } from './1796350000000-dataset-views.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -21,4 +22,5 @@ export const MIGRATIONS = [
   DatasetAuthors1796320000000,
   ReferenceFacts1796330000000,
   ComparisonImpliedWeights1796340000000,
+  DatasetViews1796350000000,
 ];
