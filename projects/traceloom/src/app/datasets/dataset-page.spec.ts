@@ -93,7 +93,9 @@ describe('DatasetPage', () => {
     el = fixture.nativeElement;
     TestBed.tick();
     http.expectOne(`/api/datasets/${ID}`).flush(d);
-    await fixture.whenStable();
+    // The study is read once the dataset names it (a resource: answer it before settling).
+    await Promise.resolve();
+    TestBed.tick();
     http.match(`/api/studies/${STUDY}`).forEach((r) =>
       r.flush({
         id: STUDY,

@@ -1,13 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -17,11 +9,12 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import type { DatasetDto, StudyDto } from '@traceloom/shared/api';
+import type { DatasetDto } from '@traceloom/shared/api';
 import type { Observable } from 'rxjs';
-import { ApiError, messageOf } from '../core/api-error';
+import { messageOf } from '../core/api-error';
 import { downloadText, fileStem } from '../exports/export-files';
 import { rowValueText } from '@traceloom/shared/format';
+import { AsyncState } from '../shared/async-state';
 import { DatasetAuthors } from './dataset-authors';
 import { DatasetChecks, WaiverRequest } from './dataset-checks';
 import { DatasetReviewPanel } from './dataset-review-panel';
@@ -51,6 +44,7 @@ const EXPORT_TYPES: Record<ExportFormat, [ext: string, type: string]> = {
     RouterLink,
     DatasetReviewPanel,
     DatasetAuthors,
+    AsyncState,
     DatasetChecks,
   ],
   templateUrl: './dataset-page.html',
@@ -66,10 +60,18 @@ export class DatasetPage {
   /** Route `datasets/:datasetId`. */
   readonly datasetId = input.required<string>();
 
-  protected readonly dataset = signal<DatasetDto | null>(null);
-  protected readonly study = signal<StudyDto | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly error = signal<string | null>(null);
+  /** The dataset, read through the feature's api; a write's answer replaces it. */
+  protected readonly datasetResource = this.api.datasetResource(() => this.datasetId());
+  protected readonly dataset = computed(() =>
+    this.datasetResource.hasValue() ? this.datasetResource.value()! : null,
+  );
+  /** Its study (for choosing authors and reviewers among the members). */
+  // A string signal: a write's answer for the same study does not read the study again.
+  private readonly studyId = computed(() => this.dataset()?.studyId);
+  private readonly studyResource = this.api.studyResource(() => this.studyId());
+  protected readonly study = computed(() =>
+    this.studyResource.hasValue() ? this.studyResource.value()! : null,
+  );
   protected readonly busy = signal(false);
   protected readonly verifyAnswer = signal<VerifyAnswerDto | null>(null);
   protected readonly stateLabel = stateLabel;
@@ -84,32 +86,6 @@ export class DatasetPage {
     return hash ? `/public/${hash}` : null;
   });
 
-  constructor() {
-    effect(() => this.load(this.datasetId()));
-  }
-
-  protected load(id: string): void {
-    this.loading.set(true);
-    this.error.set(null);
-    this.api.get(id).subscribe({
-      next: (d) => {
-        this.loading.set(false);
-        this.dataset.set(d);
-        if (this.study()?.id !== d.studyId) {
-          this.api.study(d.studyId).subscribe({ next: (s) => this.study.set(s), error: () => {} });
-        }
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.error.set(
-          err instanceof ApiError && err.status === 404
-            ? 'This dataset does not exist, or you are not a member of its study.'
-            : messageOf(err),
-        );
-      },
-    });
-  }
-
   /** Runs a write; on success shows the answer (or reloads), on failure a snackbar. */
   protected act(call: Observable<unknown>, done: string, after?: (value: unknown) => void): void {
     this.busy.set(true);
@@ -118,8 +94,8 @@ export class DatasetPage {
         this.busy.set(false);
         this.snack.open(done, 'Close', { duration: 4000 });
         if (value && typeof value === 'object' && 'checks' in value)
-          this.dataset.set(value as DatasetDto);
-        else this.load(this.datasetId());
+          this.datasetResource.set(value as DatasetDto);
+        else this.datasetResource.reload();
         after?.(value);
       },
       error: (err: unknown) => {
@@ -130,7 +106,7 @@ export class DatasetPage {
   }
 
   protected updated(d: DatasetDto): void {
-    this.dataset.set(d);
+    this.datasetResource.set(d);
   }
 
   /** The citation file of a locked dataset (the public route; a locked dataset is public). */

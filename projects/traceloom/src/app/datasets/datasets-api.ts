@@ -1,4 +1,4 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, httpResource, type HttpResourceRef } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import type {
@@ -39,6 +39,19 @@ export class DatasetsApi {
   list(studyId?: string): Observable<DatasetSummaryDto[]> {
     return this.http.get<DatasetSummaryDto[]>('/api/datasets', {
       params: studyId ? { studyId } : {},
+    });
+  }
+
+  /** The dataset with id `id()` as a resource (call in an injection context). */
+  datasetResource(id: () => string): HttpResourceRef<DatasetDto | undefined> {
+    return httpResource<DatasetDto>(() => `/api/datasets/${enc(id())}`);
+  }
+
+  /** The study with id `id()` (none while it is undefined) as a resource. */
+  studyResource(id: () => string | undefined): HttpResourceRef<StudyDto | undefined> {
+    return httpResource<StudyDto>(() => {
+      const studyId = id();
+      return studyId ? `/api/studies/${enc(studyId)}` : undefined;
     });
   }
 

@@ -1,21 +1,13 @@
 import { StudyCrumb } from '../shared/study-crumb';
+import { AsyncState } from '../shared/async-state';
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTabsModule } from '@angular/material/tabs';
 import { Router, RouterLink } from '@angular/router';
 import { RunChecks } from '../checks/run-checks';
-import { ApiError, messageOf } from '../core/api-error';
 import { Session } from '../core/session';
 import { CreateDataset } from '../datasets/create-dataset';
 import { canWriteGases } from '../core/gas-roles';
@@ -37,6 +29,7 @@ import { groupTruncations, truncationText } from './truncations';
   selector: 'tl-run-page',
   imports: [
     StudyCrumb,
+    AsyncState,
     DatePipe,
     MatButtonModule,
     MatIconModule,
@@ -66,9 +59,11 @@ export class RunPage {
   /** Route `runs/:runId`. */
   readonly runId = input.required<string>();
 
-  protected readonly run = signal<RunDto | null>(null);
-  protected readonly loading = signal(true);
-  protected readonly error = signal<string | null>(null);
+  /** The run, read through the feature's api; a finished run's results come by a reload. */
+  protected readonly runResource = this.api.runResource(() => this.runId());
+  protected readonly run = computed(() =>
+    this.runResource.hasValue() ? this.runResource.value()! : null,
+  );
   protected readonly tab = signal(0);
   /** Warnings answered when this run was started from the editor (kept across a reload). */
   protected readonly startWarnings = signal<string[]>(this.readStartWarnings());
@@ -92,10 +87,6 @@ export class RunPage {
     return routes.map(routeName).join(' and ');
   }
 
-  constructor() {
-    effect(() => this.load(this.runId()));
-  }
-
   private readStartWarnings(): string[] {
     const state = (this.router.currentNavigation()?.extras.state ?? history.state) as
       Partial<RunStartState> | null | undefined;
@@ -103,22 +94,8 @@ export class RunPage {
     return Array.isArray(warnings) ? warnings.filter((w) => typeof w === 'string') : [];
   }
 
-  protected load(id: string): void {
-    this.loading.set(true);
-    this.error.set(null);
-    this.api.get(id).subscribe({
-      next: (run) => {
-        this.loading.set(false);
-        this.run.set(run);
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.error.set(
-          err instanceof ApiError && err.status === 404
-            ? 'This run does not exist, or you are not a member of its study.'
-            : messageOf(err),
-        );
-      },
-    });
+  /** Reads the run again (when the followed run finishes, its results arrive). */
+  protected reload(): void {
+    this.runResource.reload();
   }
 }

@@ -1,4 +1,4 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, httpResource, type HttpResourceRef } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { createParser } from 'eventsource-parser';
 import { Observable } from 'rxjs';
@@ -53,6 +53,14 @@ export class RunsApi {
 
   list(gasId: string): Observable<RunSummary[]> {
     return this.http.get<RunSummary[]>(`/api/gases/${encodeURIComponent(gasId)}/runs`);
+  }
+
+  /**
+   * The run with id `id()` as a resource (call in an injection context, e.g. a component's
+   * field): re-read when the id changes, a reload keeps the last answer on screen.
+   */
+  runResource(id: () => string): HttpResourceRef<RunDto | undefined> {
+    return httpResource<RunDto>(() => `/api/runs/${encodeURIComponent(id())}`);
   }
 
   get(id: string): Observable<RunDto> {
