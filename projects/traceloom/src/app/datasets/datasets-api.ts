@@ -151,6 +151,11 @@ export class DatasetsApi {
   }
 
   /** A locked dataset by its hash, without sign-in. */
+  /** A locked dataset by the hash `hash()`, without sign-in, as a resource. */
+  publicDatasetResource(hash: () => string): HttpResourceRef<PublicDatasetDto | undefined> {
+    return httpResource<PublicDatasetDto>(() => `/api/public/datasets/${enc(hash())}`);
+  }
+
   publicDataset(hash: string): Observable<PublicDatasetDto> {
     return this.http.get<PublicDatasetDto>(`/api/public/datasets/${enc(hash)}`);
   }

@@ -1,10 +1,9 @@
 import { DatePipe } from '@angular/common';
 import { DatasetChecks } from '../datasets/dataset-checks';
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { AsyncState } from '../shared/async-state';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
-import { ApiError, messageOf } from '../core/api-error';
 import { DatasetsApi, PublicDatasetDto } from '../datasets/datasets-api';
 import {
   checkStatusText,
@@ -20,14 +19,7 @@ import { LogoMark } from '../shell/logo-mark';
  */
 @Component({
   selector: 'tl-public-dataset',
-  imports: [
-    DatePipe,
-    MatButtonModule,
-    MatIconModule,
-    MatProgressBarModule,
-    LogoMark,
-    DatasetChecks,
-  ],
+  imports: [DatePipe, MatButtonModule, MatIconModule, LogoMark, DatasetChecks, AsyncState],
   templateUrl: './public-dataset.html',
   styleUrl: './public-dataset.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -38,29 +30,15 @@ export class PublicDatasetPage {
   /** Route `public/:hash`. */
   readonly hash = input.required<string>();
 
-  protected readonly data = signal<PublicDatasetDto | null>(null);
-  protected readonly error = signal<string | null>(null);
+  /** The locked dataset, read through the datasets api. */
+  protected readonly resource = this.api.publicDatasetResource(() => this.hash());
+  protected readonly data = computed(() =>
+    this.resource.hasValue() ? this.resource.value()! : null,
+  );
   protected readonly copied = signal(false);
   /** A row's value, or "not determined (O(q^k))" (honest rows). */
   protected readonly valueText = rowValueText;
   /** passes / fails / waived / not compared (older documents' green / red read as such). */
-
-  constructor() {
-    effect(() => {
-      const hash = this.hash();
-      this.data.set(null);
-      this.error.set(null);
-      this.api.publicDataset(hash).subscribe({
-        next: (d) => this.data.set(d),
-        error: (err: unknown) =>
-          this.error.set(
-            err instanceof ApiError && err.status === 404
-              ? 'No locked dataset has this hash. Check that the address was copied whole.'
-              : messageOf(err),
-          ),
-      });
-    });
-  }
 
   /** The stored spec as labelled lines. */
   protected definition(doc: PublicDatasetDto['document']) {
