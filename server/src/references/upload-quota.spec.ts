@@ -39,8 +39,14 @@ const table = (rows: number, { pad = 0, terms = 1 } = {}) =>
   ) + ' '.repeat(pad);
 
 describe('upload size relative to content', () => {
+  it('takes a table whose size its rows explain (a little padding included; warms the reader)', async () => {
+    const res = await upload(table(2, { pad: 1000 }), big.studyId, '', big);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+  });
+
   it('refuses one row and 10 MB of blank lines (413 naming file and the limit), also as a dry run', async () => {
     const sparse = 'N,value\n0,1\n' + '\n'.repeat(10 * 1024 * 1024);
+    const before = await big.t.dataSource.getRepository(ReferenceTable).count();
     for (const query of ['', '?dryRun=1']) {
       const res = await upload(sparse, big.studyId, query, big);
       expect(res.status, JSON.stringify(res.body)).toBe(413);
@@ -49,12 +55,7 @@ describe('upload size relative to content', () => {
         /^file: 10\.0 MB for 1 row .* 64 KB plus 16 KB per row/,
       );
     }
-    expect(await big.t.dataSource.getRepository(ReferenceTable).count()).toBe(0);
-  });
-
-  it('takes a table whose size its rows explain (a little padding included)', async () => {
-    const res = await upload(table(2, { pad: 1000 }), big.studyId, '', big);
-    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(await big.t.dataSource.getRepository(ReferenceTable).count()).toBe(before);
   });
 });
 
