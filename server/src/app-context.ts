@@ -1,4 +1,5 @@
 import type { DataSource } from 'typeorm';
+import type { AppServices } from './app-services.js';
 import type { AccountBackoff, HashGate } from './auth/sign-in-guards.js';
 import type { TokenKeys } from './auth/token-keys.js';
 import type { ServerConfig } from './config.js';
@@ -7,6 +8,8 @@ import type { ServerConfig } from './config.js';
 export interface AppContext {
   dataSource: DataSource;
   config: ServerConfig;
+  /** Worker pools, task runner, run executor, event streams, mailer: built and closed once. */
+  services: AppServices;
   /** HS256 signing secret (256 bits): the current key of `tokenKeys`. */
   tokenSecret: Buffer;
   /** Every key that still verifies (the current one first), from the environment or key file. */

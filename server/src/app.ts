@@ -1,6 +1,7 @@
 import express, { type Express } from 'express';
 import type { DataSource } from 'typeorm';
 import type { AppContext } from './app-context.js';
+import { createServices, type AppServices } from './app-services.js';
 import { createAuthenticate } from './auth/authenticate.js';
 import { AccountBackoff, HashGate, signInLimiters } from './auth/sign-in-guards.js';
 import { hashPassword } from './auth/password.js';
@@ -21,18 +22,33 @@ export interface AppDeps {
   log?: (err: unknown) => void;
 }
 
+/** A built app: the Express handler, its services, and the one way to stop them. */
+export interface TraceloomApp {
+  app: Express;
+  services: AppServices;
+  /**
+   * Stops what the app started (event streams, run queue, worker threads, mail fake); running
+   * runs stay `running` for the next start's recovery. The data source stays open: its owner
+   * destroys it after.
+   */
+  close(): Promise<void>;
+}
+
 /**
  * Builds the Express app (without listening): security headers, JSON body limit, the API from
  * the route table, a JSON 404 for unknown /api paths, the built client when present, and the
  * one error middleware. Takes the signing keys from the configuration or the key file (created on
- * first start) and removes any secret an older server kept in the database.
+ * first start) and removes any secret an older server kept in the database. Builds the app's
+ * services once (`createServices`); the answer's `close()` stops them.
  */
-export async function createApp({ dataSource, config, log }: AppDeps): Promise<Express> {
+export async function createApp({ dataSource, config, log }: AppDeps): Promise<TraceloomApp> {
   const tokenKeys = config.tokenKeys ?? keysFromFile(config.keyFile);
   await forgetDatabaseSecret(dataSource);
+  const services = createServices(dataSource, config, log);
   const ctx: AppContext = {
     dataSource,
     config,
+    services,
     tokenSecret: tokenKeys.current,
     tokenKeys,
     accountBackoff: new AccountBackoff(dataSource, config.signIn),
@@ -56,5 +72,5 @@ export async function createApp({ dataSource, config, log }: AppDeps): Promise<E
   if (config.staticDir) app.use(staticClient(config.staticDir));
   app.use(notFound);
   app.use(errorMiddleware(log));
-  return app;
+  return { app, services, close: () => services.close() };
 }

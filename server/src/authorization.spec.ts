@@ -151,6 +151,7 @@ function send(
 
 beforeAll(async () => {
   t = await createTestApp();
+  await t.services.pools.warm(); // timed answers: the threads load before the clock runs
   for (const role of ROLES) actors[role] = await insertUser(t, role);
   outsider = await insertUser(t, 'author');
 });

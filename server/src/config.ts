@@ -43,8 +43,20 @@ export interface ServerConfig {
   referenceQuota?: ReferenceQuota;
   /** Scheduled backups (`TRACELOOM_BACKUP_DIR`), or null when off. */
   backups: BackupSchedule | null;
+  /** Mail: sender, link base, relay. */
+  mail: MailSettings;
   /** Previews (`POST /api/compute`) one person may ask for per window. */
   previewLimit?: { limit: number; windowMs: number };
+}
+
+/** Where mail goes and how it names the server (`TRACELOOM_MAIL_FROM`, `_PUBLIC_URL`, `_SMTP_URL`). */
+export interface MailSettings {
+  /** The sender (default `Traceloom <traceloom@localhost>`). */
+  from: string;
+  /** The address links in mails point to; null: this server on localhost. */
+  publicUrl: string | null;
+  /** A real SMTP relay (nodemailer URL form); null: the local fake in demo and test mode. */
+  smtpUrl: string | null;
 }
 
 /** How background runs are executed and bounded. */
@@ -95,6 +107,7 @@ export const DEFAULT_CONFIG: ServerConfig = {
   },
   uploadLimitBytes: 10 * 1024 * 1024,
   backups: null,
+  mail: { from: 'Traceloom <traceloom@localhost>', publicUrl: null, smtpUrl: null },
 };
 
 /**
@@ -157,7 +170,8 @@ function referenceQuotaOf(env: NodeJS.ProcessEnv): ReferenceQuota {
  * `TRACELOOM_UPLOAD_LIMIT`, and the signing keys `TRACELOOM_TOKEN_SECRET`,
  * `TRACELOOM_TOKEN_SECRETS_PREVIOUS`, `TRACELOOM_KEY_FILE` (default: `traceloom.key` beside the
  * database), scheduled backups `TRACELOOM_BACKUP_DIR`, `TRACELOOM_BACKUP_EVERY_HOURS` (24),
- * `TRACELOOM_BACKUP_KEEP` (7), `TRACELOOM_TRUST_PROXY`, queue mode `TRACELOOM_QUEUE_URL` with
+ * `TRACELOOM_BACKUP_KEEP` (7), `TRACELOOM_TRUST_PROXY`, mail `TRACELOOM_MAIL_FROM`, `TRACELOOM_PUBLIC_URL`,
+ * `TRACELOOM_SMTP_URL`, queue mode `TRACELOOM_QUEUE_URL` with
  * `TRACELOOM_QUEUE_SLOTS` (16); throws a one-line message naming the variable when a value is
  * unusable.
  */
@@ -201,6 +215,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
         }
       : {}),
     trustProxy: trustProxyOf(env.TRACELOOM_TRUST_PROXY),
+    mail: {
+      from: env.TRACELOOM_MAIL_FROM || DEFAULT_CONFIG.mail.from,
+      publicUrl: env.TRACELOOM_PUBLIC_URL || null,
+      smtpUrl: env.TRACELOOM_SMTP_URL || null,
+    },
     backups: env.TRACELOOM_BACKUP_DIR
       ? {
           dir: env.TRACELOOM_BACKUP_DIR,

@@ -10,14 +10,18 @@ async function main(): Promise<void> {
   const config = loadConfig();
   const dataSource = await openDatabase(config.databasePath);
   if (config.mode === 'demo') await seedDemo(dataSource, config.scrypt);
-  const app = await createApp({ dataSource, config });
-  const server = app.listen(config.port);
+  const built = await createApp({ dataSource, config });
+  const server = built.app.listen(config.port);
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
     server.once('error', reject);
   });
   const { port } = server.address() as AddressInfo;
   console.log(`Traceloom is serving on http://localhost:${port}`);
+  // Threads start now rather than on the first request (in queue mode runs compute elsewhere).
+  built.services.pools
+    .warm(config.runs.queueUrl ? ['quick', 'probe'] : undefined)
+    .catch((err: unknown) => console.error(err));
   if (config.backups) {
     startBackupSchedule(config.databasePath, config.backups);
     const { dir, everyHours, keep } = config.backups;
@@ -36,10 +40,16 @@ async function main(): Promise<void> {
     const force = setTimeout(() => process.exit(1), 10_000);
     force.unref();
     server.close(() => {
-      dataSource.destroy().then(
-        () => process.exit(0),
-        () => process.exit(1),
-      );
+      built
+        .close()
+        .then(
+          () => dataSource.destroy(),
+          () => dataSource.destroy(),
+        )
+        .then(
+          () => process.exit(0),
+          () => process.exit(1),
+        );
     });
     server.closeIdleConnections();
   };

@@ -3,7 +3,6 @@ import { auditRoutes } from './audit/audit-routes.js';
 import { authRoutes } from './auth/auth-routes.js';
 import { comparisonRoutes } from './comparisons/comparison-routes.js';
 import { computeRoutes } from './compute/compute-routes.js';
-import { computeServices } from './compute/services.js';
 import { datasetRoutes } from './datasets/dataset-routes.js';
 import { gasRoutes } from './gases/gas-routes.js';
 import { healthRoutes } from './http/health-routes.js';
@@ -17,11 +16,9 @@ import { userRoutes } from './users/user-routes.js';
 
 /**
  * The whole API route table (paths below `/api`). `createApp` builds the router from it and the
- * authorization test matrix is generated from it: add a feature's routes here. Building it also
- * starts the app's worker pools and run executor (restart recovery included).
+ * authorization test matrix is generated from it: add a feature's routes here.
  */
 export function apiRoutes(ctx: AppContext): RouteSpec[] {
-  computeServices(ctx);
   return [
     ...healthRoutes(ctx),
     ...authRoutes(ctx),

@@ -1,26 +1,10 @@
 import { PERMISSIONS } from '@traceloom/shared/api';
-import type { AuditEventDto } from '@traceloom/shared/api';
+import { auditQuerySchema, type AuditEventDto, type AuditQuery } from '@traceloom/shared/api';
+import { parseInput } from '../http/validate.js';
 import type { AppContext } from '../app-context.js';
 import { AuditEvent } from '../db/entities/index.js';
-import { AppError } from '../http/app-error.js';
 import type { Actor, RouteSpec } from '../http/route-table.js';
 import { ADMIN_ONLY_DETAIL_KEYS } from './audit-study.js';
-
-/** Most events one answer gives. */
-export const AUDIT_LIMIT_MAX = 500;
-
-function textParam(value: unknown, name: string, max: number): string | undefined {
-  if (value === undefined || value === '') return undefined;
-  if (typeof value !== 'string' || value.length > max) {
-    throw new AppError(
-      400,
-      'invalid_input',
-      `${name}: must be a text of at most ${max} characters.`,
-      name,
-    );
-  }
-  return value;
-}
 
 /**
  * `GET /audit?targetType=&targetId=&limit=` (steward, admin): audit events, newest first —
@@ -31,25 +15,8 @@ function textParam(value: unknown, name: string, max: number): string | undefine
 export async function listAudit(
   ctx: AppContext,
   actor: Actor,
-  query: Record<string, unknown>,
+  { targetType, targetId, limit }: AuditQuery,
 ): Promise<AuditEventDto[]> {
-  const targetType = textParam(query.targetType, 'targetType', 32);
-  const targetId = textParam(query.targetId, 'targetId', 36);
-  const rawLimit = query.limit === undefined ? '100' : query.limit;
-  const limit = Number(rawLimit);
-  if (
-    typeof rawLimit !== 'string' ||
-    !/^\d{1,4}$/.test(rawLimit) ||
-    limit < 1 ||
-    limit > AUDIT_LIMIT_MAX
-  ) {
-    throw new AppError(
-      400,
-      'invalid_input',
-      `limit: must be a whole number from 1 to ${AUDIT_LIMIT_MAX}.`,
-      'limit',
-    );
-  }
   const qb = ctx.dataSource
     .getRepository(AuditEvent)
     .createQueryBuilder('e')
@@ -102,7 +69,7 @@ export function auditRoutes(ctx: AppContext): RouteSpec[] {
       method: 'get',
       path: '/audit',
       access: PERMISSIONS.readAudit,
-      handler: ({ actor, req }) => listAudit(ctx, actor, req.query as Record<string, unknown>),
+      handler: ({ actor, query }) => listAudit(ctx, actor, parseInput(auditQuerySchema, query)),
     },
   ];
 }

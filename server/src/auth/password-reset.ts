@@ -5,7 +5,7 @@ import { Invitation, User } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { invitationKey } from '../mail/invitation-keys.js';
-import { mailServices, mailUsers, type OutgoingMail } from '../mail/mailer.js';
+import { mailUsers, type OutgoingMail } from '../mail/mailer.js';
 import { isUnusablePasswordHash } from './password.js';
 
 /** The answer to every reset request, whether or not the address has an account. */
@@ -50,7 +50,7 @@ async function newInvitation(
 }
 
 function link(ctx: AppContext, invitationId: string): string {
-  return `${mailServices(ctx).baseUrl}/welcome/${invitationKey(ctx, invitationId)}`;
+  return `${ctx.services.mail.baseUrl}/welcome/${invitationKey(ctx, invitationId)}`;
 }
 
 /**

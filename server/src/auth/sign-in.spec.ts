@@ -53,7 +53,12 @@ describe('address and global buckets', () => {
     expect(Number(sprayed.headers['retry-after'])).toBeGreaterThan(14 * 60);
     // A restarted server (a new app on the same database) still refuses that address.
     const restarted = await createApp({ dataSource: t.dataSource, config: t.config });
-    expect((await login(restarted, 'nobody-else@example.test', 'guess', from)).status).toBe(429);
+    try {
+      const again = await login(restarted.app, 'nobody-else@example.test', 'guess', from);
+      expect(again.status).toBe(429);
+    } finally {
+      await restarted.close();
+    }
     // Another address is not affected.
     const user = await insertUser(t, 'author');
     expect((await login(t.app, user.email, TEST_PASSWORD, freshAddress())).status).toBe(200);

@@ -55,7 +55,7 @@ describe('the signing key', () => {
     await t.dataSource.query(`INSERT INTO setting (key, value) VALUES ('auth.token_secret', ?)`, [
       old.toString('base64'),
     ]);
-    await createApp({ dataSource: t.dataSource, config: t.config });
+    await (await createApp({ dataSource: t.dataSource, config: t.config })).close();
     expect(
       await t.dataSource.query(`SELECT key FROM setting WHERE key = 'auth.token_secret'`),
     ).toEqual([]);
@@ -119,7 +119,9 @@ describe('rotation', () => {
       const firstKid = jwt.decode(before, { complete: true })?.header.kid;
       const newKid = rotateKeyFile(other.config.keyFile);
       expect(newKid).not.toBe(firstKid);
-      const rotated = await createApp({ dataSource: other.dataSource, config: other.config });
+      const rotatedApp = await createApp({ dataSource: other.dataSource, config: other.config });
+      await rotatedApp.close(); // the app still answers; nothing of it computes or mails
+      const rotated = rotatedApp.app;
       expect((await me(rotated, before)).status).toBe(200);
       const after = await request(rotated)
         .post('/api/auth/login')
@@ -128,7 +130,9 @@ describe('rotation', () => {
       // Two more rotations: the first key is no longer kept, its token stops.
       rotateKeyFile(other.config.keyFile);
       rotateKeyFile(other.config.keyFile);
-      const later = await createApp({ dataSource: other.dataSource, config: other.config });
+      const laterApp = await createApp({ dataSource: other.dataSource, config: other.config });
+      await laterApp.close();
+      const later = laterApp.app;
       expect((await me(later, before)).status).toBe(401);
       expect((await me(later, after.body.token)).status).toBe(200);
     } finally {

@@ -5,12 +5,11 @@ import type { ValueJson, WeightVerdict } from '@traceloom/shared/engine';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { isNumericResult, isNumericVerdict, readVerdict } from '@traceloom/shared/format';
-import { computeServices } from '../compute/services.js';
+import type { TaskOptions } from '../compute/run-task.js';
 import { Comparison } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
-import type { WorkerRefusal } from '../runs/worker.js';
 import { loadVisibleRun, loadResult } from '../runs/run-service.js';
 import { isNumericTable } from '../references/reference-parse.js';
 import { loadVisibleReference } from '../references/reference-service.js';
@@ -114,14 +113,28 @@ export async function createComparison(
         'referenceId',
       );
     }
-    const pools = computeServices(ctx).pools;
     // A numeric comparison computes the run's spec again (up to the table's largest N) with the
     // table as its reference: it gets a run's worker and wall-clock limit.
-    const output = (await (numeric ? pools.runs : pools.quick).run(
-      numeric
-        ? { kind: 'compareNumeric', spec: result.spec, normalization, rows: refRows }
-        : {
-            kind: 'compare',
+    const options: TaskOptions = {
+      timeoutMs: numeric ? ctx.config.runs.wallClockMs : COMPARE_LIMIT_MS,
+      refused: (r) =>
+        new AppError(
+          400,
+          'invalid_input',
+          `${r.field ?? 'reference'}: ${r.message}.`,
+          r.field === 'normalization' ? 'normalization' : 'referenceId',
+        ),
+    };
+    const { tasks } = ctx.services;
+    const output = numeric
+      ? await tasks.runTask(
+          'compareNumeric',
+          { spec: result.spec, normalization, rows: refRows },
+          options,
+        )
+      : await tasks.runTask(
+          'compare',
+          {
             canonical: result.canonical.map((row) => row.value as ValueJson),
             variable: result.spec.variable,
             order: result.spec.order ?? null,
@@ -130,18 +143,8 @@ export async function createComparison(
             weights: result.weights.map((w) => w.value as ValueJson),
             fermion: result.spec.statistics === 'fermion',
           },
-      { signal: AbortSignal.timeout(numeric ? ctx.config.runs.wallClockMs : COMPARE_LIMIT_MS) },
-    )) as
-      { ok: true; rows: RowVerdictDto[]; impliedWeights?: WeightVerdict[] | null } | WorkerRefusal;
-    if (!output.ok) {
-      const field = output.field === 'normalization' ? 'normalization' : 'referenceId';
-      throw new AppError(
-        400,
-        'invalid_input',
-        `${output.field ?? 'reference'}: ${output.message}.`,
-        field,
-      );
-    }
+          options,
+        );
     rows = output.rows;
     impliedWeights = output.impliedWeights ?? null;
   }

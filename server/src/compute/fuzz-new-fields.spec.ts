@@ -23,6 +23,7 @@ let studyId: string;
 beforeAll(async () => {
   // One person sends every probe here: the per-person preview limit is tested in preview-limit.spec.ts.
   t = await createTestApp({ previewLimit: { limit: 1_000_000, windowMs: 60_000 } }, () => {});
+  await t.services.pools.warm(); // timed answers: the threads load before the clock runs
   const author = await insertUser(t, 'author');
   token = await tokenFor(t, author);
   studyId = await insertStudy(t, author);

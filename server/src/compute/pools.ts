@@ -4,13 +4,21 @@ import { Piscina } from 'piscina';
 import type { RunLimits } from '../config.js';
 
 /**
- * The worker pools: background runs, quick jobs (preview, comparisons, uploads), and the probe
+ * The worker pools (each started on first use): background runs, quick jobs (preview, comparisons, uploads), and the probe
  * that checks a gas before it is stored — on its own thread, so a preview flood cannot starve it.
  */
 export interface WorkerPools {
-  runs: Piscina;
-  quick: Piscina;
-  probe: Piscina;
+  readonly runs: Piscina;
+  readonly quick: Piscina;
+  readonly probe: Piscina;
+  /** The pools whose threads have been started. */
+  started(): PoolName[];
+  /**
+   * Starts `names` (default: all) and resolves once each of their warm threads has loaded the
+   * engine — the server does it after it starts listening, tests that time answers before theirs.
+   */
+  warm(names?: readonly PoolName[]): Promise<void>;
+  /** Terminates the started pools' threads; no pool starts afterwards. */
   destroy(): Promise<void>;
 }
 
@@ -41,34 +49,68 @@ export function createRunPool(limits: Pick<RunLimits, 'threads' | 'maxOldGenerat
   });
 }
 
+/** Which pool a task kind runs on. */
+export type PoolName = 'runs' | 'quick' | 'probe';
+
 /**
- * Builds the pools. Each run gets a worker with a heap limit (`resourceLimits`); aborting a
- * task's signal terminates its worker, which piscina replaces. Workers are kept warm so the
- * first run does not pay the start-up.
+ * Builds the pools lazily: a pool's threads start the first time a task needs it, so an app
+ * that never computes starts no thread (`started` says which pools exist). Each run gets a
+ * worker with a heap limit (`resourceLimits`); aborting a task's signal terminates its worker,
+ * which piscina replaces; once started, workers are kept warm (`idleTimeout`).
  */
 export function createWorkerPools(limits: RunLimits): WorkerPools {
   const base = workerOptions();
-  const runs = createRunPool(limits);
-  const quick = new Piscina({
-    ...base,
-    minThreads: 1,
-    maxThreads: 2,
-    idleTimeout: 60_000,
-    resourceLimits: { maxOldGenerationSizeMb: 256 },
-  });
-  const probe = new Piscina({
-    ...base,
-    minThreads: 1,
-    maxThreads: 1,
-    idleTimeout: 60_000,
-    resourceLimits: { maxOldGenerationSizeMb: 256 },
-  });
+  const make: Record<PoolName, () => Piscina> = {
+    runs: () => createRunPool(limits),
+    quick: () =>
+      new Piscina({
+        ...base,
+        minThreads: 1,
+        maxThreads: 2,
+        idleTimeout: 60_000,
+        resourceLimits: { maxOldGenerationSizeMb: 256 },
+      }),
+    probe: () =>
+      new Piscina({
+        ...base,
+        minThreads: 1,
+        maxThreads: 1,
+        idleTimeout: 60_000,
+        resourceLimits: { maxOldGenerationSizeMb: 256 },
+      }),
+  };
+  const made = new Map<PoolName, Piscina>();
+  let closed = false;
+  const get = (name: PoolName): Piscina => {
+    if (closed) throw new Error('the worker pools are closed');
+    let pool = made.get(name);
+    if (!pool) made.set(name, (pool = make[name]()));
+    return pool;
+  };
   return {
-    runs,
-    quick,
-    probe,
+    get runs() {
+      return get('runs');
+    },
+    get quick() {
+      return get('quick');
+    },
+    get probe() {
+      return get('probe');
+    },
+    started: () => [...made.keys()],
+    async warm(names = ['runs', 'quick', 'probe']) {
+      // A refused task per warm thread: answered as soon as a worker has loaded its module.
+      const tasks = names.flatMap((name) => {
+        const pool = get(name);
+        const n = name === 'runs' ? limits.threads : 1;
+        return Array.from({ length: n }, () => pool.run({ kind: 'preview', spec: null }));
+      });
+      await Promise.all(tasks);
+    },
     async destroy() {
-      await Promise.all([runs.destroy(), quick.destroy(), probe.destroy()]);
+      closed = true;
+      await Promise.all([...made.values()].map((pool) => pool.destroy()));
+      made.clear();
     },
   };
 }

@@ -3,9 +3,6 @@ import type { ComputeResult, GasSpec } from '@traceloom/shared/engine';
 import Fraction from 'fraction.js';
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
-import type { WorkerRefusal } from '../runs/worker.js';
-import { runWithin, specRefusal } from './refusal.js';
-import { computeServices } from './services.js';
 
 /** The preview's caps, tighter than a run's. */
 export const PREVIEW_LIMITS = { nMax: 12, orderSteps: 200, classTable: 8 } as const;
@@ -73,20 +70,20 @@ export function assertPreviewSize(spec: GasSpec): void {
  */
 export async function previewCompute(ctx: AppContext, spec: GasSpec): Promise<ComputeResult> {
   assertPreviewSize(spec);
-  const { pools } = computeServices(ctx);
   const limitMs = ctx.config.runs.previewMs;
-  const output = (await runWithin(
-    pools.quick,
-    { kind: 'preview', spec },
-    limitMs,
-    () =>
-      new AppError(
-        422,
-        'too_heavy',
-        `spec: this takes longer than the preview's ${limitMs / 1000} s; start a run instead.`,
-        'spec',
-      ),
-  )) as { ok: true; result: ComputeResult } | WorkerRefusal;
-  if (!output.ok) throw specRefusal(output);
-  return output.result;
+  const { result } = await ctx.services.tasks.runTask(
+    'preview',
+    { spec },
+    {
+      timeoutMs: limitMs,
+      onTimeout: () =>
+        new AppError(
+          422,
+          'too_heavy',
+          `spec: this takes longer than the preview's ${limitMs / 1000} s; start a run instead.`,
+          'spec',
+        ),
+    },
+  );
+  return result;
 }

@@ -1,7 +1,6 @@
-import type { Piscina } from 'piscina';
 import { fieldLabel } from '@traceloom/shared/format';
 import { AppError } from '../http/app-error.js';
-import type { WorkerRefusal } from '../runs/worker.js';
+import type { WorkerRefusal } from './tasks.js';
 
 /**
  * The API error for a worker's refusal of a spec: 400 `invalid_spec` with `field` = `spec.<path>`
@@ -15,32 +14,4 @@ export function specRefusal(output: WorkerRefusal): AppError {
   }
   const field = output.field ? `spec.${output.field}` : 'spec';
   return new AppError(400, 'invalid_spec', `${fieldLabel(field)}: ${output.message}.`, field);
-}
-
-/**
- * Runs a task on `pool` with a wall-clock limit: at `limitMs` the task is aborted (piscina
- * terminates its worker) and the answer is `onTimeout()` at once, without waiting for the
- * worker to wind down.
- */
-export async function runWithin(
-  pool: Piscina,
-  task: unknown,
-  limitMs: number,
-  onTimeout: () => AppError,
-): Promise<unknown> {
-  const controller = new AbortController();
-  let timer: NodeJS.Timeout | undefined;
-  const timeout = new Promise<never>((_, reject) => {
-    timer = setTimeout(() => {
-      reject(onTimeout());
-      controller.abort();
-    }, limitMs);
-  });
-  const work = pool.run(task, { signal: controller.signal });
-  work.catch(() => undefined);
-  try {
-    return await Promise.race([work, timeout]);
-  } finally {
-    clearTimeout(timer);
-  }
 }

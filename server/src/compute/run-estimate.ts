@@ -3,9 +3,6 @@ import { classTableCost, type GasSpec, type RunEstimate } from '@traceloom/share
 import type { AppContext } from '../app-context.js';
 import type { RunLimits } from '../config.js';
 import { AppError } from '../http/app-error.js';
-import type { WorkerRefusal } from '../runs/worker.js';
-import { runWithin, specRefusal } from './refusal.js';
-import { computeServices } from './services.js';
 
 /** How long the estimate may take (a fresh worker loads the engine first); beyond it only the cost is given. */
 const ESTIMATE_MS = 8000;
@@ -39,17 +36,16 @@ export function judgeEstimate(estimate: RunEstimate, limits: RunLimits): RunEsti
  * advice); when that takes too long, the class table's cost alone. Engine refusals answer 400.
  */
 export async function estimateSpec(ctx: AppContext, spec: GasSpec): Promise<RunEstimateDto> {
-  const { pools } = computeServices(ctx);
   let estimate: RunEstimate;
   try {
-    const output = (await runWithin(
-      pools.quick,
-      { kind: 'estimate', spec },
-      ESTIMATE_MS,
-      () => new AppError(422, 'too_heavy', 'estimate timed out'),
-    )) as { ok: true; estimate: RunEstimate } | WorkerRefusal;
-    if (!output.ok) throw specRefusal(output);
-    estimate = output.estimate;
+    ({ estimate } = await ctx.services.tasks.runTask(
+      'estimate',
+      { spec },
+      {
+        timeoutMs: ESTIMATE_MS,
+        onTimeout: () => new AppError(422, 'too_heavy', 'estimate timed out'),
+      },
+    ));
   } catch (e) {
     if (!(e instanceof AppError) || e.code !== 'too_heavy') throw e;
     const cost = classTableCost(spec);

@@ -2,7 +2,6 @@ import type { DatasetDocument } from '@traceloom/shared/api';
 import type { Response } from 'express';
 import type { AppContext } from '../app-context.js';
 import { AppError } from '../http/app-error.js';
-import { mailServices } from '../mail/mailer.js';
 import { citationAuthors } from './dataset-authors.js';
 import { lockedByHash } from './export-service.js';
 
@@ -64,7 +63,7 @@ export async function publicCitation(
   }
   const d = await lockedByHash(ctx, hash);
   const doc = JSON.parse(d.canonical!) as DatasetDocument;
-  const address = `${mailServices(ctx).baseUrl}/public/${d.hash}`;
+  const address = `${ctx.services.mail.baseUrl}/public/${d.hash}`;
   const stem = `traceloom-${d.hash!.slice(0, 12)}`;
   if (format === 'bibtex') {
     res

@@ -22,7 +22,8 @@ import {
 import { exportDataset, importDataset, publicDataset, publicExport } from './export-service.js';
 import { publicCitation } from './citation-export.js';
 import { lockPreview } from './lock-preview.js';
-import { lockDataset, verifyDataset, withdrawDataset } from './lock-service.js';
+import { lockDataset, withdrawDataset } from './lock-service.js';
+import { verifyDataset } from './verify-service.js';
 import { addComment, addReview, addWaiver, requestReview } from './review-service.js';
 
 /** No body, or an empty JSON object. */
@@ -143,7 +144,7 @@ export function datasetRoutes(ctx: AppContext): RouteSpec[] {
       method: 'post',
       path: '/datasets/:id/verify',
       access: ANY_ROLE,
-      handler: ({ actor, params }) => verifyDataset(ctx, actor, id(params.id)),
+      handler: ({ actor, params, signal }) => verifyDataset(ctx, actor, id(params.id), signal),
     },
     {
       method: 'get',

@@ -16,8 +16,6 @@ import {
   DatasetView,
   RunClassPage,
 } from '../db/entities/index.js';
-import { computeServices } from '../compute/services.js';
-import type { SnapshotOutput, SnapshotTask } from './dataset-view.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { parseId } from '../http/validate.js';
@@ -57,8 +55,7 @@ export async function createDataset(
     .getRepository(RunClassPage)
     .find({ where: { runId }, select: { rows: true }, order: { n: 'ASC', page: 'ASC' } });
   // Unpacked, joined with its class rows and written out on a run thread (the heap it needs).
-  const made = (await computeServices(ctx).pools.runs.run({
-    kind: 'datasetSnapshot',
+  const made = await ctx.services.tasks.runTask('datasetSnapshot', {
     result: run.result,
     pages: pages.map((p) => p.rows),
     gas: { id: run.gas.id, title: run.gas.title, version: run.gasVersion.version },
@@ -70,7 +67,7 @@ export async function createDataset(
       normalization,
       rows,
     })),
-  } satisfies SnapshotTask)) as SnapshotOutput;
+  });
   const id = await ctx.dataSource.transaction(async (manager) => {
     let version = 1;
     let supersedes: { id: string } | null = null;

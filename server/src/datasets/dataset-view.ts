@@ -32,7 +32,6 @@ export function viewOf(snapshot: DatasetSnapshot): DatasetViewData {
 
 /** A new dataset's snapshot as a worker builds it: the run's stored bytes and what to add. */
 export interface SnapshotTask {
-  kind: 'datasetSnapshot';
   /** The run's stored result: gzip of its JSON without class rows. */
   result: Uint8Array;
   /** The run's class-row pages (gzip of JSON arrays), by N and then page. */

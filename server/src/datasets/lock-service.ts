@@ -3,12 +3,10 @@ import type { DatasetLockInput } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
-import { computeServices } from '../compute/services.js';
 import { Dataset } from '../db/entities/index.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { mailUsers } from '../mail/mailer.js';
-import type { WorkerRefusal } from '../runs/worker.js';
 import {
   datasetLocked,
   isLockTrigger,
@@ -163,43 +161,4 @@ export async function withdrawDataset(
     });
   });
   return { state: 'withdrawn' };
-}
-
-/**
- * `POST /datasets/:id/verify`: computes the stored spec again with the engine (in the run worker
- * pool) and compares every part of the result but timings with the stored one (numeric values
- * within their combined error, everything else exactly); for a locked
- * dataset also checks that the stored canonical text still hashes to the lock hash.
- */
-export async function verifyDataset(ctx: AppContext, actor: Actor, datasetId: string) {
-  const manager = ctx.dataSource.manager;
-  const d = await withBytes(manager, await loadVisibleDataset(manager, actor, datasetId));
-  const started = Date.now();
-  // Parsing the snapshot, the computation and the comparison all happen in the worker.
-  const output = (await computeServices(ctx).pools.runs.run(
-    { kind: 'verify', snapshot: d.snapshot },
-    { signal: AbortSignal.timeout(ctx.config.runs.wallClockMs) },
-  )) as { ok: true; mismatches: string[] } | WorkerRefusal;
-  if (!output.ok) {
-    throw new AppError(
-      422,
-      'verify_failed',
-      `The stored spec no longer computes: ${output.message}`,
-    );
-  }
-  const mismatches = output.mismatches;
-  const hashOk =
-    d.state === 'locked' ? d.canonical !== null && sha256Hex(d.canonical) === d.hash : null;
-  if (hashOk === false)
-    mismatches.push('the stored canonical text no longer hashes to the lock hash');
-  await ctx.dataSource.transaction((manager) =>
-    recordAudit(manager, {
-      actorId: actor.id,
-      action: 'dataset.verify',
-      targetType: 'dataset',
-      targetId: d.id,
-      detail: { ok: mismatches.length === 0, mismatches: mismatches.length },
-    }),
-  );
-  return { ok: mismatches.length === 0, mismatches, hashOk, durationMs: Date.now() - started };
 }

@@ -21,7 +21,6 @@ import {
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { mailUsers } from '../mail/mailer.js';
-import { mailServices } from '../mail/mailer.js';
 import { canSee } from '../studies/study-access.js';
 import { loadWritableDataset } from './dataset-access.js';
 import { withWaivers } from './dataset-checks.js';
@@ -34,7 +33,7 @@ type Input<S extends z.ZodType> = () => z.output<S>;
 
 /** A link to the dataset page in the client, for mails. */
 export function datasetLink(ctx: AppContext, datasetId: string): string {
-  return `${mailServices(ctx).baseUrl}/datasets/${datasetId}`;
+  return `${ctx.services.mail.baseUrl}/datasets/${datasetId}`;
 }
 
 function assertOpen(d: Dataset): void {

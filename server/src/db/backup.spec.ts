@@ -85,11 +85,12 @@ describe('backup and restore', () => {
     mkdirSync(path.dirname(restoredPath), { recursive: true });
     restoreDatabase(file, restoredPath);
     const dataSource = await openDatabase(restoredPath);
+    const built = await createApp({
+      dataSource,
+      config: { ...t.config, databasePath: restoredPath },
+    });
+    const app = built.app;
     try {
-      const app = await createApp({
-        dataSource,
-        config: { ...t.config, databasePath: restoredPath },
-      });
       const verified = await request(app)
         .post(`/api/datasets/${locked.id}/verify`)
         .set('Authorization', `Bearer ${await tokenFor(t, steward)}`)
@@ -98,6 +99,7 @@ describe('backup and restore', () => {
       const open = await request(app).get(`/api/public/datasets/${locked.hash}`).expect(200);
       expect(open.body.hash).toBe(locked.hash);
     } finally {
+      await built.close();
       await dataSource.destroy();
     }
   });

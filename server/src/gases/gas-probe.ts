@@ -2,10 +2,7 @@ import { MessageChannel } from 'node:worker_threads';
 import type { GasSpec } from '@traceloom/shared/engine';
 import Fraction from 'fraction.js';
 import type { AppContext } from '../app-context.js';
-import { specRefusal } from '../compute/refusal.js';
-import { computeServices } from '../compute/services.js';
 import { AppError } from '../http/app-error.js';
-import type { WorkerRefusal } from '../runs/worker.js';
 
 /** The probe's size: N up to 2, eight grid steps. */
 const PROBE_N = 2;
@@ -51,35 +48,30 @@ export function probeOf(spec: GasSpec): GasSpec {
 export async function assertSpecEvaluates(ctx: AppContext, spec: GasSpec): Promise<void> {
   const controller = new AbortController();
   const channel = new MessageChannel();
-  let undecided = false;
-  const stop = () => {
-    undecided = true;
-    controller.abort();
-  };
+  const stop = () =>
+    controller.abort(
+      new AppError(
+        503,
+        'probe_undecided',
+        `spec: the check before saving could not finish within ${PROBE_MS / 1000} s (the server is busy); nothing was saved, try again.`,
+        'spec',
+        { 'Retry-After': '5' },
+      ),
+    );
   // The probe's own clock starts when its worker begins; until then only a start-up grace runs.
   let timer = setTimeout(stop, PROBE_START_GRACE_MS);
   channel.port1.once('message', () => {
     clearTimeout(timer);
     timer = setTimeout(stop, PROBE_MS);
   });
-  let output: { ok: true } | WorkerRefusal;
   try {
-    output = (await computeServices(ctx).pools.probe.run(
-      { kind: 'probe', spec: probeOf(spec), port: channel.port2 },
+    await ctx.services.tasks.runTask(
+      'probe',
+      { spec: probeOf(spec), port: channel.port2 },
       { transferList: [channel.port2], signal: controller.signal },
-    )) as { ok: true } | WorkerRefusal;
-  } catch (err) {
-    if (!undecided) throw err;
-    throw new AppError(
-      503,
-      'probe_undecided',
-      `spec: the check before saving could not finish within ${PROBE_MS / 1000} s (the server is busy); nothing was saved, try again.`,
-      'spec',
-      { 'Retry-After': '5' },
     );
   } finally {
     clearTimeout(timer);
     channel.port1.close();
   }
-  if (!output.ok) throw specRefusal(output);
 }

@@ -2,10 +2,7 @@ import { gzipSync } from 'node:zlib';
 import nodemailer from 'nodemailer';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { AppContext } from '../app-context.js';
-import { computeServices } from '../compute/services.js';
 import { ReferenceTable, type User } from '../db/entities/index.js';
-import { mailServices } from '../mail/mailer.js';
 import { api, lockedDataset, warmWorkers } from '../testing/dataset-fixtures.js';
 import { bearer, finishedRun } from '../testing/gas-fixtures.js';
 import {
@@ -82,8 +79,7 @@ describe('faults a client can cause answer 4xx, never 500', () => {
   });
 
   it('an upload whose reading runs out of memory: 413, nothing stored', async () => {
-    const ctx = { dataSource: t.dataSource, config: t.config } as AppContext;
-    const quick = computeServices(ctx).pools.quick;
+    const quick = t.services.pools.quick;
     const run = quick.run.bind(quick);
     // The worker's own out-of-memory error, as Node raises it when the heap limit is hit.
     quick.run = () =>
@@ -150,9 +146,8 @@ describe('small leaks', () => {
   });
 
   it('the local mail fake refuses mail without its credentials', async () => {
-    const services = mailServices({ dataSource: t.dataSource, config: t.config } as AppContext);
-    await services.ready;
-    const port = services.fake!.port;
+    const fake = (await t.services.mail.mailbox())!;
+    const port = fake.port;
     const message = { from: 'x@example.test', to: 'y@example.test', subject: 'planted', text: 'x' };
     const anonymous = nodemailer.createTransport({ host: '127.0.0.1', port, ignoreTLS: true });
     await expect(anonymous.sendMail(message)).rejects.toThrow();
@@ -163,7 +158,7 @@ describe('small leaks', () => {
       auth: { user: 'traceloom', pass: 'guess' },
     });
     await expect(wrong.sendMail(message)).rejects.toThrow(/Invalid username or password|535/);
-    expect(services.fake!.list().some((m) => m.subject === 'planted')).toBe(false);
+    expect(fake.list().some((m) => m.subject === 'planted')).toBe(false);
   });
 });
 

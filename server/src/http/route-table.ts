@@ -17,7 +17,11 @@ export interface RouteContext {
   /** The signed-in person; `null` only on public routes. */
   actor: Actor | null;
   params: Record<string, string>;
+  /** The parsed query string (routes validate it with a schema before a service sees it). */
+  query: Record<string, unknown>;
   body: unknown;
+  /** Aborts when the client goes away before the answer is written (cancel its work then). */
+  signal: AbortSignal;
   req: Request;
   res: Response;
 }
@@ -74,10 +78,16 @@ export function buildRouter(routes: readonly RouteSpec[], authenticate: RequestH
       route.access === 'public' ? [] : [authenticate, requireRole(route.access)];
     router[route.method](route.path, ...guards, async (req, res) => {
       res.status(route.status ?? 200);
+      const gone = new AbortController();
+      res.once('close', () => {
+        if (!res.writableFinished) gone.abort(new Error('the client went away'));
+      });
       const ctx = {
         actor: (res.locals.actor as Actor | undefined) ?? null,
         params: req.params as Record<string, string>,
+        query: req.query as Record<string, unknown>,
         body: req.body as unknown,
+        signal: gone.signal,
         req,
         res,
       };

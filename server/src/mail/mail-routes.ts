@@ -4,14 +4,12 @@ import { PERMISSIONS, invitationAcceptSchema } from '@traceloom/shared/api';
 import type { RouteSpec } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { acceptInvitation } from './invitation-keys.js';
-import { mailServices } from './mailer.js';
 
 /**
  * `GET /dev/mailbox` (admin): what the local mail fake received, newest first; and
  * `POST /invitations/accept` (no sign-in): the invitation mail's key sets a first password.
  */
 export function mailRoutes(ctx: AppContext): RouteSpec[] {
-  const services = mailServices(ctx);
   return [
     {
       method: 'post',
@@ -24,15 +22,15 @@ export function mailRoutes(ctx: AppContext): RouteSpec[] {
       path: '/dev/mailbox',
       access: PERMISSIONS.administer,
       handler: async () => {
-        await services.ready;
-        if (!services.fake) {
+        const fake = await ctx.services.mail.mailbox();
+        if (!fake) {
           throw new AppError(
             404,
             'mailbox_off',
             'The mailbox exists only while the local mail fake is on (demo and test mode).',
           );
         }
-        return services.fake.list();
+        return fake.list();
       },
     },
   ];

@@ -1,26 +1,10 @@
 import nodemailer, { type Transporter } from 'nodemailer';
-import { In, type DataSource } from 'typeorm';
+import { In } from 'typeorm';
 import type { AppContext } from '../app-context.js';
+import type { MailSettings, ServerMode } from '../config.js';
 import { User } from '../db/entities/index.js';
 import { MailFake } from './mail-fake.js';
 import { oneLine } from './mail-text.js';
-
-/** Sender when `TRACELOOM_MAIL_FROM` is not set. */
-export const DEFAULT_FROM = 'Traceloom <traceloom@localhost>';
-
-/** How mail leaves the app. */
-export interface MailServices {
-  /** The local fake, when it is the transport (demo and test mode without a relay). */
-  fake: MailFake | null;
-  /** `fake`, `smtp` (a real relay from `TRACELOOM_SMTP_URL`) or `off` (production without one). */
-  kind: 'fake' | 'smtp' | 'off';
-  /** Resolves once the transport can take messages. */
-  ready: Promise<void>;
-  transport: Transporter | null;
-  from: string;
-  /** Link base for mails, from `TRACELOOM_PUBLIC_URL`. */
-  baseUrl: string;
-}
 
 /** One message for people identified by user id. */
 export interface OutgoingMail {
@@ -28,62 +12,94 @@ export interface OutgoingMail {
   text: string;
 }
 
-const byDataSource = new WeakMap<DataSource, MailServices>();
-
 /**
- * The mail services of the app over `ctx.dataSource`, created on first use: a real SMTP relay
- * when `TRACELOOM_SMTP_URL` is set (outside test mode), otherwise in demo and test mode the local
- * fake, otherwise none. Closing the data source stops the fake.
+ * How mail leaves the app, built once by the app's services from the configuration: a real SMTP
+ * relay (`mail.smtpUrl`, outside test mode), otherwise in demo and test mode the local fake,
+ * otherwise none. The fake's SMTP server starts on the first message or mailbox read, so an app
+ * that never mails opens no port; `close()` stops it.
  */
-export function mailServices(ctx: AppContext): MailServices {
-  const existing = byDataSource.get(ctx.dataSource);
-  if (existing) return existing;
-  const env = process.env;
-  const from = oneLine(env.TRACELOOM_MAIL_FROM || DEFAULT_FROM);
-  const baseUrl = (
-    env.TRACELOOM_PUBLIC_URL || `http://localhost:${ctx.config.port || 4300}`
-  ).replace(/\/$/, '');
-  const relay = ctx.config.mode === 'test' ? '' : env.TRACELOOM_SMTP_URL || '';
-  let services: MailServices;
-  if (relay) {
-    services = {
-      kind: 'smtp',
-      fake: null,
-      ready: Promise.resolve(),
-      transport: nodemailer.createTransport(relay),
-      from,
-      baseUrl,
-    };
-  } else if (ctx.config.mode === 'demo' || ctx.config.mode === 'test') {
-    const fake = new MailFake();
-    services = { kind: 'fake', fake, transport: null, from, baseUrl, ready: Promise.resolve() };
-    services.ready = fake.start().then(() => {
-      services.transport = nodemailer.createTransport({
-        host: '127.0.0.1',
-        port: fake.port,
-        secure: false,
-        ignoreTLS: true,
-        auth: fake.credentials,
-      });
-    });
-    const destroy = ctx.dataSource.destroy.bind(ctx.dataSource);
-    ctx.dataSource.destroy = async () => {
-      await services.ready.catch(() => {});
-      await fake.stop();
-      await destroy();
-    };
-  } else {
-    services = {
-      kind: 'off',
-      fake: null,
-      ready: Promise.resolve(),
-      transport: null,
-      from,
-      baseUrl,
-    };
+export class Mailer {
+  /** `fake`, `smtp` (a real relay) or `off` (production without one). */
+  readonly kind: 'fake' | 'smtp' | 'off';
+  /** The sender, one line. */
+  readonly from: string;
+  /** Link base for mails (`mail.publicUrl`, else this server on localhost). */
+  readonly baseUrl: string;
+  private fake: MailFake | null = null;
+  private transport: Transporter | null = null;
+  private starting: Promise<void> | null = null;
+  private closed = false;
+
+  constructor(
+    private readonly settings: MailSettings,
+    mode: ServerMode,
+    port: number,
+  ) {
+    this.from = oneLine(settings.from);
+    this.baseUrl = (settings.publicUrl || `http://localhost:${port || 4300}`).replace(/\/$/, '');
+    if (mode !== 'test' && settings.smtpUrl) this.kind = 'smtp';
+    else this.kind = mode === 'demo' || mode === 'test' ? 'fake' : 'off';
   }
-  byDataSource.set(ctx.dataSource, services);
-  return services;
+
+  /** True once the transport (the fake's SMTP server, or the relay's connection) was started. */
+  get started(): boolean {
+    return this.starting !== null;
+  }
+
+  /** The transport once it can take messages (starting the fake on first use), or null. */
+  private async ready(): Promise<Transporter | null> {
+    if (this.kind === 'off' || this.closed) return null;
+    this.starting ??= this.start();
+    await this.starting;
+    return this.transport;
+  }
+
+  private async start(): Promise<void> {
+    if (this.kind === 'smtp') {
+      this.transport = nodemailer.createTransport(this.settings.smtpUrl!);
+      return;
+    }
+    const fake = new MailFake();
+    this.fake = fake;
+    await fake.start();
+    this.transport = nodemailer.createTransport({
+      host: '127.0.0.1',
+      port: fake.port,
+      secure: false,
+      ignoreTLS: true,
+      auth: fake.credentials,
+    });
+  }
+
+  /** The local fake, started (demo and test mode without a relay), or null. */
+  async mailbox(): Promise<MailFake | null> {
+    if (this.kind !== 'fake') return null;
+    await this.ready();
+    return this.fake;
+  }
+
+  /** Hands one message to the transport; false when mail is off. */
+  async send(to: { name: string; address: string }, mail: OutgoingMail): Promise<boolean> {
+    const transport = await this.ready();
+    if (!transport) return false;
+    await transport.sendMail({
+      from: this.from,
+      to: { name: oneLine(to.name, 100), address: to.address },
+      subject: oneLine(mail.subject),
+      text: mail.text,
+      disableFileAccess: true,
+      disableUrlAccess: true,
+    });
+    return true;
+  }
+
+  /** Stops the fake (when it was started) and closes the transport; no mail leaves afterwards. */
+  async close(): Promise<void> {
+    this.closed = true;
+    await this.starting?.catch(() => {});
+    this.transport?.close();
+    await this.fake?.stop();
+  }
 }
 
 /**
@@ -98,25 +114,15 @@ export async function mailUsers(
   mail: OutgoingMail,
   log: (err: unknown) => void = console.error,
 ): Promise<number> {
-  const services = mailServices(ctx);
-  if (userIds.length === 0) return 0;
+  const mailer = ctx.services.mail;
+  if (userIds.length === 0 || mailer.kind === 'off') return 0;
   try {
-    await services.ready;
-    if (!services.transport) return 0;
     const users = await ctx.dataSource
       .getRepository(User)
       .findBy({ id: In([...new Set(userIds)]), disabled: false });
     let sent = 0;
     for (const user of users) {
-      await services.transport.sendMail({
-        from: services.from,
-        to: { name: oneLine(user.displayName, 100), address: user.email },
-        subject: oneLine(mail.subject),
-        text: mail.text,
-        disableFileAccess: true,
-        disableUrlAccess: true,
-      });
-      sent += 1;
+      if (await mailer.send({ name: user.displayName, address: user.email }, mail)) sent += 1;
     }
     return sent;
   } catch (err) {

@@ -1,15 +1,10 @@
-import { productQuerySchema } from '@traceloom/shared/api';
-import type { ProductFormDto } from '@traceloom/shared/api';
+import type { ProductFormDto, ProductTarget } from '@traceloom/shared/api';
 import type { GrandProductJson, SeriesProductJson, ValueJson } from '@traceloom/shared/engine';
 import type { AppContext } from '../app-context.js';
 import { isNumericResult } from '../compute/numeric-values.js';
-import { runWithin } from '../compute/refusal.js';
-import { computeServices } from '../compute/services.js';
 import { AppError } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
-import { parseInput } from '../http/validate.js';
 import { loadResult, loadVisibleRun } from '../runs/run-service.js';
-import type { WorkerRefusal } from '../runs/worker.js';
 import type { ProductTask } from './product-task.js';
 
 /** Wall-clock limit of one product form in the worker. */
@@ -25,10 +20,9 @@ export async function productFormOf(
   ctx: AppContext,
   actor: Actor,
   runId: string,
-  query: unknown,
+  q: ProductTarget,
 ): Promise<ProductFormDto> {
   const run = await loadVisibleRun(ctx, actor, runId);
-  const q = parseInput(productQuerySchema, query);
   const result = await loadResult(ctx, run);
   if (run.status !== 'done' || !result) {
     throw new AppError(409, 'run_not_done', `The run is ${run.status}; ask a finished run.`);
@@ -61,13 +55,12 @@ export async function productFormOf(
       order: result.spec.order ?? null,
     };
   }
-  const output = (await runWithin(
-    computeServices(ctx).pools.quick,
-    { kind: 'productForm', ...task },
-    PRODUCT_LIMIT_MS,
-    () => new AppError(422, 'too_heavy', `${field}: the product form took too long.`, field),
-  )) as { ok: true; product: SeriesProductJson | GrandProductJson } | WorkerRefusal;
-  if (!output.ok) throw new AppError(400, 'invalid_input', `${field}: ${output.message}.`, field);
+  const output = await ctx.services.tasks.runTask('productForm', task, {
+    timeoutMs: PRODUCT_LIMIT_MS,
+    onTimeout: () =>
+      new AppError(422, 'too_heavy', `${field}: the product form took too long.`, field),
+    refused: (r) => new AppError(400, 'invalid_input', `${field}: ${r.message}.`, field),
+  });
   const base = { runId };
   if (q.of === 'row')
     return { ...base, target: 'row', N: q.N, ...(output.product as SeriesProductJson) };

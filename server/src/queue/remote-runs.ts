@@ -4,7 +4,7 @@ import { Queue, QueueEvents } from 'bullmq';
 import { Redis } from 'ioredis';
 import { runOnPool, type RunMessage } from '../runs/run-on-pool.js';
 import { isSectorSpec } from '../runs/sector-runs.js';
-import type { RunOutput, WorkerRefusal } from '../runs/worker.js';
+import type { RunOutput, WorkerRefusal } from '../compute/tasks.js';
 import { onlyForward, RemoteTaskPool, SECTOR_JOBS_PER_SHELL } from './remote-tasks.js';
 import {
   BLOB_TTL_S,

@@ -1,6 +1,6 @@
 import type { ClassPageData } from '../runs/class-pager.js';
 import type { RunMessage } from '../runs/run-on-pool.js';
-import type { RunOutput, WorkerRefusal } from '../runs/worker.js';
+import type { RunOutput, WorkerRefusal } from '../compute/tasks.js';
 
 /** The BullMQ queue every run job goes through. */
 export const RUN_QUEUE = 'traceloom-runs';

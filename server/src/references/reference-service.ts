@@ -14,8 +14,7 @@ import { canSee, loadVisibleStudy, STUDY_RELATIONS } from '../studies/study-acce
 import { referenceFacts, type ParsedReference, type RowError } from './reference-parse.js';
 import { assertDense } from './reference-density.js';
 import { assertWithinQuota, DEFAULT_REFERENCE_QUOTA } from './reference-quota.js';
-import { computeServices } from '../compute/services.js';
-import type { WorkerAppError } from '../runs/worker.js';
+import { refusalError } from '../compute/run-task.js';
 import { receiveUpload, type Upload } from './receive-upload.js';
 
 function toSummary(table: ReferenceTable): ReferenceSummary {
@@ -51,40 +50,32 @@ async function parseInWorker(
   normalization: string | undefined,
   variable: string,
 ): Promise<ParsedReference> {
-  const signal = AbortSignal.timeout(READ_LIMIT_MS);
-  let output: { ok: true; parsed: ParsedReference } | WorkerAppError;
-  try {
-    output = (await computeServices(ctx).pools.quick.run(
-      {
-        kind: 'reference',
-        ...file,
-        variable,
-        ...(normalization === undefined ? {} : { normalization }),
-      },
-      { signal },
-    )) as typeof output;
-  } catch (err) {
-    if ((err as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
-      throw new AppError(
-        413,
-        'file_too_complex',
-        'file: reading it needed more memory than one upload may use; split the table.',
-        'file',
-      );
-    }
-    if (!signal.aborted) throw err;
-    throw new AppError(
-      400,
-      'invalid_upload',
-      `file: reading it took longer than ${READ_LIMIT_MS / 1000} s.`,
-      'file',
-    );
-  }
-  if (!output.ok) {
-    const { status, code, message, field } = output.appError;
-    throw new AppError(status, code, message, field);
-  }
-  return output.parsed;
+  const { parsed } = await ctx.services.tasks.runTask(
+    'reference',
+    { ...file, variable, ...(normalization === undefined ? {} : { normalization }) },
+    {
+      timeoutMs: READ_LIMIT_MS,
+      onTimeout: () =>
+        new AppError(
+          400,
+          'invalid_upload',
+          `file: reading it took longer than ${READ_LIMIT_MS / 1000} s.`,
+          'file',
+        ),
+      outOfMemory: () =>
+        new AppError(
+          413,
+          'file_too_complex',
+          'file: reading it needed more memory than one upload may use; split the table.',
+          'file',
+        ),
+      refused: (r) =>
+        r.status !== undefined
+          ? refusalError(r)
+          : new AppError(400, 'invalid_upload', `file: ${r.message}.`, 'file'),
+    },
+  );
+  return parsed;
 }
 
 function firstError(errors: RowError[]): never {

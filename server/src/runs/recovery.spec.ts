@@ -1,7 +1,7 @@
 import { rmSync } from 'node:fs';
 import type { DataSource } from 'typeorm';
 import { afterAll, describe, expect, it } from 'vitest';
-import { createApp } from '../app.js';
+import { createApp, type TraceloomApp } from '../app.js';
 import { GasVersion, Run } from '../db/entities/index.js';
 import { openDatabase } from '../db/open-database.js';
 import { createGas } from '../testing/gas-fixtures.js';
@@ -9,8 +9,10 @@ import { createTestApp, insertStudy, insertUser, tokenFor } from '../testing/tes
 import { INTERRUPTED } from './run-executor.js';
 
 let reopened: DataSource | null = null;
+let restarted: TraceloomApp | null = null;
 let dir = '';
 afterAll(async () => {
+  await restarted?.close();
   await reopened?.destroy();
   rmSync(dir, { recursive: true, force: true });
 });
@@ -39,10 +41,11 @@ describe('restart recovery', () => {
     const queued = await row('queued', 0);
     const running = await row('running', 0);
     const retried = await row('running', 1);
+    await t.services.close();
     await t.dataSource.destroy();
 
     reopened = await openDatabase(t.config.databasePath);
-    await createApp({ dataSource: reopened, config: t.config });
+    restarted = await createApp({ dataSource: reopened, config: t.config });
     const runs = reopened.getRepository(Run);
     // One person's runs take one thread at a time (fair share), so the two resumed runs go in turn.
     const until = Date.now() + 90_000;

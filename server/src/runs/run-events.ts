@@ -1,7 +1,6 @@
 import type { Response } from 'express';
 import { In, type DataSource } from 'typeorm';
 import type { AppContext } from '../app-context.js';
-import { computeServices } from '../compute/services.js';
 import { Run, User } from '../db/entities/index.js';
 import { AppError } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
@@ -215,7 +214,7 @@ export async function streamRunEvents(
   runId: string,
   res: Response,
 ): Promise<void> {
-  const { events } = computeServices(ctx);
+  const { events } = ctx.services;
   events.assertRoom(actor); // refused before any database read
   const run = await loadVisibleRun(ctx, actor, runId);
   await events.open(actor, token, run, res);

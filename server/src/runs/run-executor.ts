@@ -32,6 +32,21 @@ function keptPartial(gzip: Uint8Array, progress: Progress | null, error: string)
 /** Reason recorded when a run that was running is found after a restart it was retried for. */
 export const INTERRUPTED = 'interrupted by a server restart';
 
+/** Work that is not a stored run but shares the run threads, their queue and the per-user cap. */
+interface Job {
+  /** Starts the work on a run thread; aborting `signal` must stop it. */
+  start(signal: AbortSignal): Promise<void>;
+  /** Called when the job leaves the queue without starting (cancelled, or the executor stopped). */
+  drop(reason: Error): void;
+}
+
+/** One place in line: a stored run, or a job. */
+interface Queued {
+  runId: string;
+  userId: string;
+  job?: Job;
+}
+
 interface ActiveRun {
   userId: string;
   controller: AbortController;
@@ -52,8 +67,9 @@ interface ActiveRun {
  * interrupted (once; a second interruption fails them with a reason).
  */
 export class RunExecutor {
-  /** Queued runs in arrival order, with the person who queued each. */
-  private readonly queue: Array<{ runId: string; userId: string }> = [];
+  /** Queued runs and jobs in arrival order, with the person who queued each. */
+  private readonly queue: Queued[] = [];
+  private jobCount = 0;
   private readonly active = new Map<string, ActiveRun>();
   private stopped = false;
   private readonly endListeners: Array<
@@ -77,6 +93,64 @@ export class RunExecutor {
   enqueue(runId: string, userId: string): void {
     this.queue.push({ runId, userId });
     this.pump();
+  }
+
+  /**
+   * Runs `work` on a run thread as one of `userId`'s runs: in the same line, fair share and
+   * thread count as stored runs (it counts in `jobsOf`). Aborting `signal` takes it out of the
+   * line, or aborts the signal `work` got when it is running; the promise then rejects with the
+   * signal's reason.
+   */
+  submit<T>(
+    userId: string,
+    work: (signal: AbortSignal) => Promise<T>,
+    signal?: AbortSignal,
+  ): Promise<T> {
+    return new Promise<T>((resolve, reject) => {
+      if (this.stopped) return reject(new Error('the run executor has stopped'));
+      const runId = `job-${++this.jobCount}`;
+      const reason = () =>
+        signal?.reason instanceof Error ? signal.reason : new Error('cancelled');
+      const job: Job = {
+        start: async (jobSignal) => {
+          signal?.removeEventListener('abort', leave);
+          if (signal?.aborted) return reject(reason());
+          const stop = () => this.active.get(runId)?.controller.abort(reason());
+          signal?.addEventListener('abort', stop, { once: true });
+          try {
+            resolve(await work(jobSignal));
+          } catch (err) {
+            reject(err);
+          } finally {
+            signal?.removeEventListener('abort', stop);
+          }
+        },
+        drop: reject,
+      };
+      const leave = () => {
+        const index = this.queue.findIndex((q) => q.runId === runId);
+        if (index >= 0) this.queue.splice(index, 1);
+        job.drop(reason());
+      };
+      signal?.addEventListener('abort', leave, { once: true });
+      this.queue.push({ runId, userId, job });
+      this.pump();
+    });
+  }
+
+  /** Jobs of `userId` queued or running now (they count against the per-user cap with runs). */
+  jobsOf(userId: string): number {
+    let n = 0;
+    for (const q of this.queue) if (q.job && q.userId === userId) n += 1;
+    for (const [id, a] of this.active) if (id.startsWith('job-') && a.userId === userId) n += 1;
+    return n;
+  }
+
+  /** Jobs in line and on a thread now (for tests and the health of the queue). */
+  jobCounts(): { queued: number; running: number } {
+    const queued = this.queue.filter((q) => q.job).length;
+    const running = [...this.active.keys()].filter((id) => id.startsWith('job-')).length;
+    return { queued, running };
   }
 
   /** Worker threads one person's runs may hold at once: always one fewer than there are. */
@@ -116,7 +190,7 @@ export class RunExecutor {
         ...(p?.unit && { unit: p.unit }),
       };
     }
-    const queued = this.queue.some((q) => q.runId === runId);
+    const queued = this.queue.some((q) => q.runId === runId && !q.job);
     return queued ? { status: 'queued', done: 0, total: 0, phase: '' } : null;
   }
 
@@ -146,7 +220,8 @@ export class RunExecutor {
   /** Stops taking work and terminates the pools (running runs stay `running` for recovery). */
   async stop(): Promise<void> {
     this.stopped = true;
-    this.queue.length = 0;
+    for (const q of this.queue.splice(0)) q.job?.drop(new Error('the run executor has stopped'));
+    for (const [id, a] of this.active) if (id.startsWith('job-')) a.controller.abort();
     await this.ready;
     await this.remote?.close();
     await this.pools.destroy();
@@ -195,7 +270,7 @@ export class RunExecutor {
    * Fair share: the next run is the oldest queued run of the person with the fewest runs on a
    * thread now, among those below `threadsPerUser`; null when nobody may start one.
    */
-  private next(): { runId: string; userId: string } | null {
+  private next(): Queued | null {
     const running = new Map<string, number>();
     for (const { userId } of this.active.values())
       running.set(userId, (running.get(userId) ?? 0) + 1);
@@ -212,7 +287,7 @@ export class RunExecutor {
     while (!this.stopped && this.active.size < this.capacity) {
       const picked = this.next();
       if (!picked) break;
-      const { runId, userId } = picked;
+      const { runId, userId, job } = picked;
       const run: ActiveRun = {
         userId,
         controller: new AbortController(),
@@ -222,7 +297,8 @@ export class RunExecutor {
         partial: null,
       };
       this.active.set(runId, run);
-      this.execute(runId, run)
+      const work = job ? job.start(run.controller.signal) : this.execute(runId, run);
+      work
         .catch((err: unknown) => this.log(err))
         .finally(() => {
           this.active.delete(runId);

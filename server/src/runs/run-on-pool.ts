@@ -2,7 +2,8 @@ import { MessageChannel } from 'node:worker_threads';
 import type { Progress } from '@traceloom/shared/engine';
 import type { ClassPageData } from './class-pager.js';
 import { isSectorSpec, runSectorsOnPool, type TaskPool } from './sector-runs.js';
-import type { RunOutput, WorkerRefusal } from './worker.js';
+import { poolTask } from '../compute/run-task.js';
+import type { RunOutput, WorkerRefusal } from '../compute/tasks.js';
 
 /** What a run reports while it computes: progress, its start, the cheap routes' result, pages. */
 export type RunMessage =
@@ -36,20 +37,20 @@ export async function runOnPool(
     const output = await runSectorsOnPool(pool, threads, spec, signal, forward);
     if (!output.ok) return output;
     // A result assembled from sectors still holds its class rows: page them now.
-    const paged = (await pool.run({ kind: 'pageResult', gzip: output.gzip }, { signal })) as {
-      gzip: Uint8Array;
-      pages: ClassPageData[];
-    };
+    const paged = await poolTask(pool, 'pageResult', { gzip: output.gzip }, { signal });
+    if (!paged.ok) return paged;
     for (const page of paged.pages) forward({ page });
     return { ...output, gzip: paged.gzip, pages: paged.pages.length };
   }
   const channel = new MessageChannel();
   channel.port1.on('message', forward);
   try {
-    const output = (await pool.run(
-      { kind: 'run', spec, port: channel.port2 },
+    const output = await poolTask(
+      pool,
+      'run',
+      { spec, port: channel.port2 },
       { transferList: [channel.port2], signal },
-    )) as RunOutput | WorkerRefusal;
+    );
     // The pages travel on their own port: wait for the last ones before closing it.
     if (output.ok && output.pages !== undefined && pagesSeen < output.pages) {
       const expected = output.pages;

@@ -5,7 +5,6 @@ import { In } from 'typeorm';
 import type { AppContext } from '../app-context.js';
 import { recordAudit } from '../audit/record-audit.js';
 import { assertRunFits, estimateSpec } from '../compute/run-estimate.js';
-import { computeServices } from '../compute/services.js';
 import { Run, RunClassPage } from '../db/entities/index.js';
 import { assertCanChangeGas, loadVisibleGas } from '../gases/gas-access.js';
 import { specOf } from '../gases/gas-dto.js';
@@ -90,7 +89,7 @@ export async function startRun(
   gasId: string,
   input: { version?: number | undefined },
 ): Promise<{ id: string; status: 'queued'; warnings: string[]; estimate: RunEstimate }> {
-  const { executor } = computeServices(ctx);
+  const { executor } = ctx.services;
   // estimate before storing anything: refuse a class table that cannot fit, warn on the order
   const judged = await estimateVersion(ctx, actor, gasId, input.version);
   assertRunFits(judged);
@@ -102,10 +101,10 @@ export async function startRun(
     const version = gas.versions.find((v) => v.version === wanted);
     if (!version) throw notFound('That version of the gas', 'version');
     const repo = manager.getRepository(Run);
-    const open = await repo.countBy({
-      createdBy: { id: actor.id },
-      status: In([...ACTIVE_STATUSES]),
-    });
+    // verifications waiting for or holding a run thread count as runs
+    const open =
+      (await repo.countBy({ createdBy: { id: actor.id }, status: In([...ACTIVE_STATUSES]) })) +
+      executor.jobsOf(actor.id);
     const cap = ctx.config.runs.perUserCap;
     if (open >= cap) {
       throw new AppError(
@@ -158,7 +157,7 @@ export async function listRuns(
   gasId: string,
 ): Promise<RunSummary[]> {
   await loadVisibleGas(ctx.dataSource.manager, actor, gasId);
-  const { executor } = computeServices(ctx);
+  const { executor } = ctx.services;
   const runs = await ctx.dataSource.getRepository(Run).find({
     where: { gas: { id: gasId } },
     select: SUMMARY_COLUMNS,
@@ -196,7 +195,7 @@ export async function getRun(
   }
   const run = await loadVisibleRun(ctx, actor, runId);
   const dto: Omit<RunDto, 'result'> = {
-    ...toRunSummary(run, computeServices(ctx).executor.progressOf(run.id)),
+    ...toRunSummary(run, ctx.services.executor.progressOf(run.id)),
     studyId: run.gas.study.id,
     spec: specOf(run.gasVersion),
   };
@@ -242,7 +241,7 @@ async function classPageCounts(ctx: AppContext, runId: string): Promise<Record<s
 export async function cancelRun(ctx: AppContext, actor: Actor, runId: string): Promise<RunSummary> {
   const run = await loadVisibleRun(ctx, actor, runId);
   assertCanChangeGas(actor);
-  const { executor } = computeServices(ctx);
+  const { executor } = ctx.services;
   const now = new Date().toISOString();
   const changed = await ctx.dataSource.transaction(async (manager) => {
     const update = await manager.getRepository(Run).update(

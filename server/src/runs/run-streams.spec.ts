@@ -3,7 +3,6 @@ import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { signToken } from '../auth/tokens.js';
-import { computeServices } from '../compute/services.js';
 import { DEFAULT_CONFIG } from '../config.js';
 import type { User } from '../db/entities/index.js';
 import { bearer, createGas, RUNAWAY_SPEC, startRun, waitForRun } from '../testing/gas-fixtures.js';
@@ -94,7 +93,7 @@ describe('run event streams', () => {
   });
 
   it(`caps streams at ${PER_USER} per person and ${TOTAL} in all, with one publisher per run, while health stays fast`, async () => {
-    const { events } = computeServices({ dataSource: t.dataSource, config: t.config } as never);
+    const { events } = t.services;
     const reviewerToken = await tokenFor(t, reviewer);
     // The finding: 1,000 streams from one reviewer. Now 8 open and the rest are refused at once.
     const opened: OpenStream[] = [];

@@ -12,7 +12,8 @@ import {
 } from '@traceloom/shared/engine';
 import Fraction from 'fraction.js';
 import type { Piscina } from 'piscina';
-import type { RunOutput, WorkerRefusal } from './worker.js';
+import { poolTask } from '../compute/run-task.js';
+import type { RunOutput, WorkerRefusal } from '../compute/tasks.js';
 
 /** Sectors one pool task computes at most (several tasks per shell keep every thread busy). */
 const CHUNK = 16;
@@ -92,8 +93,7 @@ export async function runSectorsOnPool(
     for (let list = walk.next(); list !== null; list = walk.next()) {
       const answers = await Promise.all(
         chunks(list, threads).map(async (sectors) => {
-          const r = (await pool.run({ kind: 'sectorParts', spec, sectors }, { signal })) as
-            { ok: true; parts: PartData[] } | WorkerRefusal;
+          const r = await poolTask(pool, 'sectorParts', { spec, sectors }, { signal });
           if (r.ok)
             onMessage({ phase: 'sectors', done: (done += r.parts.length), total: walk.total });
           return r;
@@ -112,16 +112,17 @@ export async function runSectorsOnPool(
   const channel = new MessageChannel();
   channel.port1.on('message', (p: Progress) => onMessage(p));
   try {
-    return (await pool.run(
+    return await poolTask(
+      pool,
+      'sectorAssemble',
       {
-        kind: 'sectorAssemble',
         spec,
-        shells,
+        shells: shells as SectorPartData[][],
         sectorsMs: performance.now() - t0,
         port: channel.port2,
       },
       { transferList: [channel.port2], signal },
-    )) as RunOutput | WorkerRefusal;
+    );
   } finally {
     channel.port1.close();
   }

@@ -22,14 +22,12 @@ import Fraction from 'fraction.js';
 
 /** Compute some sectors of a gas (one worker's share of a shell). */
 export interface SectorPartsTask {
-  kind: 'sectorParts';
   spec: unknown;
   sectors: number[][];
 }
 
 /** Sum the computed shells into the result (checks, class table, breakdown). */
 export interface SectorAssembleTask {
-  kind: 'sectorAssemble';
   spec: unknown;
   /** Series parts as SectorPartData, numeric parts (spec with `precision`) as NumericSectorPart. */
   shells: SectorPartData[][] | NumericSectorPart[][];

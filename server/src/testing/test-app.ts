@@ -5,6 +5,7 @@ import type { Role } from '@traceloom/shared/api';
 import type { Express } from 'express';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../app.js';
+import type { AppServices } from '../app-services.js';
 import { hashPassword } from '../auth/password.js';
 import { keysFromFile } from '../auth/token-keys.js';
 import { signToken } from '../auth/tokens.js';
@@ -24,6 +25,8 @@ export const TEST_PASSWORD = 'correct horse battery staple';
 /** A running test app over its own temporary SQLite file. */
 export interface TestApp {
   app: Express;
+  /** The app's services (pools, executor, mailer), closed by `close()`. */
+  services: AppServices;
   dataSource: DataSource;
   config: ServerConfig;
   dir: string;
@@ -46,13 +49,15 @@ export async function createTestApp(
     ...overrides,
   };
   const dataSource = await openDatabase(config.databasePath);
-  const app = await createApp({ dataSource, config, log });
+  const built = await createApp({ dataSource, config, log });
   return {
-    app,
+    app: built.app,
+    services: built.services,
     dataSource,
     config,
     dir,
     async close() {
+      await built.close();
       await dataSource.destroy();
       rmSync(dir, { recursive: true, force: true });
     },

@@ -14,7 +14,7 @@ import { AppError, notFound } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { invitationMail } from '../datasets/dataset-mails.js';
 import { invitationKey } from '../mail/invitation-keys.js';
-import { mailServices, mailUsers } from '../mail/mailer.js';
+import { mailUsers } from '../mail/mailer.js';
 import { toDirectoryEntry, toUserDto } from './user-dto.js';
 
 /** Every user, oldest first (admin view). */
@@ -84,7 +84,7 @@ export async function inviteUser(
     .catch((err: unknown) => {
       throw isUniqueViolation(err) ? emailTaken() : err;
     });
-  const link = `${mailServices(ctx).baseUrl}/welcome/${invitationKey(ctx, answer.invitation.id)}`;
+  const link = `${ctx.services.mail.baseUrl}/welcome/${invitationKey(ctx, answer.invitation.id)}`;
   await mailUsers(
     ctx,
     [answer.user.id],
