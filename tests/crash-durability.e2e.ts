@@ -61,6 +61,7 @@ async function start(): Promise<{ child: ChildProcess; baseUrl: string }> {
   return { child, baseUrl };
 }
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- each test reads the answer it asked for
 async function json(url: string, init: RequestInit = {}): Promise<{ status: number; body: any }> {
   const res = await fetch(url, {
     ...init,

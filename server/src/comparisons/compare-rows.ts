@@ -1,9 +1,4 @@
-import type {
-  NumericRowVerdictDto,
-  ReferenceRow,
-  RowVerdictDto,
-  SeriesRowVerdictDto,
-} from '@traceloom/shared/api';
+import type { NumericRowVerdictDto, ReferenceRow, RowVerdictDto } from '@traceloom/shared/api';
 import Fraction from 'fraction.js';
 import {
   compareReferenceRows,

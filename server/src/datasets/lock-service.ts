@@ -7,14 +7,8 @@ import { Dataset } from '../db/entities/index.js';
 import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { mailUsers } from '../mail/mailer.js';
-import {
-  datasetLocked,
-  isLockTrigger,
-  loadVisibleDataset,
-  loadWritableDataset,
-  withBytes,
-} from './dataset-access.js';
-import { buildDocument, canonicalHash, sha256Hex } from './dataset-document.js';
+import { datasetLocked, isLockTrigger, loadWritableDataset, withBytes } from './dataset-access.js';
+import { buildDocument, canonicalHash } from './dataset-document.js';
 import { loadView } from './dataset-view.js';
 import {
   APPROVER_CANNOT_LOCK,

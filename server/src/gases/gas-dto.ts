@@ -1,5 +1,5 @@
 import type { GasDto, GasSpec, GasVersionDto, PersonRef } from '@traceloom/shared/api';
-import type { Gas, GasVersion, Run, User } from '../db/entities/index.js';
+import type { Gas, GasVersion, User } from '../db/entities/index.js';
 
 /** `{id, displayName}` of a loaded user. */
 export function personRef(user: Pick<User, 'id' | 'displayName'>): PersonRef {

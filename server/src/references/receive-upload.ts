@@ -18,6 +18,7 @@ function megabytes(bytes: number): string {
  */
 export function safeFilename(name: string): string {
   const cleaned = name
+    // eslint-disable-next-line no-control-regex -- control characters are what this removes
     .replace(/[\u0000-\u001f\u007f]+/g, ' ')
     .replace(/[<>"'`&\\/]/g, '_')
     .replace(/\s+/g, ' ')

@@ -2,14 +2,7 @@ import type { Server } from 'node:http';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { User } from '../db/entities/index.js';
-import {
-  bearer,
-  createGas,
-  RUNAWAY_SPEC,
-  startRun,
-  TRAP_SPEC,
-  waitForRun,
-} from '../testing/gas-fixtures.js';
+import { bearer, createGas, RUNAWAY_SPEC, startRun, waitForRun } from '../testing/gas-fixtures.js';
 import { p99, sseReader } from '../testing/load-helpers.js';
 import {
   createTestApp,

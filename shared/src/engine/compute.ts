@@ -6,7 +6,6 @@ import { newtonRecursion } from './canonical/recursion.js';
 import { runLargeN, runTableChecks, tagged } from './checks/table-checks.js';
 import { EngineCancelled } from './errors.js';
 import { computeSectors } from './sectors/compute-sectors.js';
-import type { Truncation } from './expr/evaluate.js';
 import type { ComputeOptions, ComputeResult, Progress } from './result.js';
 import { toValueJson } from './series/format.js';
 import type { Series } from './series/series.js';

@@ -1,10 +1,4 @@
-import {
-  compute,
-  largeNAnalysis,
-  newtonRecursion,
-  cycleWeights,
-  parseGasSpec,
-} from '../engine/index.js';
+import { largeNAnalysis, newtonRecursion, cycleWeights, parseGasSpec } from '../engine/index.js';
 import Fraction from 'fraction.js';
 import { describe, expect, it } from 'vitest';
 import { largeNTableLines } from './largen-text.js';

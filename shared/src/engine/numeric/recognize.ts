@@ -177,7 +177,10 @@ function parse(text: string): Node {
     if (peek() !== '(') return { k: 'id', v: t };
     take('(');
     const args = [expr()];
-    while (peek() === ',') (take(), args.push(expr()));
+    while (peek() === ',') {
+      take();
+      args.push(expr());
+    }
     take(')');
     return { k: 'call', f: t, args };
   };

@@ -4,7 +4,6 @@ import { TestBed } from '@angular/core/testing';
 import { Router } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { ApiError } from './api-error';
-import { apiInterceptor } from './api-interceptor';
 import { Session } from './session';
 import { signInAs, testProviders } from './session-testing';
 

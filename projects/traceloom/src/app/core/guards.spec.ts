@@ -1,11 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import {
-  ActivatedRouteSnapshot,
-  Router,
-  RouterStateSnapshot,
-  UrlTree,
-  provideRouter,
-} from '@angular/router';
+import { ActivatedRouteSnapshot, Router, RouterStateSnapshot, UrlTree } from '@angular/router';
 import { Role } from '@traceloom/shared/api';
 import { roleGuard, signedInGuard } from './guards';
 import { signInAs, testProviders } from './session-testing';

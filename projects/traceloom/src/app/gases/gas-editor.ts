@@ -115,7 +115,7 @@ export class GasEditor {
       if (id) this.load(id);
       else
         queueMicrotask(() => {
-          this.restoreDraft(null);
+          this.restoreDraft();
           this.validate();
         });
     });
@@ -157,7 +157,7 @@ export class GasEditor {
   }
 
   /** Puts a stored draft into the form (after the saved gas, if any, was filled in). */
-  private restoreDraft(gas: GasDto | null): void {
+  private restoreDraft(): void {
     const draft = readDraft(this.draftKey());
     if (!draft || this.readOnly()) return;
     fillGasForm(this.form, draft.spec);
@@ -254,7 +254,7 @@ export class GasEditor {
         this.viewedVersion.set(null);
         fillGasForm(this.form, gas.spec);
         this.form.markAsPristine();
-        this.restoreDraft(gas);
+        this.restoreDraft();
         if ((history.state as { showRuns?: boolean } | null)?.showRuns) this.showRuns();
       },
       error: (err: unknown) => {

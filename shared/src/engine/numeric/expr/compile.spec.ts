@@ -6,7 +6,6 @@ import {
   expectSame,
   hasMpmath,
   mpmath,
-  NO_MPMATH,
   py,
 } from '../special/mpmath-reference.test.js';
 import { compileNumeric, evaluateNumeric, freeSymbols } from './compile.js';

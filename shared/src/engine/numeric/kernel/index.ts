@@ -134,7 +134,7 @@ export function kernelTraces(
   let { family, tail } = makeFamily(tol);
 
   // provisional pass at the coarsest level: sizes of the Z's choose the working bits and the cut
-  let m = opts.resolution ?? initialResolution(D, family);
+  const m = opts.resolution ?? initialResolution(D, family);
   let F = bitsFor(D, 32) + 2 * Math.ceil(Math.log2(4 * m + 8));
   let cache = new Map<string, Real>();
   let arithmetic: Arithmetic = 'fixed';
