@@ -25,6 +25,9 @@ import {
 /** How often the server looks at the state of a job it waits for. */
 const POLL_MS = 250;
 
+/** How far back the server's first read of the queue's event stream starts (see the constructor). */
+const EVENT_REPLAY_MS = 60_000;
+
 /** A finished job is kept this long in Redis, so a server that was down can still read it. */
 const KEEP_S = 24 * 3600;
 
@@ -78,7 +81,14 @@ export class RemoteRuns {
   ) {
     this.connection = redisConnection(url);
     this.queue = new Queue(RUN_QUEUE, { connection: this.connection });
-    this.events = new QueueEvents(RUN_QUEUE, { connection: redisConnection(url) });
+    // Read the event stream from a little before now, not from '$': the client is made on the
+    // first run (lazyRemoteRuns) and a job added before its first read would lose its first
+    // reports ('started' starts the wall-clock limit). Replayed events of older jobs find no
+    // listener; the slack covers a clock difference between this machine and Redis's.
+    this.events = new QueueEvents(RUN_QUEUE, {
+      connection: redisConnection(url),
+      lastEventId: `${Date.now() - EVENT_REPLAY_MS}-0`,
+    });
     this.events.on('progress', ({ jobId, data }) =>
       this.listeners.get(jobId)?.(data as WireMessage),
     );
