@@ -111,6 +111,12 @@ describe.skipIf(!available)('a sector run split into task jobs over two workers'
     }
     const mid = await s.t.dataSource.getRepository(Run).findOneByOrFail({ id: runId });
     expect(mid.status).toBe('running');
+    // kill just after it took a further job, so that it dies holding one (killed between two
+    // jobs it would hold none, and there would be nothing to take again)
+    const held = taskJobs(workers[0]!, runId).length;
+    while (Date.now() < until && taskJobs(workers[0]!, runId).length === held) {
+      await new Promise((r) => setTimeout(r, 2));
+    }
     await workers[0]!.stop();
     const killedAt = Date.now();
     const run = await waitForRun(s.t, runId, undefined, 150_000);
