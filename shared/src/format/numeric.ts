@@ -3,11 +3,10 @@
  * without the engine. `real` holds only determined digits; the screens never add one.
  */
 
+import type { NumericValueJson } from '../engine/numeric/estimate.js';
+
 /** A numeric value: determined digits in `real` ("0" when none), estimated absolute `error`. */
-export interface NumericValueJson {
-  real: string;
-  error: string;
-}
+export type { NumericValueJson };
 
 /** The route names of a numeric canonical row. */
 export type NumericRoute = 'recursion' | 'fredholm' | 'product' | 'classSum';

@@ -7,15 +7,13 @@ export interface Estimate {
   error: number;
 }
 
-/** A numeric value in the result format: only determined digits, and the error estimate. */
+/**
+ * A numeric value in the result format: only determined digits, and the error estimate (the one
+ * declaration; `@traceloom/shared/format` re-exports it, and its `isNumericValue` tells it apart).
+ */
 export interface NumericValueJson {
   real: string;
   error: string;
-}
-
-/** True for the numeric value form `{real, error}` (as opposed to a series `{order, terms}`). */
-export function isNumericValueJson(v: unknown): v is NumericValueJson {
-  return typeof v === 'object' && v !== null && 'real' in v && 'error' in v;
 }
 
 /** |x| as a float64 (0 below the float64 range). */
