@@ -1,5 +1,5 @@
 import type { DataSource } from 'typeorm';
-import { createWorkerPools, type WorkerPools } from './compute/pools.js';
+import { createWorkerPools, poolHeapMb, type WorkerPools } from './compute/pools.js';
 import { TaskRunner } from './compute/run-task.js';
 import type { ServerConfig } from './config.js';
 import { Mailer } from './mail/mailer.js';
@@ -64,7 +64,7 @@ export function createServices(
   let closing: Promise<void> | null = null;
   return {
     pools,
-    tasks: new TaskRunner(pools),
+    tasks: new TaskRunner(pools, poolHeapMb(config.runs)),
     executor,
     events,
     mail,

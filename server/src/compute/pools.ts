@@ -52,6 +52,16 @@ export function createRunPool(limits: Pick<RunLimits, 'threads' | 'maxOldGenerat
 /** Which pool a task kind runs on. */
 export type PoolName = 'runs' | 'quick' | 'probe';
 
+/** The heap limit (MB) of a quick or probe thread; run threads take `maxOldGenerationSizeMb`. */
+export const SMALL_HEAP_MB = 256;
+
+/** Each pool's heap limit per thread, in MB (what an out-of-memory message names). */
+export function poolHeapMb(
+  limits: Pick<RunLimits, 'maxOldGenerationSizeMb'>,
+): Record<PoolName, number> {
+  return { runs: limits.maxOldGenerationSizeMb, quick: SMALL_HEAP_MB, probe: SMALL_HEAP_MB };
+}
+
 /**
  * Builds the pools lazily: a pool's threads start the first time a task needs it, so an app
  * that never computes starts no thread (`started` says which pools exist). Each run gets a
@@ -68,7 +78,7 @@ export function createWorkerPools(limits: RunLimits): WorkerPools {
         minThreads: 1,
         maxThreads: 2,
         idleTimeout: 60_000,
-        resourceLimits: { maxOldGenerationSizeMb: 256 },
+        resourceLimits: { maxOldGenerationSizeMb: SMALL_HEAP_MB },
       }),
     probe: () =>
       new Piscina({
@@ -76,7 +86,7 @@ export function createWorkerPools(limits: RunLimits): WorkerPools {
         minThreads: 1,
         maxThreads: 1,
         idleTimeout: 60_000,
-        resourceLimits: { maxOldGenerationSizeMb: 256 },
+        resourceLimits: { maxOldGenerationSizeMb: SMALL_HEAP_MB },
       }),
   };
   const made = new Map<PoolName, Piscina>();

@@ -74,7 +74,11 @@ export async function poolTask<K extends TaskKind>(
 
 /** Runs tasks on the app's pools; owns their abort, wall-clock limit and error mapping. */
 export class TaskRunner {
-  constructor(private readonly pools: WorkerPools) {}
+  /** `heapMb`: each pool's heap limit per thread, named in an out-of-memory message. */
+  constructor(
+    private readonly pools: Pick<WorkerPools, PoolName>,
+    private readonly heapMb: Partial<Record<PoolName, number>> = {},
+  ) {}
 
   /**
    * Runs a task of `kind` on its pool (`POOL_OF`) and answers its output; throws the API error
@@ -96,7 +100,8 @@ export class TaskRunner {
     input: TaskInput<K>,
     options: TaskOptions = {},
   ): Promise<TaskResult<K>> {
-    const pool = this.pools[POOL_OF[kind]];
+    const poolName = POOL_OF[kind];
+    const pool = this.pools[poolName];
     const controller = new AbortController();
     const { signal, timeoutMs } = options;
     let timer: NodeJS.Timeout | undefined;
@@ -125,7 +130,7 @@ export class TaskRunner {
       return await Promise.race([work, stopped]);
     } catch (err) {
       if ((err as { code?: unknown }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
-        throw options.outOfMemory?.() ?? outOfMemory();
+        throw options.outOfMemory?.() ?? outOfMemory(this.heapMb[poolName]);
       }
       throw err;
     } finally {
@@ -139,11 +144,18 @@ function tooHeavy(ms: number): AppError {
   return new AppError(422, 'too_heavy', `This took longer than its limit of ${ms / 1000} s.`);
 }
 
-function outOfMemory(): AppError {
+/**
+ * The error for a worker that hit its heap limit (`ERR_WORKER_OUT_OF_MEMORY`): says so, names
+ * the limit when it is known and what to ask for less of.
+ */
+export function outOfMemory(limitMb?: number): AppError {
+  const limit =
+    limitMb === undefined ? '' : ` (the limit is ${limitMb} MB per task on this server)`;
   return new AppError(
     422,
     'cannot_compute',
-    'The computation needed more memory than one task may use.',
+    `The computation ran out of memory${limit}: ask for less — a smaller N_max, a lower order, ` +
+      'a smaller class table or fewer rows.',
   );
 }
 
