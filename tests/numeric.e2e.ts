@@ -95,6 +95,14 @@ describe('numeric mode in the browser', () => {
     expect(await digits(page, 1)).toMatch(/^250{18}$/);
     expect((await digits(page, 2)).slice(0, 18)).toBe('198943678864869169');
     expect((await digits(page, 3)).slice(0, 17)).toBe('70422408513481227');
+    // every determined digit is on the screen: no value cell is cut short (an ellipsis would hide
+    // digits that were determined)
+    const cut = await page.evaluate(() =>
+      Array.from(document.querySelectorAll('[data-testid^="canonical-digits-"]'))
+        .filter((el) => el.scrollWidth > el.clientWidth + 1)
+        .map((el) => (el.textContent ?? '').trim()),
+    );
+    expect(cut).toEqual([]);
     expect(await page.getByTestId('canonical-recognized-2').innerText()).toMatch(/16/);
     expect(await page.getByTestId('canonical-recognized-3').innerText()).toMatch(/64/);
     await page.getByTestId('canonical-expand-3').click();

@@ -33,6 +33,9 @@ const VISIBLE_ROWS = 12;
  * (the CDK table renders only the rows in view). A row expands to the full series, typeset and as
  * copyable plain text.
  */
+/** Values up to this many characters (about 35 digits in groups of five) stay on one line. */
+const ONE_LINE_DIGITS = 48;
+
 @Component({
   selector: 'tl-canonical-table',
   imports: [
@@ -85,6 +88,21 @@ export class CanonicalTable {
     return () => canonicalMatrix(lines, this.variable(), step) ?? '';
   });
   protected readonly numeric = computed(() => isNumericTable(this.rows()));
+  /**
+   * The digits column's width: the table lays out fixed (its header row sets the widths), so the
+   * header asks for the longest one-line value in monospace ch plus the cell padding; without it
+   * Material's cells cut the value with an ellipsis and determined digits would not be shown.
+   */
+  protected readonly digitsWidth = computed(() => {
+    const longest = Math.max(
+      0,
+      ...this.lines()
+        .map((line) => line.digits.length)
+        .filter((n) => n <= ONE_LINE_DIGITS),
+    );
+    return longest > 0 ? `calc(${longest + 1}ch + 32px)` : null;
+  });
+  protected readonly oneLineDigits = ONE_LINE_DIGITS;
   protected readonly columns = computed(() => {
     const sectors = hasSectorCounts(this.lines()) ? ['sectors'] : [];
     return this.numeric()

@@ -43,6 +43,10 @@ export function numericInfo(result: unknown): NumericInfoJson | null {
       align-items: flex-start;
       margin: 0;
     }
+    /* a long caution must not squeeze the icon to nothing */
+    mat-icon {
+      flex: none;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
