@@ -40,6 +40,12 @@ export class DatasetAuthors {
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
   /** The list being edited; starts from the dataset's authors each time they change. */
+  /** The two move buttons of an author row, up then down. */
+  protected readonly moves = [
+    { by: -1, word: 'up', icon: 'arrow_upward' },
+    { by: 1, word: 'down', icon: 'arrow_downward' },
+  ] as const;
+
   protected readonly draft = linkedSignal<DatasetPersonDto[]>(() => [...this.dataset().authors]);
 
   /** Study people not yet in the list. */
