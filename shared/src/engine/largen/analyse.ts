@@ -41,7 +41,9 @@ function stabilizationFit(
       `fitted on rows ${fit.fittedOn.join(', ')}, verified on ${fit.verifiedOn.join(', ')}` +
       (skipped.length ? `; rows ${skipped.join(', ')} do not follow it` : '') +
       (bounds.length
-        ? `; rows ${bounds.join(', ')} agree with the limit on all of its known range (consistent)`
+        ? bounds.length === 1
+          ? `; row ${bounds[0]} agrees with the limit on all of its known range (consistent)`
+          : `; rows ${bounds.join(', ')} agree with the limit on all of their known range (consistent)`
         : '');
     const json: FitJson = {
       expression: polyText(fit.coeffs),

@@ -60,7 +60,7 @@ export const TRAP_LARGE_N: LargeNJson = {
       stabilizationFit: 'N + 1',
       stabilizationDetail: { expression: 'N + 1', fittedOn: [1, 2], verifiedOn: [3, 4] },
       stabilizationNote:
-        'fitted on rows 1, 2, verified on 3, 4; rows 5, 6 agree with the limit on all of its known range (consistent)',
+        'fitted on rows 1, 2, verified on 3, 4; rows 5, 6 agree with the limit on all of their known range (consistent)',
       correctionTerms: [
         {
           N: 1,
