@@ -1,4 +1,4 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, httpResource, type HttpResourceRef } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import type {
@@ -44,6 +44,20 @@ export class ChecksApi {
 
   reference(id: string): Observable<ReferenceDto> {
     return this.http.get<ReferenceDto>(`/api/references/${encodeURIComponent(id)}`);
+  }
+
+  /** The reference table with id `id()` as a resource (call in an injection context). */
+  referenceResource(id: () => string): HttpResourceRef<ReferenceDto | undefined> {
+    return httpResource<ReferenceDto>(() => `/api/references/${encodeURIComponent(id())}`);
+  }
+
+  /** Every comparison of the reference table `id()` with a run, as a resource. */
+  referenceComparisonsResource(
+    id: () => string,
+  ): HttpResourceRef<ReferenceComparisonDto[] | undefined> {
+    return httpResource<ReferenceComparisonDto[]>(
+      () => `/api/references/${encodeURIComponent(id())}/comparisons`,
+    );
   }
 
   update(id: string, patch: ReferencePatch): Observable<ReferenceDto> {

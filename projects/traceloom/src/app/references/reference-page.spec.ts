@@ -51,6 +51,8 @@ async function open(role: 'author' | 'reviewer', dto: ReferenceDto) {
   TestBed.tick();
   http.expectOne(`/api/references/${ID}`).flush(dto);
   http.expectOne(`/api/references/${ID}/comparisons`).flush([COMPARISON]);
+  // the resources hand their answers on in a microtask
+  await Promise.resolve();
   TestBed.tick();
   http.expectOne(`/api/studies/${STUDY}`).flush({ title: 'Trap study' });
   http

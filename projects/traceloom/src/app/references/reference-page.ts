@@ -19,6 +19,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
+import { rxResource } from '@angular/core/rxjs-interop';
 import { Router, RouterLink } from '@angular/router';
 import { forkJoin, map, of, switchMap, filter } from 'rxjs';
 import { messageOf } from '../core/api-error';
@@ -28,6 +29,7 @@ import { Session } from '../core/session';
 import { GasesApi } from '../gases/gases-api';
 import { canWriteGases } from '../core/gas-roles';
 import { RunsApi } from '../runs/runs-api';
+import { AsyncState } from '../shared/async-state';
 import { StudyCrumb } from '../shared/study-crumb';
 import { ChecksApi, ReferenceComparisonDto, ReferenceDto } from '../checks/checks-api';
 
@@ -47,6 +49,7 @@ const PLAIN_ROWS = 40;
 @Component({
   selector: 'tl-reference-page',
   imports: [
+    AsyncState,
     SyntaxLink,
     DatePipe,
     MatButtonModule,
@@ -75,13 +78,32 @@ export class ReferencePage {
 
   readonly referenceId = input.required<string>();
 
-  protected readonly table = signal<ReferenceDto | null>(null);
-  protected readonly loadError = signal<string | null>(null);
-  protected readonly comparisons = signal<ReferenceComparisonDto[] | null>(null);
-  protected readonly runChoices = signal<RunChoice[] | null>(null);
+  protected readonly reference = this.api.referenceResource(() => this.referenceId());
+  protected readonly table = computed<ReferenceDto | null>(() =>
+    this.reference.hasValue() ? this.reference.value() : null,
+  );
+  protected readonly comparisonList = this.api.referenceComparisonsResource(() =>
+    this.referenceId(),
+  );
+  protected readonly comparisons = computed<ReferenceComparisonDto[] | null>(() =>
+    this.comparisonList.hasValue() ? this.comparisonList.value() : null,
+  );
+  /** Every finished run of every gas of the study, newest first (re-read when the study changes). */
+  protected readonly runList = rxResource({
+    params: () => this.table()?.studyId,
+    stream: ({ params: studyId }) => this.finishedRuns(studyId),
+  });
+  protected readonly runChoices = computed<RunChoice[] | null>(() =>
+    this.runList.hasValue() ? this.runList.value() : null,
+  );
   protected readonly chosenRun = signal<string | null>(null);
   protected readonly comparing = signal(false);
-  protected readonly compareError = signal<string | null>(null);
+  private readonly actionError = signal<string | null>(null);
+  /** A failed comparison, or a failed read of the comparisons or of the runs to choose from. */
+  protected readonly compareError = computed(() => {
+    const err = this.comparisonList.error() ?? this.runList.error();
+    return this.actionError() ?? (err ? messageOf(err) : null);
+  });
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   protected readonly long = computed(() => (this.table()?.rows.length ?? 0) > PLAIN_ROWS);
@@ -99,65 +121,47 @@ export class ReferencePage {
   });
 
   constructor() {
-    effect(() => this.load(this.referenceId()));
-  }
-
-  private load(id: string): void {
-    this.loadError.set(null);
-    this.api.reference(id).subscribe({
-      next: (table) => {
-        this.table.set(table);
+    effect(() => {
+      const table = this.table();
+      if (table)
         this.form.reset({
           title: table.title,
           normalization: table.normalization,
           note: table.note ?? '',
         });
-        this.loadRuns(table.studyId);
-      },
-      error: (err: unknown) => this.loadError.set(messageOf(err)),
-    });
-    this.loadComparisons(id);
-  }
-
-  private loadComparisons(id: string): void {
-    this.api.referenceComparisons(id).subscribe({
-      next: (list) => this.comparisons.set(list),
-      error: (err: unknown) => this.compareError.set(messageOf(err)),
     });
   }
 
-  /** Every finished run of every gas of the study, newest first. */
-  private loadRuns(studyId: string): void {
-    this.gases
-      .list(studyId)
-      .pipe(
-        switchMap((gases) =>
-          gases.length === 0
-            ? of([])
-            : forkJoin(
-                gases.map((g) =>
-                  this.runs.list(g.id).pipe(
-                    map((runs) =>
-                      runs
-                        .filter((r) => r.status === 'done')
-                        .map((r) => ({
-                          id: r.id,
-                          at: r.finishedAt ?? r.createdAt,
-                          label: `${g.title}, version ${r.gasVersion}, finished ${new Date(
-                            r.finishedAt ?? r.createdAt,
-                          ).toLocaleString()}`,
-                        })),
-                    ),
+  private finishedRuns(studyId: string) {
+    return this.gases.list(studyId).pipe(
+      switchMap((gases) =>
+        gases.length === 0
+          ? of([])
+          : forkJoin(
+              gases.map((g) =>
+                this.runs.list(g.id).pipe(
+                  map((runs) =>
+                    runs
+                      .filter((r) => r.status === 'done')
+                      .map((r) => ({
+                        id: r.id,
+                        at: r.finishedAt ?? r.createdAt,
+                        label: `${g.title}, version ${r.gasVersion}, finished ${new Date(
+                          r.finishedAt ?? r.createdAt,
+                        ).toLocaleString()}`,
+                      })),
                   ),
                 ),
               ),
-        ),
-        map((lists) => lists.flat().sort((a, b) => b.at.localeCompare(a.at))),
-      )
-      .subscribe({
-        next: (choices) => this.runChoices.set(choices.map(({ id, label }) => ({ id, label }))),
-        error: (err: unknown) => this.compareError.set(messageOf(err)),
-      });
+            ),
+      ),
+      map((lists) =>
+        lists
+          .flat()
+          .sort((a, b) => b.at.localeCompare(a.at))
+          .map(({ id, label }) => ({ id, label })),
+      ),
+    );
   }
 
   protected compare(): void {
@@ -165,7 +169,7 @@ export class ReferencePage {
     const table = this.table();
     if (!runId || !table) return;
     this.comparing.set(true);
-    this.compareError.set(null);
+    this.actionError.set(null);
     this.api.compare(runId, { referenceId: table.id }).subscribe({
       next: (c) => {
         this.comparing.set(false);
@@ -174,11 +178,11 @@ export class ReferencePage {
           undefined,
           { duration: 4000 },
         );
-        this.loadComparisons(table.id);
+        this.comparisonList.reload();
       },
       error: (err: unknown) => {
         this.comparing.set(false);
-        this.compareError.set(messageOf(err));
+        this.actionError.set(messageOf(err));
       },
     });
   }
@@ -192,7 +196,7 @@ export class ReferencePage {
     this.api.update(table.id, v).subscribe({
       next: (updated) => {
         this.saving.set(false);
-        this.table.set(updated);
+        this.reference.set(updated);
         this.form.markAsPristine();
         this.snackBar.open('Reference table saved.', undefined, { duration: 3000 });
       },
