@@ -20,6 +20,7 @@ export const POOL_OF: Readonly<Record<TaskKind, PoolName>> = {
   pageResult: 'runs',
   verify: 'runs',
   datasetSnapshot: 'runs',
+  datasetExport: 'runs',
   compareNumeric: 'runs',
   preview: 'quick',
   estimate: 'quick',

@@ -12,6 +12,7 @@ import {
 } from '@traceloom/shared/engine';
 import type { CompareTask, NumericCompareTask } from '../comparisons/compare-rows.js';
 import type { SnapshotOutput, SnapshotTask } from '../datasets/dataset-view.js';
+import type { ExportTask } from '../datasets/export-task.js';
 import { AppError } from '../http/app-error.js';
 import type { ProductTask } from '../products/product-task.js';
 import type { ParsedReference } from '../references/reference-parse.js';
@@ -50,6 +51,8 @@ export interface TaskTypes {
   probe: { input: { spec: unknown; port: MessagePort }; output: Record<never, never> };
   /** A dataset's snapshot and view made from a run's stored result and class pages. */
   datasetSnapshot: { input: SnapshotTask; output: SnapshotOutput };
+  /** A dataset's CSV, LaTeX or coefficient-matrix export rendered from its snapshot text. */
+  datasetExport: { input: ExportTask; output: { body: Uint8Array } };
   /** A dataset's snapshot computed again and compared with the stored result. */
   verify: { input: { snapshot: string }; output: { mismatches: string[] } };
   /** Reference rows against a series run. */

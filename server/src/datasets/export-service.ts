@@ -1,7 +1,6 @@
 import type { DatasetDocument } from '@traceloom/shared/api';
 import { DATASET_FORMAT } from '@traceloom/shared/api';
 import type { Response } from 'express';
-import { isNumericResult, renderMatrix } from '@traceloom/shared/format';
 import { z } from 'zod';
 import type { AppContext } from '../app-context.js';
 import { Dataset } from '../db/entities/index.js';
@@ -10,9 +9,8 @@ import type { Actor } from '../http/route-table.js';
 import { parseInput } from '../http/validate.js';
 import { DATASET_RELATIONS, loadVisibleDataset, withBytes } from './dataset-access.js';
 import { citationAuthors } from './dataset-authors.js';
-import { canonicalHash, datasetCsv, datasetLatex } from './dataset-document.js';
+import { canonicalHash } from './dataset-document.js';
 import { citationOf, supersededBy, toSummary } from './dataset-dto.js';
-import { readSnapshot } from './snapshot.js';
 
 const FORMATS = ['json', 'csv', 'latex', 'matrix'] as const;
 
@@ -26,7 +24,12 @@ function fileStem(d: Pick<Dataset, 'title' | 'version'>): string {
   return `${stem || 'dataset'}-v${d.version}`;
 }
 
-function send(res: Response, d: Dataset, format: (typeof FORMATS)[number], body: string): void {
+function send(
+  res: Response,
+  d: Dataset,
+  format: (typeof FORMATS)[number],
+  body: string | Buffer,
+): void {
   const types = {
     json: 'application/json',
     csv: 'text/csv',
@@ -38,7 +41,7 @@ function send(res: Response, d: Dataset, format: (typeof FORMATS)[number], body:
     .status(200)
     .set('Content-Type', `${types[format]}; charset=utf-8`)
     .set('Content-Disposition', `attachment; filename="${fileStem(d)}.${ext[format]}"`)
-    .send(Buffer.from(body, 'utf8'));
+    .send(typeof body === 'string' ? Buffer.from(body, 'utf8') : body);
 }
 
 /**
@@ -46,7 +49,12 @@ function send(res: Response, d: Dataset, format: (typeof FORMATS)[number], body:
  * hashed, so SHA-256 of the body equals the lock hash; CSV and LaTeX carry the tables, `matrix`
  * the coefficient matrix (N x exponent) of a series table as CSV.
  */
-export function writeExport(res: Response, d: Dataset, formatParam: unknown): void {
+export async function writeExport(
+  ctx: AppContext,
+  res: Response,
+  d: Dataset,
+  formatParam: unknown,
+): Promise<void> {
   const format = (formatParam ?? 'json') as (typeof FORMATS)[number];
   if (!FORMATS.includes(format)) {
     throw new AppError(
@@ -66,25 +74,13 @@ export function writeExport(res: Response, d: Dataset, formatParam: unknown): vo
     }
     return send(res, d, format, d.canonical);
   }
-  const result = readSnapshot(d.snapshot).result;
-  if (format === 'matrix') {
-    if (isNumericResult(result)) {
-      throw new AppError(
-        400,
-        'invalid_input',
-        'format: a numeric table has no coefficient matrix; export CSV instead.',
-        'format',
-      );
-    }
-    return send(res, d, format, renderMatrix(result));
-  }
   const heading = { title: d.title, version: d.version, lockedAt: d.lockedAt, hash: d.hash };
-  send(
-    res,
-    d,
+  const { body } = await ctx.services.tasks.runTask('datasetExport', {
+    snapshot: d.snapshot,
     format,
-    format === 'csv' ? datasetCsv(heading, result) : datasetLatex(heading, result),
-  );
+    heading,
+  });
+  send(res, d, format, Buffer.from(body.buffer, body.byteOffset, body.byteLength));
 }
 
 /** `GET /datasets/:id/export?format=json|csv|latex|matrix`. */
@@ -97,7 +93,7 @@ export async function exportDataset(
 ): Promise<void> {
   const manager = ctx.dataSource.manager;
   const d = await loadVisibleDataset(manager, actor, datasetId);
-  writeExport(res, await withBytes(manager, d), format);
+  await writeExport(ctx, res, await withBytes(manager, d), format);
 }
 
 const HASH = /^[0-9a-f]{64}$/;
@@ -134,7 +130,7 @@ export async function publicExport(
   format: unknown,
   res: Response,
 ): Promise<void> {
-  writeExport(res, await lockedByHash(ctx, hash), format);
+  await writeExport(ctx, res, await lockedByHash(ctx, hash), format);
 }
 
 const importSchema = z.looseObject({

@@ -16,6 +16,7 @@ import {
 } from '../compute/tasks.js';
 import { resultMismatches } from '../datasets/result-compare.js';
 import { snapshotTask } from '../datasets/dataset-view.js';
+import { exportTask } from '../datasets/export-task.js';
 import { productTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
@@ -90,6 +91,7 @@ const HANDLERS: { [K in TaskKind]: (input: TaskInput<K>) => TaskOutput<K> } = {
     return { mismatches: resultMismatches(stored.result, fresh) };
   },
   datasetSnapshot: snapshotTask,
+  datasetExport: exportTask,
   compare: (task) => ({
     rows: compareSeriesRows(task),
     impliedWeights: impliedWeightsOfRows(task),
