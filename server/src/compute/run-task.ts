@@ -21,6 +21,7 @@ export const POOL_OF: Readonly<Record<TaskKind, PoolName>> = {
   verify: 'runs',
   datasetSnapshot: 'runs',
   datasetExport: 'runs',
+  lockDocument: 'runs',
   compareNumeric: 'runs',
   preview: 'quick',
   estimate: 'quick',

@@ -12,7 +12,7 @@ import {
 } from '@traceloom/shared/engine';
 import type { CompareTask, NumericCompareTask } from '../comparisons/compare-rows.js';
 import type { SnapshotOutput, SnapshotTask } from '../datasets/dataset-view.js';
-import type { ExportTask } from '../datasets/export-task.js';
+import type { ExportTask, LockDocumentTask } from '../datasets/export-task.js';
 import { AppError } from '../http/app-error.js';
 import type { ProductTask } from '../products/product-task.js';
 import type { ParsedReference } from '../references/reference-parse.js';
@@ -53,6 +53,8 @@ export interface TaskTypes {
   datasetSnapshot: { input: SnapshotTask; output: SnapshotOutput };
   /** A dataset's CSV, LaTeX or coefficient-matrix export rendered from its snapshot text. */
   datasetExport: { input: ExportTask; output: { body: Uint8Array } };
+  /** A dataset's locked document built, canonicalized and hashed. */
+  lockDocument: { input: LockDocumentTask; output: { canonical: string; hash: string } };
   /** A dataset's snapshot computed again and compared with the stored result. */
   verify: { input: { snapshot: string }; output: { mismatches: string[] } };
   /** Reference rows against a series run. */

@@ -1,6 +1,15 @@
 import { isNumericResult, renderMatrix } from '@traceloom/shared/format';
 import { AppError } from '../http/app-error.js';
-import { datasetCsv, datasetLatex, type ExportHeading } from './dataset-document.js';
+import type { DatasetPersonDto } from '@traceloom/shared/api';
+import type { Dataset } from '../db/entities/index.js';
+import {
+  buildDocument,
+  canonicalHash,
+  datasetCsv,
+  datasetLatex,
+  type ExportHeading,
+} from './dataset-document.js';
+import type { DatasetChildren } from './dataset-dto.js';
 import { readSnapshot } from './snapshot.js';
 
 /** A dataset export rendered on a run thread: the stored snapshot text and the heading. */
@@ -36,4 +45,25 @@ export function renderExport(task: ExportTask): string {
 /** Worker task: the export's bytes (UTF-8). */
 export function exportTask(task: ExportTask): { ok: true; body: Uint8Array } {
   return { ok: true, body: Buffer.from(renderExport(task), 'utf8') };
+}
+
+/** A lock's document built on a run thread: the dataset with its bytes and relations. */
+export interface LockDocumentTask {
+  dataset: Dataset;
+  children: DatasetChildren;
+  lockedBy: DatasetPersonDto;
+  lockedAt: string;
+}
+
+/**
+ * Worker task: builds the locked document (parsing the snapshot) and answers its canonical
+ * text and SHA-256, so the main thread neither parses the snapshot nor canonicalizes it.
+ */
+export function lockDocumentTask(task: LockDocumentTask): {
+  ok: true;
+  canonical: string;
+  hash: string;
+} {
+  const doc = buildDocument(task.dataset, task.children, task.lockedBy, task.lockedAt);
+  return { ok: true, ...canonicalHash(doc) };
 }

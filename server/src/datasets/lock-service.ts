@@ -8,7 +8,6 @@ import { AppError, forbidden } from '../http/app-error.js';
 import type { Actor } from '../http/route-table.js';
 import { mailUsers } from '../mail/mailer.js';
 import { datasetLocked, isLockTrigger, loadWritableDataset, withBytes } from './dataset-access.js';
-import { buildDocument, canonicalHash } from './dataset-document.js';
 import { loadView } from './dataset-view.js';
 import {
   APPROVER_CANNOT_LOCK,
@@ -90,9 +89,12 @@ export async function lockDataset(
       const lockedAt = confirmation
         ? confirmedTime(confirmation.lockedAt)
         : new Date().toISOString();
-      const { canonical, hash } = canonicalHash(
-        buildDocument(d, children, person(actor), lockedAt),
-      );
+      const { canonical, hash } = await ctx.services.tasks.runTask('lockDocument', {
+        dataset: d,
+        children,
+        lockedBy: person(actor),
+        lockedAt,
+      });
       if (confirmation && confirmation.hash !== hash) {
         throw new AppError(
           409,

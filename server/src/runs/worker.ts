@@ -16,7 +16,7 @@ import {
 } from '../compute/tasks.js';
 import { resultMismatches } from '../datasets/result-compare.js';
 import { snapshotTask } from '../datasets/dataset-view.js';
-import { exportTask } from '../datasets/export-task.js';
+import { exportTask, lockDocumentTask } from '../datasets/export-task.js';
 import { productTask } from '../products/product-task.js';
 import { checkNormalization } from '../references/normalization-check.js';
 import { parseReferenceFile } from '../references/reference-parse.js';
@@ -92,6 +92,7 @@ const HANDLERS: { [K in TaskKind]: (input: TaskInput<K>) => TaskOutput<K> } = {
   },
   datasetSnapshot: snapshotTask,
   datasetExport: exportTask,
+  lockDocument: lockDocumentTask,
   compare: (task) => ({
     rows: compareSeriesRows(task),
     impliedWeights: impliedWeightsOfRows(task),
