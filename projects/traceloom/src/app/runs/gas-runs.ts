@@ -7,6 +7,7 @@ import {
   inject,
   input,
   signal,
+  untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -42,9 +43,19 @@ export class GasRuns {
   readonly viewedVersion = input<number | null>(null);
   readonly canRun = input(false);
 
-  protected readonly runs = signal<RunSummary[]>([]);
-  protected readonly loading = signal(true);
-  protected readonly loadError = signal<string | null>(null);
+  private readonly runList = this.api.runListResource(() => this.gasId());
+  /** The gas's runs, newest first. */
+  protected readonly runs = computed<RunSummary[]>(() =>
+    this.runList.hasValue()
+      ? [...this.runList.value()].sort((a, b) => b.createdAt.localeCompare(a.createdAt))
+      : [],
+  );
+  /** Only until the first answer: a reload keeps the history on screen. */
+  protected readonly loading = computed(() => !this.runList.hasValue() && !this.runList.error());
+  protected readonly loadError = computed(() => {
+    const err = this.runList.error();
+    return err ? messageOf(err) : null;
+  });
   protected readonly starting = signal(false);
   protected readonly startError = signal<string | null>(null);
   /** The run followed live (the newest active one). */
@@ -56,7 +67,10 @@ export class GasRuns {
   protected readonly durationText = durationText;
 
   constructor() {
-    effect(() => this.reload(this.gasId()));
+    effect(() => {
+      const active = this.runs().find((r) => isActive(r.status));
+      if (active && !untracked(this.followed)) this.followed.set(active.id);
+    });
   }
 
   protected start(): void {
@@ -82,23 +96,10 @@ export class GasRuns {
   }
 
   protected onFinished(_status: RunStatus): void {
-    this.reload(this.gasId());
+    this.runList.reload();
   }
 
-  protected reload(gasId: string): void {
-    this.loadError.set(null);
-    this.api.list(gasId).subscribe({
-      next: (runs) => {
-        this.loading.set(false);
-        const sorted = [...runs].sort((a, b) => b.createdAt.localeCompare(a.createdAt));
-        this.runs.set(sorted);
-        const active = sorted.find((r) => isActive(r.status));
-        if (active && !this.followed()) this.followed.set(active.id);
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.loadError.set(messageOf(err));
-      },
-    });
+  protected reload(): void {
+    this.runList.reload();
   }
 }

@@ -63,6 +63,11 @@ export class RunsApi {
     return httpResource<RunDto>(() => `/api/runs/${encodeURIComponent(id())}`);
   }
 
+  /** The runs of the gas `gasId()` as a resource (call in an injection context). */
+  runListResource(gasId: () => string): HttpResourceRef<RunSummary[] | undefined> {
+    return httpResource<RunSummary[]>(() => `/api/gases/${encodeURIComponent(gasId())}/runs`);
+  }
+
   get(id: string): Observable<RunDto> {
     return this.http.get<RunDto>(`/api/runs/${encodeURIComponent(id)}`);
   }
