@@ -228,11 +228,14 @@ describe('GasEditor', () => {
       createdAt: '',
       updatedAt: '',
     });
-    await settle();
-    expect(navigate).toHaveBeenCalledWith(['/gases', 'g1'], { state: { showRuns: true } });
+    // The run history is read through a resource, and the fixture is stable only once its
+    // request is answered: render, answer the request, then settle.
+    await Promise.resolve();
+    TestBed.tick();
     // The saved gas shows its (empty) run history at once.
     http.expectOne('/api/gases/g1/runs').flush([]);
     await settle();
+    expect(navigate).toHaveBeenCalledWith(['/gases', 'g1'], { state: { showRuns: true } });
     expect(el.querySelector('[data-testid="runs-empty"]')).not.toBeNull();
     http.match('/api/compute').forEach((r) => r.flush({ weights: [], canonical: [] }));
   });
