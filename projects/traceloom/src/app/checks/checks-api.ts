@@ -42,10 +42,6 @@ export class ChecksApi {
     );
   }
 
-  reference(id: string): Observable<ReferenceDto> {
-    return this.http.get<ReferenceDto>(`/api/references/${encodeURIComponent(id)}`);
-  }
-
   /** The reference table with id `id()` as a resource (call in an injection context). */
   referenceResource(id: () => string): HttpResourceRef<ReferenceDto | undefined> {
     return httpResource<ReferenceDto>(() => `/api/references/${encodeURIComponent(id())}`);
@@ -66,12 +62,6 @@ export class ChecksApi {
 
   remove(id: string): Observable<void> {
     return this.http.delete<void>(`/api/references/${encodeURIComponent(id)}`);
-  }
-
-  referenceComparisons(id: string): Observable<ReferenceComparisonDto[]> {
-    return this.http.get<ReferenceComparisonDto[]>(
-      `/api/references/${encodeURIComponent(id)}/comparisons`,
-    );
   }
 
   /** Parses the file on the server without storing it (`?dryRun=1`). */
