@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { authorStudy, type AuthorStudy } from '../testing/author-study.js';
 import { bearer, finishedRun } from '../testing/gas-fixtures.js';
 import { LARGE_TABLE, storeLargeClassTable } from '../testing/large-data.js';
-import { p99 } from '../testing/load-helpers.js';
+import { freshConnections, p99 } from '../testing/load-helpers.js';
 import { renderMatrix } from '@traceloom/shared/format';
 import { Dataset } from '../db/entities/index.js';
 import { withBytes } from './dataset-access.js';
@@ -34,6 +34,7 @@ function call(
     const payload = body ? JSON.stringify(body) : undefined;
     const req = http.request(
       {
+        agent: freshConnections,
         port,
         path: `/api${path}`,
         method,
@@ -62,11 +63,19 @@ function body(path: string): Promise<Buffer> {
   const { port } = server.address() as AddressInfo;
   return new Promise((resolve, reject) => {
     http
-      .get({ port, path: `/api${path}`, headers: { Authorization: bearer(s.token) } }, (res) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => resolve(Buffer.concat(chunks)));
-      })
+      .get(
+        {
+          agent: freshConnections,
+          port,
+          path: `/api${path}`,
+          headers: { Authorization: bearer(s.token) },
+        },
+        (res) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => resolve(Buffer.concat(chunks)));
+        },
+      )
       .on('error', reject);
   });
 }
@@ -81,7 +90,9 @@ async function underLoad<T>(work: () => Promise<T>) {
       const t0 = performance.now();
       await new Promise<void>((resolve, reject) =>
         http
-          .get({ port, path: '/api/health' }, (res) => res.resume().on('end', resolve))
+          .get({ agent: freshConnections, port, path: '/api/health' }, (res) =>
+            res.resume().on('end', resolve),
+          )
           .on('error', reject),
       );
       latencies.push(performance.now() - t0);

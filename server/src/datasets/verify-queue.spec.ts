@@ -6,6 +6,7 @@ import { DEFAULT_CONFIG } from '../config.js';
 import { AuditEvent, type User } from '../db/entities/index.js';
 import { lockedDataset, warmWorkers } from '../testing/dataset-fixtures.js';
 import { bearer, createGas, RUNAWAY_SPEC, startRun, waitForRun } from '../testing/gas-fixtures.js';
+import { freshConnections } from '../testing/load-helpers.js';
 import {
   createTestApp,
   insertStudy,
@@ -44,6 +45,7 @@ afterAll(async () => {
 function verifyRequest(datasetId: string, token: string) {
   const { port } = server.address() as AddressInfo;
   const req = http.request({
+    agent: freshConnections,
     port,
     method: 'POST',
     path: `/api/datasets/${datasetId}/verify`,

@@ -4,7 +4,7 @@ import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { bearer, createGas, startRun, waitForRun } from '../testing/gas-fixtures.js';
-import { p99 } from '../testing/load-helpers.js';
+import { freshConnections, p99 } from '../testing/load-helpers.js';
 import {
   createTestApp,
   insertStudy,
@@ -36,7 +36,7 @@ const http = require('node:http');
 const [port, token, runId] = process.argv.slice(1);
 const counts = { classes: 0, runs: 0, bytes: 0, slowestMs: 0 };
 const get = (path) => new Promise((resolve, reject) => {
-  http.get({ port, path, headers: { Authorization: 'Bearer ' + token } }, (res) => {
+  http.get({ agent: false, port, path, headers: { Authorization: 'Bearer ' + token } }, (res) => {
     let bytes = 0;
     res.on('data', (c) => (bytes += c.length));
     res.on('end', () => (res.statusCode === 200 ? resolve(bytes) : reject(new Error('status ' + res.statusCode))));
@@ -65,7 +65,13 @@ function drain(
   const { port } = server.address() as AddressInfo;
   return new Promise((resolve, reject) => {
     const req = http.request(
-      { port, path, method, headers: auth ? { Authorization: bearer(auth) } : {} },
+      {
+        agent: freshConnections,
+        port,
+        path,
+        method,
+        headers: auth ? { Authorization: bearer(auth) } : {},
+      },
       (res) => {
         let bytes = 0;
         res.on('data', (chunk: Buffer) => (bytes += chunk.length));

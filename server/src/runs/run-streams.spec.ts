@@ -6,7 +6,7 @@ import { signToken } from '../auth/tokens.js';
 import { DEFAULT_CONFIG } from '../config.js';
 import type { User } from '../db/entities/index.js';
 import { bearer, createGas, RUNAWAY_SPEC, startRun, waitForRun } from '../testing/gas-fixtures.js';
-import { p99, sseReader, type SseEvent } from '../testing/load-helpers.js';
+import { freshConnections, p99, sseReader, type SseEvent } from '../testing/load-helpers.js';
 import {
   createTestApp,
   insertStudy,
@@ -42,7 +42,7 @@ interface OpenStream {
 function openStream(path: string, headers: Record<string, string>): Promise<OpenStream> {
   const { port } = server.address() as AddressInfo;
   return new Promise((resolve, reject) => {
-    const req = http.get({ port, path, headers }, (res) => {
+    const req = http.get({ agent: freshConnections, port, path, headers }, (res) => {
       const events: SseEvent[] = [];
       const ended = new Promise<void>((done) => res.on('close', done));
       res.on(

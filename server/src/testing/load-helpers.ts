@@ -1,3 +1,13 @@
+import http from 'node:http';
+
+/**
+ * An agent that opens a new connection for every request. Node's default agent keeps sockets
+ * alive; when a test blocks the event loop (it runs the server in-process) past the server's
+ * keep-alive timeout, the next request can be written onto a socket the server is just closing
+ * and fail with ECONNRESET. Timing suites use this agent for their raw requests.
+ */
+export const freshConnections = new http.Agent({ keepAlive: false });
+
 /** The 99th percentile of a list of timings (the largest for fewer than 100). */
 export function p99(values: readonly number[]): number {
   const sorted = [...values].sort((a, b) => a - b);
