@@ -143,7 +143,7 @@ export function kernelTraces(
   const run = (mm: number): LevelResult => {
     const rule = family.at(mm);
     const blocks = fastAt
-      ? nystromBlocksDD(rule, fastAt, parity, evalBits, entryBits, paceOpts)
+      ? nystromBlocksDD(rule, fastAt, parity, entryBits, paceOpts)
       : nystromBlocks(rule, rho, parity, cache, evalBits, F, paceOpts);
     return levelResult(blocks, nMax, fermion, F, arithmetic, paceOpts);
   };

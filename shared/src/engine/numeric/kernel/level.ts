@@ -150,7 +150,7 @@ function reduceDD(B: Block, nMax: number, F: number, p?: Pace): Reduced {
     traces: Array.from(t.hi, (h, i) => ddToReal(h, t.lo[i]!)),
     coeff: Array.from(c.hi, (h, i) => ddToReal(h, c.lo[i]!)),
     norm2,
-    eig: tridiagonalEigenvaluesFloat(Array.from(d.hi), Array.from(e.hi)),
+    eig: tridiagonalEigenvaluesFloat(d.hi, e.hi),
   };
 }
 

@@ -224,15 +224,14 @@ function rankTwoRow(
   }
 }
 
-/** Tr T^L, L = 1..nMax, of the tridiagonal T = (d, e) by banded powers (see matrix.ts). */
+/**
+ * Tr T^L, L = 1..nMax, of the tridiagonal T = (d, e) by banded powers (see matrix.ts): band k
+ * holds (T^k)_ij for |j - i| <= k at [i * (2k + 1) + (j - i + k)], and
+ * Tr T^L = sum_ij (T^a)_ij (T^b)_ij with a = ceil(L / 2), b = L - a (T symmetric).
+ */
 export function tridiagonalPowerTracesDD(d: DD, e: DD, nMax: number): DD {
   const n = d.hi.length;
-  const K = Math.ceil(nMax / 2);
-  const band: DD[] = [dd(0)];
-  const get = (k: number, i: number, j: number, part: 'hi' | 'lo'): number => {
-    if (j < 0 || j >= n || Math.abs(j - i) > k) return 0;
-    return band[k]![part][i * (2 * k + 1) + (j - i + k)]!;
-  };
+  const K = Math.max(1, Math.ceil(nMax / 2));
   const t1 = dd(3 * n);
   for (let i = 0; i < n; i++) {
     t1.hi[3 * i + 1] = d.hi[i]!;
@@ -246,57 +245,83 @@ export function tridiagonalPowerTracesDD(d: DD, e: DD, nMax: number): DD {
       t1.lo[3 * i + 2] = e.lo[i]!;
     }
   }
-  band.push(t1);
-  for (let k = 2; k <= K; k++) {
-    const w = 2 * k + 1;
-    const next = dd(n * w);
-    for (let i = 0; i < n; i++) {
-      for (let j = Math.max(0, i - k); j <= Math.min(n - 1, i + k); j++) {
-        ddMul(get(k - 1, i, j, 'hi'), get(k - 1, i, j, 'lo'), d.hi[j]!, d.lo[j]!);
-        let sh = R[0];
-        let sl = R[1];
-        if (j > 0) {
-          ddMul(get(k - 1, i, j - 1, 'hi'), get(k - 1, i, j - 1, 'lo'), e.hi[j - 1]!, e.lo[j - 1]!);
-          ddAdd(sh, sl, R[0], R[1]);
-          sh = R[0];
-          sl = R[1];
-        }
-        if (j < n - 1) {
-          ddMul(get(k - 1, i, j + 1, 'hi'), get(k - 1, i, j + 1, 'lo'), e.hi[j]!, e.lo[j]!);
-          ddAdd(sh, sl, R[0], R[1]);
-          sh = R[0];
-          sl = R[1];
-        }
-        next.hi[i * w + (j - i + k)] = sh;
-        next.lo[i * w + (j - i + k)] = sl;
-      }
-    }
-    band.push(next);
-  }
+  const band: DD[] = [dd(0), t1];
+  for (let k = 2; k <= K; k++) band.push(nextBandPower(band[k - 1]!, k, d, e, n));
   const out = dd(nMax);
-  for (let Lp = 1; Lp <= nMax; Lp++) {
-    const a = Math.ceil(Lp / 2);
-    const b = Lp - a;
+  for (let L = 1; L <= nMax; L++) {
+    const a = Math.ceil(L / 2);
+    const b = L - a;
     let sh = 0;
     let sl = 0;
-    for (let i = 0; i < n; i++) {
-      if (b === 0) {
+    if (b === 0) {
+      for (let i = 0; i < n; i++) {
         ddAdd(sh, sl, d.hi[i]!, d.lo[i]!);
         sh = R[0];
         sl = R[1];
-        continue;
       }
-      for (let j = Math.max(0, i - b); j <= Math.min(n - 1, i + b); j++) {
-        ddMul(get(a, i, j, 'hi'), get(a, i, j, 'lo'), get(b, i, j, 'hi'), get(b, i, j, 'lo'));
+    } else {
+      const A = band[a]!;
+      const B = band[b]!;
+      const wa = 2 * a + 1;
+      const wb = 2 * b + 1;
+      for (let i = 0; i < n; i++) {
+        // (T^b)_ij vanishes outside |j - i| <= b <= a
+        const jLo = Math.max(0, i - b);
+        const jHi = Math.min(n - 1, i + b);
+        for (let j = jLo; j <= jHi; j++) {
+          const x = i * wa + (j - i + a);
+          const y = i * wb + (j - i + b);
+          ddMul(A.hi[x]!, A.lo[x]!, B.hi[y]!, B.lo[y]!);
+          ddAdd(sh, sl, R[0], R[1]);
+          sh = R[0];
+          sl = R[1];
+        }
+      }
+    }
+    out.hi[L - 1] = sh;
+    out.lo[L - 1] = sl;
+  }
+  return out;
+}
+
+/**
+ * Band k of T^k from band k - 1 (P = T^(k-1)):
+ * (P T)_ij = P_ij d_j + P_(i,j-1) e_(j-1) + P_(i,j+1) e_j, a term outside P's band being zero.
+ */
+function nextBandPower(P: DD, k: number, d: DD, e: DD, n: number): DD {
+  const w = 2 * k + 1;
+  const pw = w - 2;
+  const next = dd(n * w);
+  for (let i = 0; i < n; i++) {
+    const jLo = Math.max(0, i - k);
+    const jHi = Math.min(n - 1, i + k);
+    const row = i * pw - i + (k - 1); // P_ij at row + j when |j - i| <= k - 1
+    for (let j = jLo; j <= jHi; j++) {
+      let sh = 0;
+      let sl = 0;
+      const dj = j - i;
+      if (dj >= 1 - k && dj <= k - 1) {
+        ddMul(P.hi[row + j]!, P.lo[row + j]!, d.hi[j]!, d.lo[j]!);
+        sh = R[0];
+        sl = R[1];
+      }
+      if (j > 0 && dj - 1 >= 1 - k && dj - 1 <= k - 1) {
+        ddMul(P.hi[row + j - 1]!, P.lo[row + j - 1]!, e.hi[j - 1]!, e.lo[j - 1]!);
         ddAdd(sh, sl, R[0], R[1]);
         sh = R[0];
         sl = R[1];
       }
+      if (j < n - 1 && dj + 1 >= 1 - k && dj + 1 <= k - 1) {
+        ddMul(P.hi[row + j + 1]!, P.lo[row + j + 1]!, e.hi[j]!, e.lo[j]!);
+        ddAdd(sh, sl, R[0], R[1]);
+        sh = R[0];
+        sl = R[1];
+      }
+      next.hi[i * w + (dj + k)] = sh;
+      next.lo[i * w + (dj + k)] = sl;
     }
-    out.hi[Lp - 1] = sh;
-    out.lo[Lp - 1] = sl;
   }
-  return out;
+  return next;
 }
 
 /** Coefficients c_0..c_nMax of det(I + kappa T) by the leading-minor recurrence (matrix.ts). */

@@ -188,10 +188,14 @@ export function determinantCoefficients(
  * Eigenvalues of a symmetric tridiagonal matrix in float64 (implicit QL with Wilkinson shifts);
  * used only for error bounds (sizes of e_k(|lambda|)), never for the values themselves.
  */
-export function tridiagonalEigenvaluesFloat(d0: number[], e0: number[]): number[] {
+export function tridiagonalEigenvaluesFloat(
+  d0: ArrayLike<number>,
+  e0: ArrayLike<number>,
+): number[] {
   const n = d0.length;
-  const d = d0.slice();
-  const e = [...e0, 0];
+  const d = Float64Array.from(d0);
+  const e = new Float64Array(n + 1);
+  e.set(e0);
   for (let l = 0; l < n; l++) {
     let iter = 0;
     for (;;) {
@@ -234,7 +238,7 @@ export function tridiagonalEigenvaluesFloat(d0: number[], e0: number[]): number[
       e[m] = 0;
     }
   }
-  return d;
+  return Array.from(d);
 }
 
 /** sqrt(a^2 + b^2): Math.hypot only where the squares would leave the normal range (it is slow). */

@@ -1,6 +1,6 @@
 import type { FastCompiled } from '../expr/compile-dd.js';
-import { abs, magnitude, Real, sqrt, sub } from '../real.js';
-import { ddAdd, ddFromReal, ddMul, ddToReal, R } from './double-double.js';
+import { abs, magnitude, Real, sub } from '../real.js';
+import { ddAdd, ddFromReal, ddMul, ddSqrt, ddToReal, R } from './double-double.js';
 import type { DD } from './matrix-dd.js';
 import { pace, type Pace } from './matrix.js';
 import type { Rule } from './quadrature.js';
@@ -77,7 +77,6 @@ export function nystromBlocksDD(
   rule: Rule,
   at: FastAt,
   parity: boolean,
-  prec: number,
   entryBits: number,
   p?: Pace,
 ): DDMatrix[] {
@@ -86,8 +85,13 @@ export function nystromBlocksDD(
   const swl = new Float64Array(n);
   const xh = new Float64Array(n);
   const xl = new Float64Array(n);
+  // sqrt(w_i) in double-double (one Newton step: within a few units of 2^-104, far below the
+  // entries' own 2^-entryBits)
   rule.weights.forEach((w, i) => {
-    [swh[i], swl[i]] = pair(sqrt(w, prec));
+    const [h, l] = pair(w);
+    ddSqrt(h, l);
+    swh[i] = R[0];
+    swl[i] = R[1];
     [xh[i], xl[i]] = pair(rule.nodes[i]!);
   });
   const node = (i: number, j: number): void => at(xh[i]!, xl[i]!, xh[j]!, xl[j]!);
