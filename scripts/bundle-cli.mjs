@@ -1,11 +1,22 @@
 // Bundles the compiled command line (dist/server/cli/main.js and the shared library it imports)
 // into one file, dist/cli/traceloom.cjs, and writes its entry dist/cli/traceloom.mjs (a copy of
-// scripts/cli-loader.mjs) and V8's code cache for it, dist/cli/traceloom.<hash>.cache, from
-// training runs on the specs in scripts/cli-training/ (see bench/README.md: the classes-40
-// start-up paragraph and "Numeric tasks").
+// scripts/cli-loader.mjs), the bundle's hash with its size and time (traceloom.key.json) and
+// V8's code cache for it, dist/cli/traceloom.<hash>.cache, from training runs on the specs in
+// scripts/cli-training/ (see bench/README.md: the classes-40 start-up paragraph and "Numeric
+// tasks").
 // `npm run build:server` runs it after tsc.
 import { spawnSync } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import {
+  copyFileSync,
+  existsSync,
+  mkdirSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+} from 'node:fs';
 import path from 'node:path';
 import { build } from 'esbuild';
 import { root } from './lib.mjs';
@@ -56,6 +67,16 @@ await build({
 rmSync(noLocales, { force: true });
 rmSync(path.join(out, 'traceloom.mjs'), { force: true });
 copyFileSync(path.join(root, 'scripts/cli-loader.mjs'), path.join(out, 'traceloom.mjs'));
+
+// the bundle's hash (the cache's name) with its size and modification time, so that the loader
+// need not hash it on every command (see cli-loader.mjs); the same text the loader hashes
+const bundle = path.join(out, 'traceloom.cjs');
+const source = readFileSync(bundle, 'latin1').replace(/^#!.*/, '');
+const { size, mtimeMs } = statSync(bundle);
+writeFileSync(
+  path.join(out, 'traceloom.key.json'),
+  `${JSON.stringify({ size, mtimeMs, hash: createHash('sha1').update(source).digest('hex').slice(0, 16) })}\n`,
+);
 
 // training runs: each loads the cache the previous one wrote and adds what it compiled
 for (const f of readdirSync(out)) if (f.endsWith('.cache')) rmSync(path.join(out, f));

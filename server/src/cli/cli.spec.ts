@@ -1,5 +1,7 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { cpSync, existsSync, mkdtempSync, rmSync, utimesSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { classRowJsonText as classRowText } from '@traceloom/shared';
@@ -54,6 +56,26 @@ describe('traceloom compute', () => {
     expect(r.out).toBe('');
     expect(r.err.trim().split('\n')).toHaveLength(1);
     expect(r.err).toMatch(/not built yet; run `npm run build:shared && npm run build:server`/);
+  });
+
+  it('runs the same when the bundle no longer matches the hash recorded at build time (the loader hashes it itself)', () => {
+    const copy = mkdtempSync(path.join(tmpdir(), 'traceloom-cli-'));
+    try {
+      cpSync(path.dirname(bundle), copy, { recursive: true });
+      // a new modification time: traceloom.key.json no longer describes the bundle
+      utimesSync(path.join(copy, 'traceloom.cjs'), new Date(), new Date(Date.now() + 5000));
+      const moved = run(['compute', '-'], trap, {
+        ...process.env,
+        TRACELOOM_CLI_BUNDLE: path.join(copy, 'traceloom.mjs'),
+      });
+      const here = run(['compute', '-'], trap);
+      expect(moved.code).toBe(0);
+      expect(moved.err).toBe('');
+      const strip = (text: string) => ({ ...JSON.parse(text), timings: null });
+      expect(strip(moved.out)).toEqual(strip(here.out));
+    } finally {
+      rmSync(copy, { recursive: true, force: true });
+    }
   });
 
   it('prints the result JSON with the class rows streamed (p(1)+...+p(4) = 1+2+3+5 rows, OEIS A000041)', () => {
