@@ -1,5 +1,11 @@
 import Fraction from 'fraction.js';
-import { mulTruncStrided } from '../series/multiply.js';
+import {
+  findRationalFactor,
+  mulTruncRational,
+  mulTruncStrided,
+  rationalCost,
+  type RationalFactor,
+} from '../series/multiply.js';
 import { gcdInt, lcm } from '../integers.js';
 import { frac } from '../rational.js';
 import { add, mul } from '../series/arith.js';
@@ -84,12 +90,12 @@ function productOnArrays(
     val[0] = 0;
   }
   // Y_j += C * Y_(j-1), only below M; C's coefficient at cStart + i * stride is coarse[i]
-  const step1 = (coarse: bigint[], stride: number, cStart: number, j: number): void => {
+  const step1 = (f: Factor, j: number): void => {
     const v = val[j - 1]!;
-    const lo = cStart + v;
+    const lo = f.start + v;
     if (lo >= M) return;
-    const src = Y[j - 1]!.slice(v, M - cStart);
-    const prod = mulTruncStrided(coarse, stride, src, M - lo);
+    const src = Y[j - 1]!.slice(v, M - f.start);
+    const prod = factorTimes(f, src, M - lo);
     const dst = Y[j]!;
     for (let i = 0; i < prod.length; i++) {
       const x = prod[i]!;
@@ -109,9 +115,9 @@ function productOnArrays(
   for (const c of byValuation) {
     seen++;
     if (c.num.length === 0 || c.start >= M) continue;
-    const [coarse, stride] = onCoarseGrid(c.num.slice(0, M - c.start), D / c.den);
-    if (fermion) for (let j = Math.min(nMax, seen); j >= 1; j--) step1(coarse, stride, c.start, j);
-    else for (let j = 1; j <= nMax; j++) step1(coarse, stride, c.start, j);
+    const f = factorOf(c.num.slice(0, M - c.start), D / c.den, c.start);
+    if (fermion) for (let j = Math.min(nMax, seen); j >= 1; j--) step1(f, j);
+    else for (let j = 1; j <= nMax; j++) step1(f, j);
     tick?.(seen, points.length);
   }
   const order = cs.some((c) => c.order !== null) || cs.length > 0 ? M : null;
@@ -121,15 +127,38 @@ function productOnArrays(
 }
 
 /**
- * The coefficients f * num[i] on the coarsest grid of their offsets: [coarse, stride] with
- * num[i * stride] = coarse[i] and num zero elsewhere (a c_p in q^(r |p|) has stride r).
+ * One c_p scaled to the common denominator, on the coarsest grid of its offsets: its
+ * coefficient at exponent index start + i * stride is coarse[i] (zero elsewhere), and `rational`
+ * is coarse as P(y) / Q(y), y = x^stride, when its coefficients satisfy a short recurrence (a
+ * c_p = q^a / (1 + q^a)^2 does: Q = (1 + y)^2).
  */
-function onCoarseGrid(num: readonly bigint[], f: bigint): [bigint[], number] {
+interface Factor {
+  coarse: bigint[];
+  stride: number;
+  start: number;
+  rational: RationalFactor | null;
+}
+
+function factorOf(num: readonly bigint[], f: bigint, start: number): Factor {
   let stride = 0;
   for (let i = 1; i < num.length && stride !== 1; i++)
     if (num[i] !== 0n) stride = gcdInt(stride, i);
   if (stride === 0) stride = 1;
   const coarse: bigint[] = [];
   for (let i = 0; i < num.length; i += stride) coarse.push(f === 1n ? num[i]! : num[i]! * f);
-  return [coarse, stride];
+  return { coarse, stride, start, rational: findRationalFactor(coarse) };
+}
+
+/**
+ * First n coefficients of the factor (without its offset) times b: through P / Q when that costs
+ * fewer operations than the factor's terms below x^n would (the schoolbook product pays each term
+ * on about half the length, the recurrence its terms of P and Q on the whole length), else by
+ * `mulTruncStrided`. Both are exact; which one runs changes no digit.
+ */
+function factorTimes(f: Factor, b: readonly bigint[], n: number): bigint[] {
+  const terms = Math.min(f.coarse.length, Math.ceil(n / f.stride));
+  const r = f.rational;
+  if (r !== null && n <= r.length * f.stride && 2 * rationalCost(r) < terms)
+    return mulTruncRational(r, f.stride, b, n);
+  return mulTruncStrided(f.coarse, f.stride, b, n);
 }

@@ -5,6 +5,12 @@
  * sums (classes/). The rational and series bookkeeping stays in the engine's general layer.
  */
 export { mulTrunc, mulTruncStrided } from './multiply/mul-trunc.js';
+export {
+  findRationalFactor,
+  mulTruncRational,
+  rationalCost,
+  type RationalFactor,
+} from './multiply/rational-factor.js';
 export { newtonTable } from './newton/table.js';
 export { chooseNewtonRoute, type NewtonRoute } from './newton/route.js';
 export type { NewtonTableInput, NewtonTableResult } from './newton/types.js';

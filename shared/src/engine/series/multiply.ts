@@ -3,4 +3,11 @@
  * series goes through `mulTrunc` (first n coefficients of the product of two integer arrays),
  * provided by the numeric kernels.
  */
-export { mulTrunc, mulTruncStrided } from '../kernel/index.js';
+export {
+  findRationalFactor,
+  mulTrunc,
+  mulTruncRational,
+  mulTruncStrided,
+  rationalCost,
+  type RationalFactor,
+} from '../kernel/index.js';

@@ -56,6 +56,19 @@ export function mulSchoolbook(a: readonly bigint[], b: readonly bigint[], n: num
   return out;
 }
 
+/** out[off + i] += a * b[i] for i < count (a = +-1 without a multiplication). */
+export function addScaled(
+  out: bigint[],
+  off: number,
+  a: bigint,
+  b: readonly bigint[],
+  count: number,
+): void {
+  if (a === 1n) for (let i = 0; i < count; i++) out[off + i]! += b[i]!;
+  else if (a === -1n) for (let i = 0; i < count; i++) out[off + i]! -= b[i]!;
+  else for (let i = 0; i < count; i++) out[off + i]! += a * b[i]!;
+}
+
 function pack(a: readonly bigint[], len: number, hexDigits: number): bigint {
   // the value sum a_i 2^(4 * hexDigits * i) as positive packing minus negative packing
   const pos: string[] = [];
@@ -141,7 +154,8 @@ export function mulTrunc(a: readonly bigint[], b: readonly bigint[], n: number):
  * `coarse[i]` is A's coefficient at index i * stride (a series in q^r times a dense one). The
  * product splits into `stride` products on the residue classes of b's indices modulo the stride
  * (b_t[m] = b[m * stride + t]), each `stride` times shorter, so A's zeros cost nothing and every
- * class still gets the fastest of mulTrunc's methods.
+ * class still gets the fastest of mulTrunc's methods. When every class would be a schoolbook
+ * product anyway, b is shifted and added once per term of A instead (no classes built).
  */
 export function mulTruncStrided(
   coarse: readonly bigint[],
@@ -156,6 +170,16 @@ export function mulTruncStrided(
   if (lb <= 0 || lc <= 0) return [];
   const len = Math.min(n, (lc - 1) * stride + lb);
   const out = new Array<bigint>(len).fill(0n);
+  if (lc * Math.ceil(lb / stride) <= SCHOOLBOOK_PAIRS) {
+    // every class would be a schoolbook product: shift and add b once per term of A instead
+    for (let k = 0; k < lc; k++) {
+      const a = coarse[k]!;
+      const off = k * stride;
+      if (a === 0n || off >= len) continue;
+      addScaled(out, off, a, b, Math.min(lb, len - off));
+    }
+    return out;
+  }
   const part: bigint[] = [];
   for (let t = 0; t < stride && t < lb; t++) {
     part.length = 0;
