@@ -1,12 +1,20 @@
 import http from 'node:http';
+import os from 'node:os';
 import type { AddressInfo } from 'node:net';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { authorStudy, type AuthorStudy } from '../testing/author-study.js';
 import { bearer, finishedRun } from '../testing/gas-fixtures.js';
 import { LARGE_TABLE, storeLargeClassTable } from '../testing/large-data.js';
 import { freshConnections, p99 } from '../testing/load-helpers.js';
 import { renderMatrix } from '@traceloom/shared/format';
-import { Dataset } from '../db/entities/index.js';
+import { Dataset, type User } from '../db/entities/index.js';
+import {
+  createTestApp,
+  insertStudy,
+  insertUser,
+  tokenFor,
+  type TestApp,
+} from '../testing/test-app.js';
 import { withBytes } from './dataset-access.js';
 import { datasetCsv } from './dataset-document.js';
 import { readSnapshot } from './snapshot.js';
@@ -14,11 +22,29 @@ import { readSnapshot } from './snapshot.js';
 /**
  * Replays "dataset create / page / export / lock parse the snapshot on the main thread": a run
  * with a ~60 MB class table (see testing/large-data.ts) becomes a dataset, whose page is read,
- * while /api/health is asked every 10 ms. Figures are printed (docs/operations.md).
+ * which is exported, while /api/health is asked every 10 ms. Figures are printed
+ * (docs/operations.md).
  */
 
 const { rows: ROWS, terms: TERMS } = LARGE_TABLE;
-let s: AuthorStudy;
+
+/** Reads of the dataset page in the loop that is timed. */
+const PAGE_READS = 150;
+/**
+ * Bound on health p99 while the page is read in a loop. The target is 50 ms; measured here
+ * 22-23 ms at load average 2.5-6 and 76-133 ms at load 7.4-7.5 (four engineers' suites on two
+ * cores), when the matrix export, which reads no page, showed 73 ms too. The bound leaves that
+ * margin for a loaded shared machine; CI runs the suite alone on an idle one. Before (each read
+ * walked the snapshot's overflow pages to reach the columns stored after it): 119-383 ms for
+ * five reads.
+ */
+const PAGE_P99_MS = 150;
+let t: TestApp;
+let author: User;
+let reviewer: User;
+let steward: User;
+/** Bearer tokens by person (the author's unless a step names another). */
+const tokens = new Map<User, string>();
 let server: http.Server;
 let runId = '';
 
@@ -27,9 +53,10 @@ function call(
   method: string,
   path: string,
   body?: object,
+  as: User = author,
 ): Promise<{ status: number; bytes: number; text: string }> {
   const { port } = server.address() as AddressInfo;
-  const token = s.token;
+  const token = tokens.get(as)!;
   return new Promise((resolve, reject) => {
     const payload = body ? JSON.stringify(body) : undefined;
     const req = http.request(
@@ -68,7 +95,7 @@ function body(path: string): Promise<Buffer> {
           agent: freshConnections,
           port,
           path: `/api${path}`,
-          headers: { Authorization: bearer(s.token) },
+          headers: { Authorization: bearer(tokens.get(author)!) },
         },
         (res) => {
           const chunks: Buffer[] = [];
@@ -80,10 +107,16 @@ function body(path: string): Promise<Buffer> {
   });
 }
 
-/** Runs `work` while asking /api/health every 10 ms; the health latencies and the work's time. */
+/**
+ * Runs `work` while asking /api/health every 10 ms; the health latencies, the work's time, and
+ * the longest stall of this thread's event loop (sampled every 5 ms), which also counts a stall
+ * that falls between two health calls.
+ */
 async function underLoad<T>(work: () => Promise<T>) {
   const { port } = server.address() as AddressInfo;
   const latencies: number[] = [];
+  const loop = monitorEventLoopDelay({ resolution: 5 });
+  loop.enable();
   let done = false;
   const probe = (async () => {
     while (!done || latencies.length < 20) {
@@ -104,27 +137,46 @@ async function underLoad<T>(work: () => Promise<T>) {
   const ms = performance.now() - t0;
   done = true;
   await probe;
-  return { value, ms, p99: p99(latencies), max: Math.max(...latencies), calls: latencies.length };
+  loop.disable();
+  return {
+    value,
+    ms,
+    p99: p99(latencies),
+    max: Math.max(...latencies),
+    calls: latencies.length,
+    stall: loop.max / 1e6,
+  };
 }
 
 const figures: string[] = [];
-function report(what: string, m: { ms: number; p99: number; max: number; calls: number }) {
+function report(
+  what: string,
+  m: { ms: number; p99: number; max: number; calls: number; stall: number },
+) {
   figures.push(
-    `${what}: ${m.ms.toFixed(0)} ms, health p99 ${m.p99.toFixed(1)} ms (max ${m.max.toFixed(0)} ms, ${m.calls} calls)`,
+    `${what}: ${m.ms.toFixed(0)} ms, health p99 ${m.p99.toFixed(1)} ms (max ${m.max.toFixed(0)} ms, ${m.calls} calls), loop stall max ${m.stall.toFixed(0)} ms`,
   );
 }
 
 beforeAll(async () => {
-  s = await authorStudy();
-  runId = await finishedRun(s.t, s.token, s.studyId);
-  const bytes = await storeLargeClassTable(s.t, runId, ROWS, TERMS);
+  t = await createTestApp();
+  author = await insertUser(t, 'author');
+  reviewer = await insertUser(t, 'reviewer');
+  steward = await insertUser(t, 'steward');
+  for (const person of [author, reviewer, steward]) tokens.set(person, await tokenFor(t, person));
+  const studyId = await insertStudy(t, author, [reviewer, steward]);
+  runId = await finishedRun(t, tokens.get(author)!, studyId);
+  const bytes = await storeLargeClassTable(t, runId, ROWS, TERMS);
   expect(bytes).toBeGreaterThan(ROWS * 9800);
-  server = s.t.app.listen(0);
+  server = t.app.listen(0);
 }, 300_000);
 afterAll(async () => {
-  console.log(`large dataset (${ROWS} class rows of ${TERMS} terms):\n  ${figures.join('\n  ')}`);
+  const load = os.loadavg().map((l) => l.toFixed(1));
+  console.log(
+    `large dataset (${ROWS} class rows of ${TERMS} terms, load average ${load.join(' ')}):\n  ${figures.join('\n  ')}`,
+  );
   server.close();
-  await s.t.close();
+  await t.close();
 });
 
 describe('a large dataset stays off the main thread', () => {
@@ -137,19 +189,25 @@ describe('a large dataset stays off the main thread', () => {
     expect(created.value.status, created.value.text).toBe(201);
     id = /"id":"([^"]+)"/.exec(created.value.text)![1]!;
     report('create', created);
+    // One client reading the page in a loop: enough reads for over 100 health calls, so that
+    // p99 is not simply the largest (one garbage-collection pause of this process).
     const page = await underLoad(async () => {
-      for (let i = 0; i < 5; i++) {
-        expect((await call('GET', `/datasets/${id}`)).status).toBe(200);
+      for (let i = 0; i < PAGE_READS; i++) {
+        const read = await call('GET', `/datasets/${id}`);
+        expect(read.status).toBe(200);
+        // The page carries the summary and check rows, never the class table.
+        expect(read.bytes).toBeLessThan(20_000);
       }
     });
-    report('dataset page x5', page);
+    report(`dataset page x${PAGE_READS}`, page);
     const list = await underLoad(() => call('GET', '/datasets'));
     report('dataset list', list);
     // Measured 28-92 ms at load 7-10 (the snapshot text still crosses from the worker and into
     // SQLite on this thread); the bound leaves room for a loaded shared machine. Before, the
     // result was parsed, joined and serialized here. Exports and the lock: docs/operations.md.
     expect(created.p99).toBeLessThan(250);
-    expect(page.p99).toBeLessThan(1000);
+    // Bound: see PAGE_P99_MS.
+    expect(page.p99).toBeLessThan(PAGE_P99_MS);
   }, 300_000);
 
   it('is exported on a run thread: health answers while it renders, the bytes are unchanged', async () => {
@@ -165,7 +223,7 @@ describe('a large dataset stays off the main thread', () => {
     expect(csv.max).toBeLessThan(1000);
     expect(matrix.max).toBeLessThan(1000);
     // The bytes are those the main thread rendered before (same functions, called here).
-    const manager = s.t.dataSource.manager;
+    const manager = t.dataSource.manager;
     const d = await withBytes(
       manager,
       await manager.getRepository(Dataset).findOneByOrFail({ id }),

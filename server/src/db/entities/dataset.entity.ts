@@ -51,13 +51,6 @@ export class Dataset {
   state!: DatasetState;
 
   /**
-   * JSON text: `{spec, gas, run, result, comparisons}` as taken from the run. Tens of megabytes
-   * for a large class table: never read with the row (`select: false`, see `withBytes`).
-   */
-  @Column('text', { select: false })
-  snapshot!: string;
-
-  /**
    * JSON list of user ids: the citation's authors as chosen before the lock; null = the default
    * (the maker, then the approving reviewers). The lock copies the people into the document.
    */
@@ -67,13 +60,6 @@ export class Dataset {
   /** SHA-256 (hex) of `canonical`; set when locked. */
   @Column('varchar', { length: 64, nullable: true })
   hash!: string | null;
-
-  /**
-   * The RFC 8785 canonical JSON that was hashed; the JSON export answers exactly these bytes.
-   * As large as the snapshot: never read with the row (`select: false`, see `withBytes`).
-   */
-  @Column('text', { nullable: true, select: false })
-  canonical!: string | null;
 
   @Column('varchar', { name: 'locked_at', length: 30, nullable: true })
   lockedAt!: string | null;
@@ -91,4 +77,21 @@ export class Dataset {
 
   @Column('varchar', { name: 'updated_at', length: 30 })
   updatedAt!: string;
+
+  // The two byte columns are the table's last (migration DatasetBytesLast): SQLite reads a column
+  // stored after a large value only by walking that value's overflow pages.
+
+  /**
+   * JSON text: `{spec, gas, run, result, comparisons}` as taken from the run. Tens of megabytes
+   * for a large class table: never read with the row (`select: false`, see `withBytes`).
+   */
+  @Column('text', { select: false })
+  snapshot!: string;
+
+  /**
+   * The RFC 8785 canonical JSON that was hashed; the JSON export answers exactly these bytes.
+   * As large as the snapshot: never read with the row (`select: false`, see `withBytes`).
+   */
+  @Column('text', { nullable: true, select: false })
+  canonical!: string | null;
 }

@@ -9,6 +9,7 @@ import { DatasetAuthors1796320000000 } from './1796320000000-dataset-authors.js'
 import { ReferenceFacts1796330000000 } from './1796330000000-reference-facts.js';
 import { ComparisonImpliedWeights1796340000000 } from './1796340000000-comparison-implied-weights.js';
 import { DatasetViews1796350000000 } from './1796350000000-dataset-views.js';
+import { DatasetBytesLast1796360000000 } from './1796360000000-dataset-bytes-last.js';
 
 /** Committed migrations, oldest first. The first is the baseline. */
 export const MIGRATIONS = [
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
   ReferenceFacts1796330000000,
   ComparisonImpliedWeights1796340000000,
   DatasetViews1796350000000,
+  DatasetBytesLast1796360000000,
 ];
