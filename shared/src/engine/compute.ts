@@ -2,6 +2,7 @@ import Fraction from 'fraction.js';
 import { checkClassSums, checkProductRoute, RouteLedger } from './canonical/agreement.js';
 import { markHonestRows } from './canonical/honest-rows.js';
 import { partitionCounts } from './estimate.js';
+import { productLog2Bounds } from './canonical/product-bound.js';
 import { newtonRecursion } from './canonical/recursion.js';
 import { runLargeN, runTableChecks, tagged } from './checks/table-checks.js';
 import { EngineCancelled } from './errors.js';
@@ -94,6 +95,7 @@ export function compute(input: unknown, opts: ComputeOptions = {}): ComputeResul
     cap,
     (done, total) => progress.step(products(done), products(total)),
     opts.shouldStop,
+    w.spectrum && productLog2Bounds(w.spectrum.points, nMax, fermion, cap),
   );
   const t2 = now();
 

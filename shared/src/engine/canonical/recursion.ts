@@ -58,7 +58,9 @@ function pack(weights: readonly Series[], nMax: number, cap: Fraction | null): P
  * s = -1 fermions, +1 bosons. The route is the kernel's one decision (chooseNewtonRoute, see
  * kernel/README.md): weights on one grid without negative exponents go to the exact integer table
  * (multi-modular or BigInt); otherwise series arithmetic with every product cut at `cap`. Z(N) is
- * known as far as the least-known weight (the weights have no negative exponents).
+ * known as far as the least-known weight (the weights have no negative exponents). `log2Bounds`
+ * (optional, proven bounds of log2 |coefficients of Z(N)| below the cap, e.g. productLog2Bounds
+ * for a spectrum) lets the multi-modular run stop with fewer primes.
  */
 export function newtonRecursion(
   weights: readonly Series[],
@@ -67,6 +69,7 @@ export function newtonRecursion(
   cap: Fraction | null,
   tick?: (done: number, total: number) => void,
   shouldStop?: () => boolean,
+  log2Bounds?: readonly number[] | null,
 ): Series[] {
   const packed = pack(weights, nMax, cap);
   const input: NewtonTableInput | null = packed && {
@@ -77,6 +80,7 @@ export function newtonRecursion(
     length: packed.length,
     ...(tick && { onProgress: tick }),
     ...(shouldStop && { shouldStop }),
+    ...(log2Bounds && { log2Bounds }),
   };
   const route = chooseNewtonRoute(input);
   if (route.kind === 'series' || !packed || !input)

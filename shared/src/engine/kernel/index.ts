@@ -12,6 +12,7 @@ export {
   type RationalFactor,
 } from './multiply/rational-factor.js';
 export { newtonTable } from './newton/table.js';
+export { logAbs } from './newton/coefficient-bound.js';
 export { chooseNewtonRoute, type NewtonRoute } from './newton/route.js';
 export type { NewtonTableInput, NewtonTableResult } from './newton/types.js';
 export { foldCycleTypes, exponentNotation, type CycleTypeVisit } from './classes/cycle-types.js';

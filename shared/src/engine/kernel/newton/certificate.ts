@@ -1,6 +1,7 @@
 /**
  * When the multi-modular run may stop, rigorously either way:
- *  - a priori: the primes' product exceeds twice the majorant bound (coefficient-bound.ts);
+ *  - a priori: the primes' product exceeds twice the majorant bound (coefficient-bound.ts, or
+ *    the caller's smaller proven bound `log2Bounds`);
  *  - a posteriori: with Y_N the balanced candidates, the integer residual
  *    R_N = sum_L s^(L-1) c_{N,L} w_L Y_(N-L) - N Y_N vanishes modulo every prime used, and a
  *    bound on |R_N| computed from the candidates' sizes is below the product, so R_N = 0 and by
@@ -48,8 +49,8 @@ export function certificateBasis(input: NewtonTableInput, integral: boolean): Ce
   const majorant = newtonCoefficientLog2Bounds(weights, den, nMax, length);
   let aprioriBits = 2;
   for (let N = 1; N <= nMax; N++) {
-    if (majorant[N] !== -Infinity)
-      aprioriBits = Math.max(aprioriBits, majorant[N]! + scaleLog2(N) + 2);
+    const bound = Math.min(majorant[N]!, input.log2Bounds?.[N] ?? Infinity);
+    if (bound !== -Infinity) aprioriBits = Math.max(aprioriBits, bound + scaleLog2(N) + 2);
   }
   const normLog2 = weights.slice(0, nMax).map((w) => {
     let s = -Infinity;

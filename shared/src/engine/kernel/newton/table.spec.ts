@@ -145,6 +145,19 @@ describe('harmonic trap: Z_L = q^(L/2)/(1-q^L)', () => {
     }
   });
 
+  it('a caller bound (here the exact sizes) needs no more primes and changes no digit', () => {
+    const plain = newtonTable({ weights, den: 1n, nMax, sign: -1, length });
+    const log2Bounds = [0];
+    for (let N = 1; N <= nMax; N++) {
+      const top = expected(N, N * N).reduce((m, x) => (x > m ? x : m), 0n);
+      log2Bounds.push(top === 0n ? -Infinity : Math.log2(Number(top)));
+    }
+    const r = newtonTable({ weights, den: 1n, nMax, sign: -1, length, log2Bounds });
+    expect(r.primes).toBeLessThanOrEqual(plain.primes);
+    expect(r.primes).toBeGreaterThan(0);
+    for (let N = 0; N <= nMax; N++) expect(r.num[N]).toEqual(expected(N, N * N));
+  });
+
   it('bosons: q^(N/2)/(q;q)_N', () => {
     const r = newtonTable({ weights, den: 1n, nMax, sign: 1, length });
     for (let N = 0; N <= nMax; N++) expect(r.num[N]).toEqual(expected(N, N));

@@ -16,6 +16,12 @@ export interface NewtonTableInput {
    * of Z(N) are wanted; the rest of the row comes back as zeros
    */
   readonly validLengths?: readonly number[];
+  /**
+   * optional, per N (index N = 0..nMax): a proven upper bound of log2 max |coefficient of Z(N)|
+   * below the length, known to the caller (the product form's majorant for a spectrum); the
+   * multi-modular run stops at the smaller of it and its own majorant
+   */
+  readonly log2Bounds?: readonly number[];
   /** called as work proceeds */
   readonly onProgress?: (done: number, total: number) => void;
   /** polled between steps; true stops the run with EngineCancelled */
