@@ -91,19 +91,21 @@ export function kernelTraces(
     throw new EngineError('a periodic kernel needs both ends of its circle', 'weights.periodic');
   let evalBits = bitsFor(D, 40);
   let rho: KernelAt = guarded(source(evalBits));
+  // the checks, the window and the fast-path comparisons ask rho at the same few points again
+  let sampled = remembered(rho);
   const pts = samplePoints(from, to, evalBits);
-  checkSymmetric(rho, pts, evalBits);
+  checkSymmetric(sampled, pts, evalBits);
   const centre =
     from !== null && to !== null
       ? ldexp(add(from, to, evalBits), -1)
       : from === null && to === null
         ? new Real(0n, 0)
         : null;
-  const parity = centre !== null && hasParity(rho, centre, pts, evalBits);
+  const parity = centre !== null && hasParity(sampled, centre, pts, evalBits);
   const target = 10 ** -D;
 
   // the cut of the infinite sides and the family of rules
-  const diag0 = Math.abs(toNumber(rho(centre ?? (from ?? to)!, centre ?? (from ?? to)!)));
+  const diag0 = Math.abs(toNumber(sampled(centre ?? (from ?? to)!, centre ?? (from ?? to)!)));
   const makeFamily = (tol: number): { family: RuleFamily; tail: () => number } => {
     if (from !== null && to !== null) {
       const family = periodic
@@ -113,21 +115,24 @@ export function kernelTraces(
     }
     if (from === null && to === null) {
       const c = new Real(0n, 0);
-      const X = Math.max(windowFor(rho, c, 1, tol, evalBits), windowFor(rho, c, -1, tol, evalBits));
+      const X = Math.max(
+        windowFor(sampled, c, 1, tol, evalBits),
+        windowFor(sampled, c, -1, tol, evalBits),
+      );
       const Xr = fromNumber(Math.ceil(X));
       return {
         family: lineFamily(Xr, evalBits),
         tail: () =>
-          tailMass(rho, c, 1, toNumber(Xr), evalBits) +
-          tailMass(rho, c, -1, toNumber(Xr), evalBits),
+          tailMass(sampled, c, 1, toNumber(Xr), evalBits) +
+          tailMass(sampled, c, -1, toNumber(Xr), evalBits),
       };
     }
     const a = (from ?? to)!;
     const dir = from !== null ? 1 : -1;
-    const X = Math.ceil(windowFor(rho, a, dir, tol, evalBits));
+    const X = Math.ceil(windowFor(sampled, a, dir, tol, evalBits));
     return {
       family: halfLineFamily(a, dir, fromNumber(X), tol, evalBits),
-      tail: () => tailMass(rho, a, dir, X, evalBits),
+      tail: () => tailMass(sampled, a, dir, X, evalBits),
     };
   };
   let tol = target * 1e-3 * Math.max(diag0, 1e-300);
@@ -148,7 +153,7 @@ export function kernelTraces(
     return levelResult(blocks, nMax, fermion, F, arithmetic, paceOpts);
   };
   // the coarse pass only sizes things: double-double entries when the kernel allows them
-  if (opts.fast && fastAgrees(opts.fast, rho, pts, PROBE_BITS)) {
+  if (opts.fast && fastAgrees(opts.fast, sampled, pts, PROBE_BITS)) {
     fastAt = fastKernel(opts.fast, rho);
     entryBits = PROBE_BITS;
     arithmetic = 'dd';
@@ -162,11 +167,12 @@ export function kernelTraces(
   if (F + 24 > evalBits) {
     evalBits = F + 32;
     rho = guarded(source(evalBits));
+    sampled = remembered(rho);
     cache = new Map();
   }
   // entries in double-double too, when the expression is elementary and agrees with the Real
   // evaluator on the sample points to the bits the values need
-  if (arithmetic === 'dd' && opts.fast && fastAgrees(opts.fast, rho, pts, need.ddBits)) {
+  if (arithmetic === 'dd' && opts.fast && fastAgrees(opts.fast, sampled, pts, need.ddBits)) {
     fastAt = fastKernel(opts.fast, rho);
     entryBits = need.ddBits;
   }
@@ -218,6 +224,20 @@ export function kernelTraces(
     }
     trip = [trip[1], trip[2], next];
   }
+}
+
+/** rho with its values kept per point (for the few sample points, never for a whole grid). */
+function remembered(rho: KernelAt): KernelAt {
+  const kept = new Map<string, Real>();
+  return (x, y) => {
+    const key = `${x.m}p${x.e},${y.m}p${y.e}`;
+    let v = kept.get(key);
+    if (v === undefined) {
+      v = rho(x, y);
+      kept.set(key, v);
+    }
+    return v;
+  };
 }
 
 /**

@@ -326,12 +326,13 @@ function nextBandPower(P: DD, k: number, d: DD, e: DD, n: number): DD {
 
 /** Coefficients c_0..c_nMax of det(I + kappa T) by the leading-minor recurrence (matrix.ts). */
 export function determinantCoefficientsDD(d: DD, e: DD, nMax: number): DD {
+  // p_(k-2), p_(k-1) and p_k in three buffers used in turn
   let p0 = dd(nMax + 1);
   let p1 = dd(nMax + 1);
+  let next = dd(nMax + 1);
   p0.hi[0] = 1;
   p1.hi[0] = 1;
   for (let k = 0; k < d.hi.length; k++) {
-    const next = dd(nMax + 1);
     let e2h = 0;
     let e2l = 0;
     if (k > 0) {
@@ -339,11 +340,13 @@ export function determinantCoefficientsDD(d: DD, e: DD, nMax: number): DD {
       e2h = R[0];
       e2l = R[1];
     }
+    const dh = d.hi[k]!;
+    const dl = d.lo[k]!;
     for (let j = 0; j <= nMax; j++) {
       let sh = p1.hi[j]!;
       let sl = p1.lo[j]!;
       if (j >= 1) {
-        ddMul(d.hi[k]!, d.lo[k]!, p1.hi[j - 1]!, p1.lo[j - 1]!);
+        ddMul(dh, dl, p1.hi[j - 1]!, p1.lo[j - 1]!);
         ddAdd(sh, sl, R[0], R[1]);
         sh = R[0];
         sl = R[1];
@@ -357,8 +360,10 @@ export function determinantCoefficientsDD(d: DD, e: DD, nMax: number): DD {
       next.hi[j] = sh;
       next.lo[j] = sl;
     }
+    const free = p0;
     p0 = p1;
     p1 = next;
+    next = free;
   }
   return p1;
 }
