@@ -213,22 +213,35 @@ function inverse3(M: number[][]): number[][] | null {
   return [0, 1, 2].map((i) => [0, 1, 2].map((j) => cols[j]![i]!));
 }
 
-/** Starting point: a grid over (log C, B), A by its closed-form least-squares value. */
+/**
+ * Starting point: a grid over (log C, B), A by its closed-form least-squares value. The model's
+ * value at A = 0 is computed as in `model` (the same operations, so the same start) without its
+ * gradient: the grid asks some 12,000 values.
+ */
 function startingPoint(Ns: number[], ys: number[]): Params | null {
   const nMin = Math.min(...Ns);
   const span = Math.max(...Ns) - nMin + 1;
+  const m = Ns.length;
+  const base = new Float64Array(m);
   let best: Params | null = null;
   let bestCost = Infinity;
   for (let iu = 0; iu <= 40; iu++) {
     const u = Math.log(1e-4) + (iu / 40) * Math.log(1e8);
     const bMax = nMin + 2.2 * Math.exp(u / 3);
     const bMin = nMin - 2 * span - 5;
-    for (let ib = 0; ib <= 30; ib++) {
+    const s = Math.exp(-u / 3);
+    grid: for (let ib = 0; ib <= 30; ib++) {
       const B = bMin + (ib / 30) * (bMax - bMin);
-      const base = Ns.map((N) => model([0, B, u], N).f);
-      if (base.some((v) => !Number.isFinite(v))) continue;
-      const A = ys.reduce((s, y, i) => s + y - base[i]!, 0) / ys.length;
-      const c = ys.reduce((s, y, i) => s + (y - A - base[i]!) ** 2, 0);
+      for (let i = 0; i < m; i++) {
+        const f = 0 - u / 3 + logAiry(s * (Ns[i]! - B)).logAi;
+        if (!Number.isFinite(f)) continue grid;
+        base[i] = f;
+      }
+      let sum = 0;
+      for (let i = 0; i < m; i++) sum = sum + ys[i]! - base[i]!;
+      const A = sum / m;
+      let c = 0;
+      for (let i = 0; i < m; i++) c = c + (ys[i]! - A - base[i]!) ** 2;
       if (c < bestCost) {
         bestCost = c;
         best = [A, B, u];
