@@ -110,8 +110,9 @@ export function factorised(
   const code: Code = (v, r) => {
     let ph = 1;
     let pl = 0;
-    for (const f of factors) {
-      const i = f(v, r);
+    // indexed loops (called per matrix entry: an iterator allocates until optimised)
+    for (let q = 0; q < factors.length; q++) {
+      const i = factors[q]!(v, r);
       const h = r[i]!;
       // a factor whose low part would leave the normal floating-point range ends the product
       if (!(h > 1e-270 && h < 1e270)) {
@@ -126,8 +127,8 @@ export function factorised(
       // a factor or the product out of range: the exponential of the whole argument
       let sh = 0;
       let sl = 0;
-      for (const s of sums) {
-        const i = s(v, r);
+      for (let q = 0; q < sums.length; q++) {
+        const i = sums[q]!(v, r);
         ddAdd(sh, sl, r[i]!, r[i + 1]!);
         sh = R[0];
         sl = R[1];

@@ -10,6 +10,7 @@ import {
   halfLineFamily,
   intervalFamily,
   lineFamily,
+  type Rule,
   type RuleFamily,
 } from './quadrature.js';
 import {
@@ -145,8 +146,17 @@ export function kernelTraces(
   let arithmetic: Arithmetic = 'fixed';
   let fastAt: FastAt | null = null;
   let entryBits = 0;
+  // a rule is built once per family and resolution (in Real arithmetic: a tenth of a warm run)
+  const rules = new WeakMap<RuleFamily, Map<number, Rule>>();
+  const ruleAt = (mm: number): Rule => {
+    let kept = rules.get(family);
+    if (!kept) rules.set(family, (kept = new Map()));
+    let rule = kept.get(mm);
+    if (!rule) kept.set(mm, (rule = family.at(mm)));
+    return rule;
+  };
   const run = (mm: number): LevelResult => {
-    const rule = family.at(mm);
+    const rule = ruleAt(mm);
     const blocks = fastAt
       ? nystromBlocksDD(rule, fastAt, parity, entryBits, paceOpts)
       : nystromBlocks(rule, rho, parity, cache, evalBits, F, paceOpts);
@@ -206,7 +216,7 @@ export function kernelTraces(
     const nextTooBig = family.points(next) > maxPoints;
     if (done || nextTooBig) {
       const l3 = ls[2];
-      const rule = family.at(trip[2]);
+      const rule = ruleAt(trip[2]);
       const blocksText = parity ? `; even and odd blocks of ${l3.blocks.join(' and ')}` : '';
       const result: KernelOutcome = {
         traces: out.traces,

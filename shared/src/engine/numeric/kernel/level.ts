@@ -144,8 +144,8 @@ function reduceDD(B: Block, nMax: number, F: number, p?: Pace): Reduced {
   const t = tridiagonalPowerTracesDD(d, e, nMax);
   const c = determinantCoefficientsDD(d, e, nMax);
   let norm2 = 0;
-  for (const v of d.hi) norm2 += v * v;
-  for (const v of e.hi) norm2 += 2 * v * v;
+  for (let i = 0; i < d.hi.length; i++) norm2 += d.hi[i]! * d.hi[i]!;
+  for (let i = 0; i < e.hi.length; i++) norm2 += 2 * e.hi[i]! * e.hi[i]!;
   return {
     traces: Array.from(t.hi, (h, i) => ddToReal(h, t.lo[i]!)),
     coeff: Array.from(c.hi, (h, i) => ddToReal(h, c.lo[i]!)),

@@ -152,7 +152,11 @@ export function nystromBlocksDD(
 /** Each entry is good to 2^-entryBits of the largest one (what fastAgrees checked). */
 function withUnits(blocks: DDMatrix[], entryBits: number): DDMatrix[] {
   let max = 0;
-  for (const B of blocks) for (const v of B.hi) max = Math.max(max, Math.abs(v));
+  // indexed loops: an iterator over n^2 entries allocates a result per entry until optimised
+  for (const B of blocks) {
+    const hi = B.hi;
+    for (let i = 0; i < hi.length; i++) max = Math.max(max, Math.abs(hi[i]!));
+  }
   for (const B of blocks) B.unit = max * 2 ** -entryBits;
   return blocks;
 }
