@@ -11,9 +11,9 @@ import {
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
 import { ApiError, messageOf } from '../core/api-error';
+import { AsyncState } from '../shared/async-state';
 import { RunProgressPanel } from './run-progress';
 import { RunStartState, RunStatus, RunSummary, RunsApi, isActive, runErrorText } from './runs-api';
 import { STATUS_ICONS, STATUS_LABELS, durationText } from '../shared/run-status';
@@ -21,14 +21,7 @@ import { STATUS_ICONS, STATUS_LABELS, durationText } from '../shared/run-status'
 /** Starting a run of a gas, following it live, and the gas's run history. */
 @Component({
   selector: 'tl-gas-runs',
-  imports: [
-    DatePipe,
-    MatButtonModule,
-    MatIconModule,
-    MatProgressBarModule,
-    RouterLink,
-    RunProgressPanel,
-  ],
+  imports: [DatePipe, MatButtonModule, MatIconModule, AsyncState, RouterLink, RunProgressPanel],
   templateUrl: './gas-runs.html',
   styleUrl: './gas-runs.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -43,19 +36,13 @@ export class GasRuns {
   readonly viewedVersion = input<number | null>(null);
   readonly canRun = input(false);
 
-  private readonly runList = this.api.runListResource(() => this.gasId());
+  protected readonly runList = this.api.runListResource(() => this.gasId());
   /** The gas's runs, newest first. */
   protected readonly runs = computed<RunSummary[]>(() =>
     this.runList.hasValue()
       ? [...this.runList.value()].sort((a, b) => b.createdAt.localeCompare(a.createdAt))
       : [],
   );
-  /** Only until the first answer: a reload keeps the history on screen. */
-  protected readonly loading = computed(() => !this.runList.hasValue() && !this.runList.error());
-  protected readonly loadError = computed(() => {
-    const err = this.runList.error();
-    return err ? messageOf(err) : null;
-  });
   protected readonly starting = signal(false);
   protected readonly startError = signal<string | null>(null);
   /** The run followed live (the newest active one). */

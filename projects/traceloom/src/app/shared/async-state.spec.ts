@@ -72,4 +72,53 @@ describe('AsyncState', () => {
       'The server could not answer.',
     );
   });
+
+  it('puts the prefix sentence before the error, a fixed sentence for a static file, and the projected empty content', async () => {
+    TestBed.configureTestingModule({ imports: [WordedHost], providers: testProviders() });
+    const fixture = TestBed.createComponent(WordedHost);
+    const host = fixture.componentInstance;
+    const el: HTMLElement = fixture.nativeElement;
+    host.r.loading.set(false);
+    host.r.value.set(true);
+    await fixture.whenStable();
+    const empty = el.querySelector('[data-testid="gases-empty"]')!;
+    expect(empty.textContent?.trim()).toBe('No gases yet. Define one.');
+    expect(empty.textContent).not.toContain('Nothing here yet.');
+
+    host.r.error.set(new ApiError(500, 'internal', 'The server could not answer.'));
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid="gases-error"] p')?.textContent?.trim()).toBe(
+      'The gases could not be loaded: The server could not answer.',
+    );
+
+    host.fixed.set('This page could not be loaded.');
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid="gases-error"] p')?.textContent?.trim()).toBe(
+      'The gases could not be loaded: This page could not be loaded.',
+    );
+    host.r.error.set(new ApiError(404, 'not_found', 'Not found.'));
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid="gases-error"] p')?.textContent?.trim()).toBe(
+      'The gases could not be loaded: This page does not exist.',
+    );
+  });
 });
+
+@Component({
+  imports: [AsyncState],
+  template: `<tl-async-state
+    [resource]="r.resource"
+    [empty]="true"
+    errorPrefix="The gases could not be loaded:"
+    [errorText]="fixed()"
+    notFound="This page does not exist."
+    testId="gases"
+  >
+    <span stateEmpty>No gases yet. Define one.</span>
+    <p class="content">the gases</p>
+  </tl-async-state>`,
+})
+class WordedHost {
+  readonly r = fakeResource();
+  readonly fixed = signal<string | null>(null);
+}
