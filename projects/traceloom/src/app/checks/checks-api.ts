@@ -42,6 +42,13 @@ export class ChecksApi {
     );
   }
 
+  /** The reference tables of the study `studyId()` as a resource (call in an injection context). */
+  referencesResource(studyId: () => string): HttpResourceRef<ReferenceSummary[] | undefined> {
+    return httpResource<ReferenceSummary[]>(
+      () => `/api/studies/${encodeURIComponent(studyId())}/references`,
+    );
+  }
+
   /** The reference table with id `id()` as a resource (call in an injection context). */
   referenceResource(id: () => string): HttpResourceRef<ReferenceDto | undefined> {
     return httpResource<ReferenceDto>(() => `/api/references/${encodeURIComponent(id())}`);

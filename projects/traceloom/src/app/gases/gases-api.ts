@@ -1,4 +1,4 @@
-import { HttpClient } from '@angular/common/http';
+import { HttpClient, httpResource, type HttpResourceRef } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { ComputeResult } from '@traceloom/shared/engine';
@@ -20,6 +20,14 @@ export class GasesApi {
   /** The study's gases (deleted ones are not listed). */
   list(studyId: string): Observable<GasSummary[]> {
     return this.http.get<GasSummary[]>(`/api/studies/${encodeURIComponent(studyId)}/gases`);
+  }
+
+  /**
+   * The gases of the study `studyId()` (deleted ones are not listed) as a resource (call in an
+   * injection context): re-read when the study changes, the previous request cancelled.
+   */
+  listResource(studyId: () => string): HttpResourceRef<GasSummary[] | undefined> {
+    return httpResource<GasSummary[]>(() => `/api/studies/${encodeURIComponent(studyId())}/gases`);
   }
 
   /** Creates a gas (version 1). */

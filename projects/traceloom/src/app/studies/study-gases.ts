@@ -1,19 +1,10 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
-import { ChecksApi, ReferenceSummary } from '../checks/checks-api';
-import { messageOf } from '../core/api-error';
+import { ChecksApi } from '../checks/checks-api';
+import { AsyncState } from '../shared/async-state';
 import { Session } from '../core/session';
 import { canWriteGases } from '../core/gas-roles';
 import { STATUS_ICONS, STATUS_LABELS } from '../shared/run-status';
@@ -30,7 +21,7 @@ const KIND_LABELS: Record<GasSummary['weightsKind'], string> = {
 /** A study's gases (with their last run) and reference tables, on the study page. */
 @Component({
   selector: 'tl-study-gases',
-  imports: [DatePipe, MatButtonModule, MatIconModule, MatProgressBarModule, RouterLink],
+  imports: [AsyncState, DatePipe, MatButtonModule, MatIconModule, RouterLink],
   templateUrl: './study-gases.html',
   styleUrl: './study-gases.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -42,16 +33,17 @@ export class StudyGases {
 
   readonly studyId = input.required<string>();
 
-  protected readonly gases = signal<GasSummary[] | null>(null);
-  protected readonly references = signal<ReferenceSummary[] | null>(null);
-  protected readonly gasError = signal<string | null>(null);
-  protected readonly referenceError = signal<string | null>(null);
+  /** Both read the study `studyId()`: a new study cancels the previous requests. */
+  protected readonly gasList = this.gasesApi.listResource(() => this.studyId());
+  protected readonly referenceList = this.checksApi.referencesResource(() => this.studyId());
+  protected readonly gases = computed<GasSummary[]>(() =>
+    this.gasList.hasValue() ? this.gasList.value() : [],
+  );
+  protected readonly references = computed(() =>
+    this.referenceList.hasValue() ? this.referenceList.value() : [],
+  );
   protected readonly canWrite = computed(() => canWriteGases(this.session.role()));
   protected readonly kindLabels = KIND_LABELS;
-
-  constructor() {
-    effect(() => this.load(this.studyId()));
-  }
 
   protected statusLabel(status: string): string {
     return STATUS_LABELS[status as RunStatus] ?? status;
@@ -61,16 +53,9 @@ export class StudyGases {
     return STATUS_ICONS[status as RunStatus] ?? 'help';
   }
 
-  protected load(studyId: string): void {
-    this.gasError.set(null);
-    this.referenceError.set(null);
-    this.gasesApi.list(studyId).subscribe({
-      next: (gases) => this.gases.set(gases),
-      error: (err: unknown) => this.gasError.set(messageOf(err)),
-    });
-    this.checksApi.references(studyId).subscribe({
-      next: (refs) => this.references.set(refs),
-      error: (err: unknown) => this.referenceError.set(messageOf(err)),
-    });
+  /** Reads both lists again. */
+  protected reload(): void {
+    this.gasList.reload();
+    this.referenceList.reload();
   }
 }
