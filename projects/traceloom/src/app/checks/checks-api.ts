@@ -36,12 +36,6 @@ export interface ReferenceFields {
 export class ChecksApi {
   private readonly http = inject(HttpClient);
 
-  references(studyId: string): Observable<ReferenceSummary[]> {
-    return this.http.get<ReferenceSummary[]>(
-      `/api/studies/${encodeURIComponent(studyId)}/references`,
-    );
-  }
-
   /** The reference tables of the study `studyId()` as a resource (call in an injection context). */
   referencesResource(studyId: () => string): HttpResourceRef<ReferenceSummary[] | undefined> {
     return httpResource<ReferenceSummary[]>(
@@ -87,8 +81,11 @@ export class ChecksApi {
     );
   }
 
-  comparisons(runId: string): Observable<ComparisonDto[]> {
-    return this.http.get<ComparisonDto[]>(`/api/runs/${encodeURIComponent(runId)}/comparisons`);
+  /** The stored comparisons of the run `runId()` as a resource (call in an injection context). */
+  comparisonsResource(runId: () => string): HttpResourceRef<ComparisonDto[] | undefined> {
+    return httpResource<ComparisonDto[]>(
+      () => `/api/runs/${encodeURIComponent(runId())}/comparisons`,
+    );
   }
 
   compare(runId: string, body: ComparisonRequest): Observable<ComparisonDto> {

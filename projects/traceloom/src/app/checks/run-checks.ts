@@ -1,15 +1,7 @@
 import type { RowVerdictDto, SeriesRowVerdictDto } from '@traceloom/shared/api';
 import { RouterLink } from '@angular/router';
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -19,9 +11,10 @@ import { MatSelectModule } from '@angular/material/select';
 import { messageOf } from '../core/api-error';
 import { Session } from '../core/session';
 import { ExportButtons } from '../exports/export-buttons';
+import { AsyncState } from '../shared/async-state';
 import type { RunDto } from '@traceloom/shared/api';
 import { plainPower } from '@traceloom/shared/format';
-import { ChecksApi, ComparisonDto, ReferenceDto, ReferenceSummary } from './checks-api';
+import { ChecksApi, ReferenceDto } from './checks-api';
 import { comparisonCsv, comparisonTex } from './comparison-export';
 import { ReferenceUpload } from './reference-upload';
 import { SeriesSideBySide } from './series-side-by-side';
@@ -38,6 +31,7 @@ import type { VerdictLike } from './verdict-cells';
 @Component({
   selector: 'tl-run-checks',
   imports: [
+    AsyncState,
     DatePipe,
     FormsModule,
     MatButtonModule,
@@ -70,10 +64,32 @@ export class RunChecks {
   protected readonly weightsByL = computed(
     () => new Map((this.result()?.weights ?? []).map((w) => [w.L, w.value])),
   );
-  protected readonly references = signal<ReferenceSummary[]>([]);
-  protected readonly comparisons = signal<ComparisonDto[]>([]);
-  protected readonly loading = signal(true);
-  protected readonly error = signal<string | null>(null);
+  /**
+   * Read by the run's study and id (computed strings: a new copy of the same run, as the run page
+   * re-reads it, requests nothing again).
+   */
+  private readonly runId = computed(() => this.run().id);
+  private readonly studyId = computed(() => this.run().studyId);
+  private readonly referenceList = this.api.referencesResource(this.studyId);
+  protected readonly comparisonList = this.api.comparisonsResource(this.runId);
+  protected readonly references = computed(() =>
+    this.referenceList.hasValue() ? this.referenceList.value() : [],
+  );
+  /** Newest first. */
+  protected readonly comparisons = computed(() =>
+    this.comparisonList.hasValue()
+      ? [...this.comparisonList.value()].sort((a, b) => b.createdAt.localeCompare(a.createdAt))
+      : [],
+  );
+  /** A refused comparison. */
+  protected readonly compareError = signal<string | null>(null);
+  /** The refused comparison, else why the study's reference tables could not be read. */
+  protected readonly error = computed(() => {
+    const refused = this.compareError();
+    if (refused) return refused;
+    const err = this.referenceList.error();
+    return err ? messageOf(err) : null;
+  });
   protected readonly chosenReference = signal<string | null>(null);
   protected readonly comparing = signal(false);
   protected readonly showUpload = signal(false);
@@ -88,10 +104,6 @@ export class RunChecks {
   });
   protected readonly comparisonCsv = comparisonCsv;
   protected readonly comparisonTex = comparisonTex;
-
-  constructor() {
-    effect(() => this.load(this.run()));
-  }
 
   protected asNumeric(rows: readonly unknown[]): NumericVerdictRow[] {
     return rows.filter(isNumericVerdict) as NumericVerdictRow[];
@@ -117,41 +129,26 @@ export class RunChecks {
 
   protected compare(body: { referenceId: string } | { grand: true }): void {
     this.comparing.set(true);
-    this.error.set(null);
+    this.compareError.set(null);
     this.api.compare(this.run().id, body).subscribe({
       next: (comparison) => {
         this.comparing.set(false);
-        this.comparisons.set([comparison, ...this.comparisons()]);
+        this.comparisonList.set([comparison, ...this.comparisons()]);
       },
       error: (err: unknown) => {
         this.comparing.set(false);
-        this.error.set(messageOf(err));
+        this.compareError.set(messageOf(err));
       },
     });
   }
 
   protected onUploaded(reference: ReferenceDto): void {
-    this.references.set([{ ...reference, rowCount: reference.rows.length }, ...this.references()]);
+    this.referenceList.set([
+      { ...reference, rowCount: reference.rows.length },
+      ...this.references(),
+    ]);
     this.chosenReference.set(reference.id);
     this.showUpload.set(false);
     this.compare({ referenceId: reference.id });
-  }
-
-  private load(run: RunDto): void {
-    this.loading.set(true);
-    this.api.references(run.studyId).subscribe({
-      next: (refs) => this.references.set(refs),
-      error: (err: unknown) => this.error.set(messageOf(err)),
-    });
-    this.api.comparisons(run.id).subscribe({
-      next: (list) => {
-        this.loading.set(false);
-        this.comparisons.set([...list].sort((a, b) => b.createdAt.localeCompare(a.createdAt)));
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.error.set(messageOf(err));
-      },
-    });
   }
 }
