@@ -5,20 +5,19 @@ import {
   effect,
   inject,
   input,
-  signal,
+  linkedSignal,
   viewChild,
 } from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatPaginator, MatPaginatorModule } from '@angular/material/paginator';
-import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import type { ClassRowJson } from '@traceloom/shared/engine';
-import { messageOf } from '../core/api-error';
 import { ExportButtons } from '../exports/export-buttons';
+import { AsyncState } from '../shared/async-state';
 import { RunsApi } from './runs-api';
 import { Tex } from '../shared/tex';
 import {
@@ -70,11 +69,11 @@ export function classLines(rows: readonly ClassRowJson[], variable: string): Cla
 @Component({
   selector: 'tl-class-table',
   imports: [
+    AsyncState,
     FormsModule,
     MatFormFieldModule,
     MatIconModule,
     MatPaginatorModule,
-    MatProgressBarModule,
     MatSelectModule,
     MatSortModule,
     MatTableModule,
@@ -100,10 +99,24 @@ export class ClassTable {
       .filter((n) => n >= 1)
       .sort((a, b) => a - b),
   );
-  protected readonly chosen = signal<number | null>(null);
-  protected readonly loading = signal(false);
-  protected readonly error = signal<string | null>(null);
-  protected readonly rows = signal<ClassRowJson[]>([]);
+  /** The N shown: the largest at first, the user's choice while it stays among the choices. */
+  protected readonly chosen = linkedSignal<number[], number | null>({
+    source: this.choices,
+    computation: (choices, previous) =>
+      previous?.value != null && choices.includes(previous.value)
+        ? previous.value
+        : (choices[choices.length - 1] ?? null),
+  });
+  protected readonly classList = this.api.classesResource(
+    () => this.runId(),
+    () => this.chosen(),
+  );
+  protected readonly rows = computed<ClassRowJson[]>(() => {
+    const n = this.chosen();
+    return this.classList.hasValue()
+      ? (this.classList.value().result?.classes ?? []).filter((r) => r.N === n)
+      : [];
+  });
   protected readonly lines = computed(() => classLines(this.rows(), this.variable()));
   protected readonly source = new MatTableDataSource<ClassLine>([]);
   protected readonly columns = ['cycleType', 'size', 'sign', 'contribution'];
@@ -132,34 +145,11 @@ export class ClassTable {
       return line.cycles;
     };
     effect(() => {
-      const choices = this.choices();
-      if (this.chosen() === null && choices.length) this.chosen.set(choices[choices.length - 1]);
-    });
-    effect(() => {
-      const n = this.chosen();
-      if (n !== null) this.load(this.runId(), n);
-    });
-    effect(() => {
       this.source.data = this.lines();
       const sort = this.sort();
       const paginator = this.paginator();
       if (sort) this.source.sort = sort;
       if (paginator) this.source.paginator = paginator;
-    });
-  }
-
-  protected load(runId: string, n: number): void {
-    this.loading.set(true);
-    this.error.set(null);
-    this.api.classes(runId, n).subscribe({
-      next: (run) => {
-        this.loading.set(false);
-        this.rows.set((run.result?.classes ?? []).filter((r) => r.N === n));
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.error.set(messageOf(err));
-      },
     });
   }
 }

@@ -72,10 +72,17 @@ export class RunsApi {
     return this.http.get<RunDto>(`/api/runs/${encodeURIComponent(id)}`);
   }
 
-  /** The run with only the class-table rows of one N in `result.classes`. */
-  classes(id: string, n: number): Observable<RunDto> {
-    return this.http.get<RunDto>(`/api/runs/${encodeURIComponent(id)}`, {
-      params: { classes: n },
+  /**
+   * The run `id()` with only the class-table rows of N = `n()` in `result.classes`, as a
+   * resource (call in an injection context); idle while `n()` is null. Choosing another N
+   * cancels the previous request.
+   */
+  classesResource(id: () => string, n: () => number | null): HttpResourceRef<RunDto | undefined> {
+    return httpResource<RunDto>(() => {
+      const N = n();
+      return N === null
+        ? undefined
+        : { url: `/api/runs/${encodeURIComponent(id())}`, params: { classes: N } };
     });
   }
 
