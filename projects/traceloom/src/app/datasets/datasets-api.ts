@@ -1,5 +1,6 @@
 import { HttpClient, httpResource, type HttpResourceRef } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
+import { studyResource } from '../core/study-resource';
 import { Observable } from 'rxjs';
 import type {
   AuditEventDto,
@@ -49,10 +50,7 @@ export class DatasetsApi {
 
   /** The study with id `id()` (none while it is undefined) as a resource. */
   studyResource(id: () => string | undefined): HttpResourceRef<StudyDto | undefined> {
-    return httpResource<StudyDto>(() => {
-      const studyId = id();
-      return studyId ? `/api/studies/${enc(studyId)}` : undefined;
-    });
+    return studyResource(id);
   }
 
   /** One dataset with checks, reviews and comments. */

@@ -13,7 +13,16 @@ describe('GasEditor', () => {
   let http: HttpTestingController;
   let el: HTMLElement;
 
-  async function render(role: Role = 'author', keepDrafts = false): Promise<void> {
+  /**
+   * Renders the editor of a new gas in STUDY. The breadcrumb reads the study through a resource,
+   * which keeps the fixture from settling until it is answered: answered here unless the test
+   * looks at the crumb while it loads (`answerStudy` false; the fixture is then not settled).
+   */
+  async function render(
+    role: Role = 'author',
+    keepDrafts = false,
+    answerStudy = true,
+  ): Promise<void> {
     sessionStorage.clear();
     if (!keepDrafts) localStorage.clear();
     TestBed.configureTestingModule({
@@ -25,6 +34,10 @@ describe('GasEditor', () => {
     fixture = TestBed.createComponent(GasEditor);
     fixture.componentRef.setInput('studyId', STUDY);
     el = fixture.nativeElement;
+    await Promise.resolve();
+    TestBed.tick();
+    if (!answerStudy) return;
+    http.expectOne(`/api/studies/${STUDY}`).flush({ title: 'Trap study' });
     await settle();
   }
 
@@ -66,7 +79,7 @@ describe('GasEditor', () => {
   });
 
   it('names the study in the breadcrumb', async () => {
-    await render();
+    await render('author', false, false);
     // While the title loads: a quiet bar, no placeholder word.
     const loading = el.querySelector('nav.crumbs')?.textContent ?? '';
     expect(loading).not.toMatch(/\b[Ss]tudy\b/);

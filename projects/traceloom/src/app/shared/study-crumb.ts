@@ -1,11 +1,12 @@
-import { HttpClient } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { RouterLink } from '@angular/router';
+import { studyResource } from '../core/study-resource';
 
 /**
  * The breadcrumb link to a study, named by the study's title (read from the API). Until the
  * title arrives it shows a quiet bar (no placeholder word); when the study cannot be read, the
- * link is to the studies list and says so.
+ * link is to the studies list and says so. Its own small states (a crumb, not a page block), so
+ * no tl-async-state.
  */
 @Component({
   selector: 'tl-study-crumb',
@@ -25,29 +26,14 @@ import { RouterLink } from '@angular/router';
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class StudyCrumb {
-  private readonly http = inject(HttpClient);
-
   readonly studyId = input<string | null | undefined>(null);
 
-  protected readonly title = signal<string | null>(null);
-  protected readonly state = signal<'loading' | 'loaded' | 'unknown'>('loading');
-
-  constructor() {
-    effect(() => {
-      const id = this.studyId();
-      this.title.set(null);
-      if (!id) {
-        this.state.set('unknown');
-        return;
-      }
-      this.state.set('loading');
-      this.http.get<{ title: string }>(`/api/studies/${encodeURIComponent(id)}`).subscribe({
-        next: (s) => {
-          this.title.set(s.title);
-          this.state.set('loaded');
-        },
-        error: () => this.state.set('unknown'),
-      });
-    });
-  }
+  private readonly study = studyResource(() => this.studyId());
+  protected readonly title = computed(() =>
+    this.study.hasValue() ? this.study.value().title : null,
+  );
+  protected readonly state = computed((): 'loading' | 'loaded' | 'unknown' => {
+    if (!this.studyId() || this.study.error()) return 'unknown';
+    return this.study.hasValue() ? 'loaded' : 'loading';
+  });
 }
