@@ -1,22 +1,20 @@
-import { HttpClient } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
   Component,
   ElementRef,
   computed,
-  effect,
   inject,
   input,
-  signal,
+  linkedSignal,
 } from '@angular/core';
-import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { RouterLink } from '@angular/router';
 import { MarkdownComponent, provideMarkdown } from 'ngx-markdown';
-import { catchError, forkJoin, map, of } from 'rxjs';
+import { AsyncState } from '../shared/async-state';
 import { ensureKatexStyles } from '../shared/katex-setup';
-import { HELP_PAGES, HelpPage, TocEntry, buildToc, isHtmlFallback } from './help-pages';
+import { HelpApi } from './help-api';
+import { HelpPage, TocEntry, buildToc } from './help-pages';
 
 const KATEX_OPTIONS = {
   throwOnError: false,
@@ -31,36 +29,36 @@ const KATEX_OPTIONS = {
 /** The user guide: docs/*.md rendered with ngx-markdown and KaTeX, with a page menu and contents. */
 @Component({
   selector: 'tl-help-page',
-  imports: [MarkdownComponent, MatIconModule, MatListModule, MatProgressBarModule, RouterLink],
+  imports: [AsyncState, MarkdownComponent, MatListModule, MatProgressBarModule, RouterLink],
   providers: [provideMarkdown()],
   templateUrl: './help-page.html',
   styleUrl: './help-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class HelpPageView {
-  private readonly http = inject(HttpClient);
+  private readonly api = inject(HelpApi);
   private readonly host = inject(ElementRef<HTMLElement>);
 
   /** Route `help/:page`; empty = the first page. */
   readonly page = input<string>();
 
-  protected readonly pages = signal<HelpPage[] | null>(null);
-  protected readonly text = signal<string | null>(null);
-  protected readonly error = signal<string | null>(null);
-  protected readonly toc = signal<TocEntry[]>([]);
+  protected readonly pages = this.api.pagesResource();
+  /** The shipped pages; null until they are known (or when none was shipped). */
+  protected readonly pageList = computed(() => (this.pages.hasValue() ? this.pages.value() : null));
   protected readonly current = computed((): HelpPage | null => {
-    const pages = this.pages() ?? [];
+    const pages = this.pageList() ?? [];
     return pages.find((p) => p.slug === this.page()) ?? pages[0] ?? null;
+  });
+  protected readonly text = this.api.pageResource(() => this.current()?.slug);
+  /** The rendered page's headings: none until it has rendered, again for each page. */
+  protected readonly toc = linkedSignal<string | undefined, TocEntry[]>({
+    source: () => this.current()?.slug,
+    computation: () => [],
   });
   protected readonly katexOptions = KATEX_OPTIONS;
 
   constructor() {
     ensureKatexStyles();
-    this.discover();
-    effect(() => {
-      const page = this.current();
-      if (page) this.load(page.slug);
-    });
   }
 
   protected onReady(): void {
@@ -76,38 +74,5 @@ export class HelpPageView {
     target?.scrollIntoView({ block: 'start' });
     target?.setAttribute('tabindex', '-1');
     target?.focus({ preventScroll: true });
-  }
-
-  private discover(): void {
-    const seen = new Set<string>();
-    forkJoin(
-      HELP_PAGES.map((p) =>
-        this.http.get(`/docs/${p.slug}.md`, { responseType: 'text' }).pipe(
-          map((body) => (isHtmlFallback(body) ? null : p)),
-          catchError(() => of(null)),
-        ),
-      ),
-    ).subscribe((found) => {
-      const pages = found.filter((p): p is HelpPage => {
-        if (!p || seen.has(p.title)) return false;
-        seen.add(p.title);
-        return true;
-      });
-      this.pages.set(pages);
-      if (pages.length === 0) this.error.set('No guide pages were shipped with this build.');
-    });
-  }
-
-  private load(slug: string): void {
-    this.text.set(null);
-    this.error.set(null);
-    this.toc.set([]);
-    this.http.get(`/docs/${slug}.md`, { responseType: 'text' }).subscribe({
-      next: (body) => {
-        if (isHtmlFallback(body)) this.error.set('This guide page does not exist.');
-        else this.text.set(body);
-      },
-      error: () => this.error.set('This guide page could not be loaded.'),
-    });
   }
 }
