@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import http from 'node:http';
 import os from 'node:os';
 import type { AddressInfo } from 'node:net';
@@ -22,14 +23,14 @@ import { readSnapshot } from './snapshot.js';
 /**
  * Replays "dataset create / page / export / lock parse the snapshot on the main thread": a run
  * with a ~60 MB class table (see testing/large-data.ts) becomes a dataset, whose page is read,
- * which is exported, while /api/health is asked every 10 ms. Figures are printed
+ * which is exported and locked, while /api/health is asked every 10 ms. Figures are printed
  * (docs/operations.md).
  */
 
 const { rows: ROWS, terms: TERMS } = LARGE_TABLE;
 
 /** Reads of the dataset page in the loop that is timed. */
-const PAGE_READS = 150;
+const PAGE_READS = 250;
 /**
  * Bound on health p99 while the page is read in a loop. The target is 50 ms; measured here
  * 22-23 ms at load average 2.5-6 and 76-133 ms at load 7.4-7.5 (four engineers' suites on two
@@ -39,6 +40,13 @@ const PAGE_READS = 150;
  * five reads.
  */
 const PAGE_P99_MS = 150;
+/**
+ * Bound on health p99 while the large dataset is locked. The target is 50 ms; measured here
+ * 24-44 ms over about 1,000 calls at load average 6-7.5; the bound leaves room for a loaded
+ * shared machine as the page's does. The lock's longest stall of the event loop (printed) is
+ * not bounded: writing the canonical text into the row takes seconds on this thread.
+ */
+const LOCK_P99_MS = 100;
 let t: TestApp;
 let author: User;
 let reviewer: User;
@@ -235,5 +243,35 @@ describe('a large dataset stays off the main thread', () => {
     expect((await body(`/datasets/${id}/export?format=csv`)).equals(here)).toBe(true);
     const hereMatrix = Buffer.from(renderMatrix(result), 'utf8');
     expect((await body(`/datasets/${id}/export?format=matrix`)).equals(hereMatrix)).toBe(true);
+  }, 300_000);
+
+  it('is locked on a run thread: health answers while it hashes, the hash is that of the JSON export', async () => {
+    expect(id).not.toBe('');
+    // Putting it in review changes the row's state, which SQLite writes as a whole new row:
+    // timed to show what that costs this thread (docs/operations.md), not bounded.
+    const asked = await underLoad(() =>
+      call('POST', `/datasets/${id}/review-requests`, { reviewerIds: [reviewer.id] }),
+    );
+    expect(asked.value.status, asked.value.text).toBe(200);
+    report('review request', asked);
+    const approved = await call(
+      'POST',
+      `/datasets/${id}/reviews`,
+      { verdict: 'approve', comment: 'Reproduced.' },
+      reviewer,
+    );
+    expect(approved.status, approved.text).toBe(201);
+    const lock = await underLoad(() => call('POST', `/datasets/${id}/lock`, undefined, steward));
+    expect(lock.value.status, lock.value.text).toBe(200);
+    report('lock', lock);
+    const hash = /"hash":"([0-9a-f]{64})"/.exec(lock.value.text)![1]!;
+    // The document is built, canonicalized and hashed on a run thread; this thread reads the
+    // snapshot out of SQLite and writes the row back with the canonical text (both tens of
+    // megabytes), which is the longest stall printed.
+    // Bound: see LOCK_P99_MS.
+    expect(lock.p99).toBeLessThan(LOCK_P99_MS);
+    const json = await body(`/datasets/${id}/export?format=json`);
+    expect(json.length).toBeGreaterThan(ROWS * 9800);
+    expect(createHash('sha256').update(json).digest('hex')).toBe(hash);
   }, 300_000);
 });
