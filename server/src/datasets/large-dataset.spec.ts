@@ -33,8 +33,8 @@ const { rows: ROWS, terms: TERMS } = LARGE_TABLE;
 const PAGE_READS = 250;
 /**
  * Bound on health p99 while the page is read in a loop. The target is 50 ms; measured here
- * 22-23 ms at load average 2.5-6 and 76-133 ms at load 7.4-7.5 (four engineers' suites on two
- * cores), when the matrix export, which reads no page, showed 73 ms too. The bound leaves that
+ * 22-41 ms at load average 2.5-8 and 76-133 ms at load 7.4-11.6 (four engineers' suites on two
+ * cores), when the matrix export, which reads no page, showed 60-73 ms too. The bound leaves that
  * margin for a loaded shared machine; CI runs the suite alone on an idle one. Before (each read
  * walked the snapshot's overflow pages to reach the columns stored after it): 119-383 ms for
  * five reads.
@@ -42,11 +42,12 @@ const PAGE_READS = 250;
 const PAGE_P99_MS = 150;
 /**
  * Bound on health p99 while the large dataset is locked. The target is 50 ms; measured here
- * 24-44 ms over about 1,000 calls at load average 6-7.5; the bound leaves room for a loaded
- * shared machine as the page's does. The lock's longest stall of the event loop (printed) is
- * not bounded: writing the canonical text into the row takes seconds on this thread.
+ * 24-44 ms over about 1,000 calls at load average 6-10 and 87 ms at 11.6; the bound leaves that
+ * room for a loaded shared machine as the page's does. The lock's longest stall of the event
+ * loop (printed) is not bounded: writing the row back with the canonical text takes seconds on
+ * this thread (docs/operations.md).
  */
-const LOCK_P99_MS = 100;
+const LOCK_P99_MS = 150;
 let t: TestApp;
 let author: User;
 let reviewer: User;
