@@ -104,8 +104,11 @@ export function mulTruncRational(
   }
   const lb = Math.min(b.length, n);
   if (lb <= 0 || f.p.length === 0) return [];
-  const out = new Array<bigint>(n).fill(0n);
-  for (let k = 0; k < f.p.length; k++) {
+  const out = new Array<bigint>(n);
+  // P_0 = 1 (a factor from its first term on): u starts as b itself, no additions to zero
+  const first = f.p[0] === 1n ? 1 : 0;
+  for (let i = 0; i < n; i++) out[i] = first === 1 && i < lb ? b[i]! : 0n;
+  for (let k = first; k < f.p.length; k++) {
     const pk = f.p[k]!;
     const off = k * stride;
     if (pk === 0n || off >= n) continue;
