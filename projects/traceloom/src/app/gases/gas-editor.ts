@@ -10,7 +10,9 @@ import {
   inject,
   Injector,
   input,
+  linkedSignal,
   signal,
+  untracked,
 } from '@angular/core';
 import { DatePipe } from '@angular/common';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
@@ -26,6 +28,7 @@ import { Router, RouterLink } from '@angular/router';
 import type { GasSpecInput } from '@traceloom/shared/engine';
 import { ApiError, messageOf } from '../core/api-error';
 import { Session } from '../core/session';
+import { AsyncState, type ResourceLike } from '../shared/async-state';
 import { canWriteGases } from '../core/gas-roles';
 import { GasRuns } from '../runs/gas-runs';
 import { errorText } from './field-error';
@@ -46,6 +49,7 @@ import { GasWeights } from './gas-weights';
 @Component({
   selector: 'tl-gas-editor',
   imports: [
+    AsyncState,
     StudyCrumb,
     RunEstimate,
     ReactiveFormsModule,
@@ -82,9 +86,25 @@ export class GasEditor {
   readonly gasId = input<string>();
 
   protected readonly form = gasForm();
-  protected readonly gas = signal<GasDto | null>(null);
-  protected readonly loading = signal(false);
-  protected readonly loadError = signal<string | null>(null);
+  /** The saved gas as read; idle for a new gas. A new id cancels the previous request. */
+  private readonly gasRead = this.api.gasResource(() => this.gasId());
+  /** The gas on screen: as read, then as saved. */
+  protected readonly gas = linkedSignal<GasDto | null>(() =>
+    this.gasRead.hasValue() ? this.gasRead.value() : null,
+  );
+  /** The read as the page's state: a new gas has nothing to wait for. */
+  protected readonly gasState: ResourceLike = {
+    isLoading: () => this.gasRead.isLoading(),
+    hasValue: () => this.isNew() || this.gasRead.hasValue(),
+    error: () => this.gasRead.error(),
+  };
+  /** The older version asked for (null: none); read through a resource. */
+  private readonly requestedVersion = signal<number | null>(null);
+  private readonly versionRead = this.api.versionResource(
+    () => this.gas()?.id,
+    () => this.requestedVersion(),
+  );
+  protected readonly loading = computed(() => this.versionRead.isLoading());
   protected readonly saving = signal(false);
   protected readonly saveError = signal<string | null>(null);
   /** A version other than the latest, shown read-only; null = the latest (editable). */
@@ -110,14 +130,33 @@ export class GasEditor {
       this.validate();
       this.keepDraft();
     });
+    // A new gas: the draft kept in the browser, if any, goes into the form.
     effect(() => {
-      const id = this.gasId();
-      if (id) this.load(id);
-      else
+      if (!this.gasId())
         queueMicrotask(() => {
           this.restoreDraft();
           this.validate();
         });
+    });
+    // The saved gas as read goes into the form (then the draft kept over it, if any).
+    effect(() => {
+      if (!this.gasRead.hasValue()) return;
+      const gas = this.gasRead.value();
+      untracked(() => this.fill(gas));
+    });
+    // An older version as read goes into the form, read-only; a failed read says why.
+    effect(() => {
+      const err = this.versionRead.error();
+      const old = this.versionRead.hasValue() ? this.versionRead.value() : undefined;
+      untracked(() => {
+        if (err) {
+          this.requestedVersion.set(null);
+          this.snackBar.open(messageOf(err), 'Dismiss', { duration: 6000 });
+        } else if (old) {
+          this.viewedVersion.set(old.version);
+          fillGasForm(this.form, old.spec);
+        }
+      });
     });
     effect(() => (this.readOnly() ? this.form.disable() : this.form.enable()));
   }
@@ -225,47 +264,21 @@ export class GasEditor {
     const gas = this.gas();
     if (!gas) return;
     if (version === null || version === gas.version) {
+      this.requestedVersion.set(null);
       this.viewedVersion.set(null);
       fillGasForm(this.form, gas.spec);
       this.form.markAsPristine();
       return;
     }
-    this.loading.set(true);
-    this.api.version(gas.id, version).subscribe({
-      next: (old) => {
-        this.loading.set(false);
-        this.viewedVersion.set(old.version);
-        fillGasForm(this.form, old.spec);
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.snackBar.open(messageOf(err), 'Dismiss', { duration: 6000 });
-      },
-    });
+    this.requestedVersion.set(version);
   }
 
-  private load(id: string): void {
-    this.loading.set(true);
-    this.loadError.set(null);
-    this.api.get(id).subscribe({
-      next: (gas) => {
-        this.loading.set(false);
-        this.gas.set(gas);
-        this.viewedVersion.set(null);
-        fillGasForm(this.form, gas.spec);
-        this.form.markAsPristine();
-        this.restoreDraft();
-        if ((history.state as { showRuns?: boolean } | null)?.showRuns) this.showRuns();
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.loadError.set(
-          err instanceof ApiError && err.status === 404
-            ? 'This gas does not exist, or you are not a member of its study.'
-            : messageOf(err),
-        );
-      },
-    });
+  private fill(gas: GasDto): void {
+    this.viewedVersion.set(null);
+    fillGasForm(this.form, gas.spec);
+    this.form.markAsPristine();
+    this.restoreDraft();
+    if ((history.state as { showRuns?: boolean } | null)?.showRuns) this.showRuns();
   }
 
   /** After a save: the runs of the saved version, with the Run button, come into view. */

@@ -35,8 +35,15 @@ export class GasesApi {
     return this.http.post<GasDto>(`/api/studies/${encodeURIComponent(studyId)}/gases`, { spec });
   }
 
-  get(id: string): Observable<GasDto> {
-    return this.http.get<GasDto>(`/api/gases/${encodeURIComponent(id)}`);
+  /**
+   * The gas `id()` as a resource (call in an injection context); idle while there is no id (a
+   * new gas), a new id cancels the previous request.
+   */
+  gasResource(id: () => string | undefined): HttpResourceRef<GasDto | undefined> {
+    return httpResource<GasDto>(() => {
+      const gasId = id();
+      return gasId ? `/api/gases/${encodeURIComponent(gasId)}` : undefined;
+    });
   }
 
   /** Saves the spec as a new version; old versions and their runs stay. */
@@ -44,10 +51,21 @@ export class GasesApi {
     return this.http.put<GasDto>(`/api/gases/${encodeURIComponent(id)}`, { spec });
   }
 
-  version(id: string, version: number): Observable<GasVersionDto> {
-    return this.http.get<GasVersionDto>(
-      `/api/gases/${encodeURIComponent(id)}/versions/${encodeURIComponent(version)}`,
-    );
+  /**
+   * Version `version()` of the gas `id()` as a resource; idle while either is missing, another
+   * version cancels the previous request.
+   */
+  versionResource(
+    id: () => string | undefined,
+    version: () => number | null,
+  ): HttpResourceRef<GasVersionDto | undefined> {
+    return httpResource<GasVersionDto>(() => {
+      const gasId = id();
+      const v = version();
+      return gasId && v !== null
+        ? `/api/gases/${encodeURIComponent(gasId)}/versions/${encodeURIComponent(v)}`
+        : undefined;
+    });
   }
 
   /** The small synchronous computation behind the live preview (strict server caps). */
