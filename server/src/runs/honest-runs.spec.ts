@@ -76,6 +76,33 @@ describe('honest rows through the API', () => {
     expect(rows[28]).toMatchObject({ determined: true, agrees: true });
     expect(res.body.result.orderAdvice.orderNeeded).toBe('401');
   });
+
+  it('a run read refuses a bad class query naming its field, before the run is looked up', async () => {
+    const id = '6f1c2d3e-0000-4000-8000-00000000ffff';
+    const ask = async (query: string) => {
+      const res = await request(t.app)
+        .get(`/api/runs/${id}?${query}`)
+        .set('Authorization', bearer(token));
+      expect(res.status).toBe(400);
+      return res.body.error as { message: string; field: string };
+    };
+    expect(await ask('classes=x')).toMatchObject({
+      field: 'classes',
+      message: 'classes: must be a whole number N.',
+    });
+    expect(await ask('classes=3&classPage=-1')).toMatchObject({
+      field: 'classPage',
+      message: 'classPage: must be a whole number (a page index from 0).',
+    });
+    expect(await ask('classPage=1')).toMatchObject({
+      field: 'classPage',
+      message: 'classPage: needs classes=N as well.',
+    });
+    const absent = await request(t.app)
+      .get(`/api/runs/${id}?classes=3`)
+      .set('Authorization', bearer(token));
+    expect(absent.status).toBe(404);
+  });
 });
 
 describe('estimate before a run', () => {

@@ -167,13 +167,11 @@ export async function listRuns(
   return runs.map((run) => toRunSummary(run, executor.progressOf(run.id)));
 }
 
-/** A whole number from 0 to 999 in a query parameter, or null when absent. */
-function queryNumber(raw: unknown, field: string, what: string): number | null {
-  if (raw === undefined) return null;
-  if (typeof raw !== 'string' || !/^\d{1,3}$/.test(raw)) {
-    throw new AppError(400, 'invalid_input', `${field}: must be a whole number ${what}.`, field);
-  }
-  return Number(raw);
+/** What a read of one run asks for: the class rows of one N, and one page of them. */
+export interface RunQuery {
+  classes: number | null;
+  /** Only with `classes`. */
+  classPage: number | null;
 }
 
 /**
@@ -186,13 +184,8 @@ export async function getRun(
   ctx: AppContext,
   actor: Actor,
   runId: string,
-  query: { classes?: unknown; classPage?: unknown },
+  { classes: classesN, classPage: page }: RunQuery = { classes: null, classPage: null },
 ): Promise<JsonPieces> {
-  const classesN = queryNumber(query.classes, 'classes', 'N');
-  const page = queryNumber(query.classPage, 'classPage', '(a page index from 0)');
-  if (page !== null && classesN === null) {
-    throw new AppError(400, 'invalid_input', 'classPage: needs classes=N as well.', 'classPage');
-  }
   const run = await loadVisibleRun(ctx, actor, runId);
   const dto: Omit<RunDto, 'result'> = {
     ...toRunSummary(run, ctx.services.executor.progressOf(run.id)),
