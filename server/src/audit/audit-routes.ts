@@ -1,4 +1,4 @@
-import { PERMISSIONS } from '@traceloom/shared/api';
+import { PERMISSIONS, may } from '@traceloom/shared/api';
 import { auditQuerySchema, type AuditEventDto, type AuditQuery } from '@traceloom/shared/api';
 import { parseInput } from '../http/validate.js';
 import type { AppContext } from '../app-context.js';
@@ -25,7 +25,7 @@ export async function listAudit(
     .take(limit);
   if (targetType) qb.andWhere('e.targetType = :targetType', { targetType });
   if (targetId) qb.andWhere('e.targetId = :targetId', { targetId: targetId.toLowerCase() });
-  const admin = actor.role === 'admin';
+  const admin = may(actor.role, 'everyStudy');
   if (!admin) {
     // Scoped in SQL: only events of studies the reader owns or is a member of.
     qb.andWhere(

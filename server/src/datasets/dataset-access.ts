@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import { In, type EntityManager } from 'typeorm';
 import { Dataset } from '../db/entities/index.js';
 import { AppError, notFound } from '../http/app-error.js';
@@ -123,7 +124,7 @@ export async function listVisibleDatasets(
     .select('d.id', 'id')
     .innerJoin('d.study', 's');
   if (studyId !== null) query.andWhere('s.id = :studyId', { studyId });
-  if (actor.role !== 'admin') {
+  if (!may(actor.role, 'everyStudy')) {
     query.andWhere(
       '(s.owner_id = :me OR EXISTS (SELECT 1 FROM "study_member" m WHERE m.study_id = s.id AND m.user_id = :me))',
       { me: actor.id },

@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import type { DatasetDocument, DatasetPersonDto } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
 import { Dataset } from '../db/entities/index.js';
@@ -49,7 +50,7 @@ export function datasetAuthors(
 /** True when `actor` may choose the dataset's authors now (maker or steward, before the lock). */
 export function canEditAuthors(actor: Actor, d: Dataset): boolean {
   const open = d.state === 'draft' || d.state === 'in_review';
-  return open && (d.createdBy.id === actor.id || actor.role === 'steward');
+  return open && (d.createdBy.id === actor.id || may(actor.role, 'curate'));
 }
 
 /**

@@ -1,3 +1,4 @@
+import { may } from '@traceloom/shared/api';
 import type { DatasetDto, DatasetPersonDto, DatasetSummaryDto } from '@traceloom/shared/api';
 import type { EntityManager } from 'typeorm';
 import {
@@ -140,7 +141,8 @@ export async function toDatasetDto(
   const view = await loadView(manager, d.id);
   const open = d.state === 'draft' || d.state === 'in_review';
   const isCreator = d.createdBy.id === actor.id;
-  const steward = actor.role === 'steward';
+  const curator = may(actor.role, 'curate');
+  const steward = may(actor.role, 'lock');
   const requested = children.requests.some((r) => r.reviewer.id === actor.id);
   const blockers = lockBlockers(d, children, actor.id, view.checks);
   return {
@@ -170,9 +172,9 @@ export async function toDatasetDto(
     citation: citationOf(d),
     ...authorsOf(d, children),
     can: {
-      edit: d.state === 'draft' && (isCreator || steward || actor.role === 'admin'),
+      edit: d.state === 'draft' && (isCreator || may(actor.role, 'editAnyDraft')),
       editAuthors: canEditAuthors(actor, d),
-      requestReview: open && (isCreator || steward),
+      requestReview: open && (isCreator || curator),
       review: d.state === 'in_review' && requested,
       waive: open && steward,
       lock: steward && !isCreator && blockers.length === 0,

@@ -55,7 +55,7 @@ export async function requestReview(
 ): Promise<DatasetDto> {
   const added = await ctx.dataSource.transaction(async (manager) => {
     const d = await loadWritableDataset(manager, actor, datasetId);
-    if (d.createdBy.id !== actor.id && actor.role !== 'steward') {
+    if (d.createdBy.id !== actor.id && !may(actor.role, 'curate')) {
       throw forbidden("Only the dataset's author or a steward may request reviews.");
     }
     assertOpen(d);

@@ -10,7 +10,7 @@ export const STUDY_RELATIONS = { owner: true, members: { user: true } } as const
 /** True when `actor` may see `study`: its owner, a member, or an admin. */
 export function canSee(actor: Actor, study: Study): boolean {
   return (
-    actor.role === 'admin' ||
+    may(actor.role, 'everyStudy') ||
     study.owner.id === actor.id ||
     study.members.some((member) => member.user.id === actor.id)
   );
@@ -35,12 +35,12 @@ export async function loadVisibleStudy(
 /** Title and description: the owner, an admin, or a member whose role is author or steward. */
 export function assertCanEdit(actor: Actor, study: Study): void {
   const editorRole = may(actor.role, 'editStudies');
-  if (actor.role === 'admin' || study.owner.id === actor.id || editorRole) return;
+  if (may(actor.role, 'everyStudy') || study.owner.id === actor.id || editorRole) return;
   throw forbidden('Only the owner, an admin, or an author or steward member may edit this study.');
 }
 
 /** Deleting and membership: the owner or an admin. */
 export function assertCanManage(actor: Actor, study: Study): void {
-  if (actor.role === 'admin' || study.owner.id === actor.id) return;
+  if (may(actor.role, 'everyStudy') || study.owner.id === actor.id) return;
   throw forbidden('Only the study owner or an admin may do this.');
 }

@@ -27,14 +27,21 @@ export const PERMISSIONS = {
   check: ROLES,
   /** Make a dataset from a run (and edit or delete the drafts one made). */
   makeDatasets: ['author', 'steward', 'admin'],
-  /** Edit or delete anyone's draft dataset, request reviews of it. */
+  /** Edit or delete anyone's draft dataset. */
   editAnyDraft: ['steward', 'admin'],
+  /** Request reviews of anyone's open dataset and choose its authors (its maker may too). */
+  curate: ['steward'],
   /** Be asked for a review and give a verdict. */
   review: ['reviewer', 'steward'],
   /** Waive a failing check, lock and withdraw a dataset. */
   lock: ['steward'],
   /** Read the audit log (stewards: their studies' events, without addresses). */
   readAudit: ['steward', 'admin'],
+  /**
+   * See every study with its datasets and audit events, delete it and change its members,
+   * without being its owner or a member.
+   */
+  everyStudy: ['admin'],
   /** Manage users and invitations; read the local mail fake. */
   administer: ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
