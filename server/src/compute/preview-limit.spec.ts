@@ -91,3 +91,17 @@ describe('preview flood', () => {
     expect(await t.dataSource.getRepository(Gas).count()).toBe(before);
   }, 120_000);
 });
+
+describe('a preview body without its spec', () => {
+  it('is refused naming spec, saying the body is {"spec": ...}', async () => {
+    const r = await request(server)
+      .post('/api/compute')
+      .set('Authorization', bearer(token))
+      .send(TRAP_SPEC);
+    expect(r.status).toBe(400);
+    expect(r.body.error.field).toBe('spec');
+    expect(r.body.error.message).toBe(
+      'Gas: is required (the request body is {"spec": <the gas>}).',
+    );
+  });
+});

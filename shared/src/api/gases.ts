@@ -12,7 +12,9 @@ export { gasSpecSchema, type GasSpec, type GasSpecInput } from '../engine/spec/s
  * `POST /api/compute/estimate`: the spec itself is checked by the server's spec gate (prototype
  * keys, expression shape) and then `gasSpecSchema`, each naming the field.
  */
-export const gasBodySchema = z.strictObject({ spec: z.unknown() });
+export const gasBodySchema = z.strictObject({
+  spec: z.unknown().nonoptional({ error: 'is required (the request body is {"spec": <the gas>})' }),
+});
 
 /** One line of a study's gas list (`GET /api/studies/:id/gases`). */
 export interface GasSummary {
