@@ -37,8 +37,9 @@ function det(m: bigint[][]): bigint {
 
 /**
  * The shortest P / Q (order d <= 4 of Q, degree of P <= d) with Q c = P below y^L, or null when
- * no such recurrence holds for every coefficient of `c` (or `c` is too short to check one). The recurrence sum_k Q_k c_(n-k) = 0 (n > d) is solved on d of its equations
- * (Cramer's rule on integers) and then checked on all the others, so the result is exact.
+ * no such recurrence holds for every coefficient of `c` (or `c` is too short to check one). The
+ * recurrence sum_k Q_k c_(n-k) = 0 (n > d) is solved on d of its equations (Cramer's rule on
+ * integers) and then checked on all the others, so the result is exact.
  */
 export function findRationalFactor(c: readonly bigint[]): RationalFactor | null {
   const L = c.length;
